@@ -1,0 +1,56 @@
+// Boreline: Nuxt 4 application config. Runtime values come from NUXT_* environment variables
+// (see .env.example); nothing here fetches anything from outside the machine at run time.
+import { SCRYPT_OPTIONS } from './server/services/password'
+
+const buildDir = process.env.BORELINE_BUILD_DIR // lets parallel work trees build side by side
+
+export default defineNuxtConfig({
+  compatibilityDate: '2026-11-01',
+  devtools: { enabled: false },
+  telemetry: false,
+  modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', 'nuxt-auth-utils', '@vueuse/nuxt'],
+  css: ['~/assets/css/main.css'],
+  // components are named by file (app/components/quotes/QuoteCard.vue -> <QuoteCard>), folders show the domain
+  components: [{ path: '~/components', pathPrefix: false }],
+  ...(buildDir ? { buildDir: `${buildDir}/.nuxt` } : {}),
+  app: {
+    head: {
+      htmlAttrs: { lang: 'en' },
+      title: 'Boreline',
+      link: [{ rel: 'icon', type: 'image/svg+xml', href: '/boreline-mark.svg' }],
+      meta: [{ name: 'viewport', content: 'width=device-width, initial-scale=1' }],
+    },
+  },
+  runtimeConfig: {
+    // server-only; every key can be overridden as NUXT_<SNAKE_CASE>
+    databaseUrl: 'sqlite:./data/boreline.sqlite',
+    publicOrigin: 'http://localhost:3000',
+    uploadsDir: './uploads',
+    smtpHost: '127.0.0.1',
+    smtpPort: 1025,
+    mailFrom: 'Boreline <no-reply@boreline.test>',
+    stripeSecretKey: 'sk_test_boreline_local',
+    stripeWebhookSecret: 'whsec_boreline_local_secret',
+    stripeHost: '127.0.0.1',
+    stripePort: 12111,
+    stripeProtocol: 'http',
+    sessionIdleMinutes: 60,
+    sessionAbsoluteHours: 12,
+    session: {
+      name: 'boreline-session',
+      password: '',
+      cookie: { sameSite: 'lax', httpOnly: true },
+      // never accept the session from a request header (h3 would otherwise read x-nuxt-session-*)
+      sessionHeader: false,
+    },
+    public: {
+      currency: 'GBP',
+      locale: 'en-GB',
+    },
+  },
+  nitro: {
+    externals: { external: ['sqlite3', 'sequelize'] },
+  },
+  auth: { hash: { scrypt: { ...SCRYPT_OPTIONS } } },
+  typescript: { strict: true },
+})

@@ -1,0 +1,113 @@
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
+import type { OrgKind, OrgStatus, PaymentTerms, Role, UserStatus } from '../../shared/types/accounts'
+
+export class Branch extends Model<InferAttributes<Branch>, InferCreationAttributes<Branch>> {
+  declare id: CreationOptional<number>
+  declare code: string
+  declare name: string
+  declare address: CreationOptional<string>
+  declare createdAt: CreationOptional<Date>
+  declare updatedAt: CreationOptional<Date>
+}
+
+export class DiscountTier extends Model<InferAttributes<DiscountTier>, InferCreationAttributes<DiscountTier>> {
+  declare id: CreationOptional<number>
+  declare name: string
+  declare percentBp: number
+  declare createdAt: CreationOptional<Date>
+  declare updatedAt: CreationOptional<Date>
+}
+
+export class Organisation extends Model<InferAttributes<Organisation>, InferCreationAttributes<Organisation>> {
+  declare id: CreationOptional<number>
+  declare kind: OrgKind
+  declare name: string
+  declare status: CreationOptional<OrgStatus>
+  declare tradingAddress: CreationOptional<string>
+  declare taxNumber: CreationOptional<string>
+  declare contactName: CreationOptional<string>
+  declare phone: CreationOptional<string>
+  declare email: CreationOptional<string>
+  declare tierId: CreationOptional<number | null>
+  declare paymentTerms: CreationOptional<PaymentTerms>
+  declare creditLimitMinor: CreationOptional<number>
+  declare paymentDays: CreationOptional<number>
+  declare homeBranchId: CreationOptional<number | null>
+  declare decisionReason: CreationOptional<string | null>
+  declare decidedAt: CreationOptional<Date | null>
+  declare createdAt: CreationOptional<Date>
+  declare updatedAt: CreationOptional<Date>
+}
+
+export class User extends Model<InferAttributes<User>, InferCreationAttributes<User>> {
+  declare id: CreationOptional<number>
+  declare organisationId: number
+  declare email: string
+  declare name: string
+  declare role: Role
+  declare passwordHash: CreationOptional<string | null>
+  declare status: CreationOptional<UserStatus>
+  declare sessionVersion: CreationOptional<number>
+  declare lastSignInAt: CreationOptional<Date | null>
+  declare createdAt: CreationOptional<Date>
+  declare updatedAt: CreationOptional<Date>
+}
+
+export class SessionRecord extends Model<InferAttributes<SessionRecord>, InferCreationAttributes<SessionRecord>> {
+  declare id: string
+  declare userId: number
+  declare sessionVersion: number
+  declare ip: CreationOptional<string>
+  declare userAgent: CreationOptional<string>
+  declare lastSeenAt: Date
+  declare expiresAt: Date
+  declare revokedAt: CreationOptional<Date | null>
+  declare createdAt: CreationOptional<Date>
+  declare updatedAt: CreationOptional<Date>
+}
+
+export class AuditEntry extends Model<InferAttributes<AuditEntry>, InferCreationAttributes<AuditEntry>> {
+  declare id: CreationOptional<number>
+  declare actorUserId: number | null
+  declare organisationId: number | null
+  declare action: string
+  declare entity: string
+  declare entityId: string | null
+  declare changes: string
+  declare createdAt: CreationOptional<Date>
+}
+
+const id = { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true }
+const stamps = { createdAt: DataTypes.DATE, updatedAt: DataTypes.DATE }
+
+export function initAccountModels(sequelize: Sequelize): void {
+  Branch.init({ id, code: DataTypes.STRING, name: DataTypes.STRING, address: DataTypes.TEXT, ...stamps }, { sequelize, tableName: 'branches' })
+  DiscountTier.init({ id, name: DataTypes.STRING, percentBp: DataTypes.INTEGER, ...stamps }, { sequelize, tableName: 'discount_tiers' })
+  Organisation.init({
+    id, kind: DataTypes.STRING, name: DataTypes.STRING, status: DataTypes.STRING,
+    tradingAddress: DataTypes.TEXT, taxNumber: DataTypes.STRING, contactName: DataTypes.STRING,
+    phone: DataTypes.STRING, email: DataTypes.STRING, tierId: DataTypes.INTEGER,
+    paymentTerms: DataTypes.STRING, creditLimitMinor: DataTypes.INTEGER, paymentDays: DataTypes.INTEGER,
+    homeBranchId: DataTypes.INTEGER, decisionReason: DataTypes.TEXT, decidedAt: DataTypes.DATE, ...stamps,
+  }, { sequelize, tableName: 'organisations' })
+  User.init({
+    id, organisationId: DataTypes.INTEGER, email: DataTypes.STRING, name: DataTypes.STRING, role: DataTypes.STRING,
+    passwordHash: DataTypes.TEXT, status: DataTypes.STRING, sessionVersion: DataTypes.INTEGER,
+    lastSignInAt: DataTypes.DATE, ...stamps,
+  }, { sequelize, tableName: 'users' })
+  SessionRecord.init({
+    id: { type: DataTypes.STRING, primaryKey: true }, userId: DataTypes.INTEGER, sessionVersion: DataTypes.INTEGER,
+    ip: DataTypes.STRING, userAgent: DataTypes.STRING, lastSeenAt: DataTypes.DATE, expiresAt: DataTypes.DATE,
+    revokedAt: DataTypes.DATE, ...stamps,
+  }, { sequelize, tableName: 'sessions' })
+  AuditEntry.init({
+    id, actorUserId: DataTypes.INTEGER, organisationId: DataTypes.INTEGER, action: DataTypes.STRING,
+    entity: DataTypes.STRING, entityId: DataTypes.STRING, changes: DataTypes.TEXT, createdAt: DataTypes.DATE,
+  }, { sequelize, tableName: 'audit_log', updatedAt: false })
+
+  Organisation.belongsTo(DiscountTier, { as: 'tier', foreignKey: 'tierId' })
+  Organisation.belongsTo(Branch, { as: 'homeBranch', foreignKey: 'homeBranchId' })
+  Organisation.hasMany(User, { as: 'users', foreignKey: 'organisationId' })
+  User.belongsTo(Organisation, { as: 'organisation', foreignKey: 'organisationId' })
+  SessionRecord.belongsTo(User, { as: 'user', foreignKey: 'userId' })
+}

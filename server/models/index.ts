@@ -1,0 +1,19 @@
+/**
+ * Model registry. `initModels()` binds every model to the one Sequelize instance; the database plugin calls
+ * it at start and scripts call it before use. Each domain keeps its models in its own file here and adds
+ * one line to `initModels`.
+ */
+import type { Sequelize } from 'sequelize'
+import { getDb } from '../utils/db'
+import { initAccountModels } from './accounts'
+
+export * from './accounts'
+
+let initialised: Sequelize | undefined
+
+export function initModels(sequelize: Sequelize = getDb()): Sequelize {
+  if (initialised === sequelize) return sequelize
+  initAccountModels(sequelize)
+  initialised = sequelize
+  return sequelize
+}

@@ -1,0 +1,17 @@
+/** At start: refuse a weak session secret in production, then migrate and bind the models. */
+import { databaseReady } from '../utils/ready'
+import { getDb } from '../utils/db'
+
+export default defineNitroPlugin((nitro) => {
+  const config = useRuntimeConfig()
+  if (!process.env.DATABASE_URL && config.databaseUrl) process.env.DATABASE_URL = config.databaseUrl
+  if (process.env.NODE_ENV === 'production' && !import.meta.dev) {
+    const pw = String(config.session?.password ?? '')
+    if (pw.length < 32) {
+      console.error('[boreline] NUXT_SESSION_PASSWORD is missing or shorter than 32 characters: refusing to start.')
+      process.exit(1)
+    }
+  }
+  databaseReady().catch((err) => console.error('[boreline] database not ready:', err?.message ?? err))
+  nitro.hooks.hook('close', async () => { await getDb().close() })
+})

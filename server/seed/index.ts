@@ -1,0 +1,12 @@
+/**
+ * `npm run db:seed`: the invented demo scenario, idempotent (a second run changes nothing). Each domain adds
+ * its seed function here, in dependency order; all of them run in one write transaction.
+ */
+import { withWrite } from '../utils/db'
+import { seedAccounts } from './accounts'
+
+export async function runSeed(log: (s: string) => void = console.log): Promise<void> {
+  await withWrite(async (t) => {
+    await seedAccounts(t, log)
+  })
+}

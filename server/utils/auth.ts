@@ -1,0 +1,52 @@
+/**
+ * Who is calling. `server/middleware/10.session.ts` resolves the caller from the server-side session record
+ * on every request (role and account status read from the database, never from the cookie) and puts it in
+ * `event.context.auth`. Routes then call `requireAuth` / `requireAbility` first.
+ */
+import type { H3Event } from 'h3'
+import { createError } from 'h3'
+import type { Organisation, User } from '../models/accounts'
+import { can, type Ability } from '../../shared/utils/abilities'
+
+export interface AuthContext {
+  user: User
+  org: Organisation
+  sessionId: string
+}
+
+declare module 'h3' {
+  interface H3EventContext {
+    auth?: AuthContext | null
+  }
+}
+
+interface RequireOptions {
+  /** pending/rejected garages may still read their own application status */
+  allowUnapproved?: boolean
+}
+
+/** 401 without a live session; 403 when the organisation is not approved (suspended, pending, rejected). */
+export function requireAuth(event: H3Event, options: RequireOptions = {}): AuthContext {
+  const auth = event.context.auth
+  if (!auth) throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message: 'Please sign in.' })
+  if (!options.allowUnapproved && auth.org.status !== 'approved') {
+    const why = auth.org.status === 'suspended'
+      ? 'This trade account is suspended. Please contact the distributor.'
+      : 'This trade account has not been approved yet.'
+    throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: why })
+  }
+  return auth
+}
+
+/** `requireAuth` plus the role check from shared/utils/abilities.ts (403). */
+export function requireAbility(event: H3Event, ability: Ability, options: RequireOptions = {}): AuthContext {
+  const auth = requireAuth(event, options)
+  if (!can(auth.user.role, ability)) {
+    throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: 'Your role does not allow this.' })
+  }
+  return auth
+}
+
+export function isDistributor(auth: AuthContext): boolean {
+  return auth.org.kind === 'distributor'
+}

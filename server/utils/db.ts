@@ -1,0 +1,85 @@
+/**
+ * The one Sequelize instance (lazily created) and the write helper every write transaction goes through.
+ * Plain Node: no Nitro auto-imports here, so scripts (migrate, seed, backup) can import it with tsx.
+ *
+ * SQLite has one writer. Measured on this stack, concurrent write transactions fail with SQLITE_BUSY or
+ * stall for minutes even with WAL + busy_timeout; an in-process mutex around write transactions makes
+ * them all succeed quickly. So every write runs inside `withWrite`, which serialises them in this process.
+ */
+import { AsyncLocalStorage } from 'node:async_hooks'
+import { mkdirSync } from 'node:fs'
+import { dirname, resolve } from 'node:path'
+import { Mutex } from 'async-mutex'
+import { Sequelize, Transaction } from 'sequelize'
+import sqlite3 from 'sqlite3'
+
+const BUSY_TIMEOUT_MS = 5000
+
+/** sqlite3 with every connection configured the same way (Sequelize opens one per transaction). */
+class ConfiguredDatabase extends sqlite3.Database {
+  constructor(filename: string, mode?: number, callback?: (err: Error | null) => void) {
+    super(filename, mode as number, callback as (err: Error | null) => void)
+    this.configure('busyTimeout', BUSY_TIMEOUT_MS)
+    this.run('PRAGMA journal_mode=WAL')
+    this.run('PRAGMA synchronous=NORMAL')
+    this.run('PRAGMA foreign_keys=ON')
+  }
+}
+const dialectModule = { ...sqlite3, Database: ConfiguredDatabase }
+
+/** `sqlite:./data/boreline.sqlite` -> absolute path; `sqlite::memory:` -> ':memory:'. */
+export function storageFromUrl(url: string): string {
+  const m = /^sqlite:(.*)$/.exec(url.trim())
+  if (!m) throw new Error(`DATABASE_URL must look like sqlite:./data/boreline.sqlite (got "${url}")`)
+  const p = m[1]!.replace(/^\/\//, '')
+  return p === ':memory:' ? p : resolve(p)
+}
+
+export function databaseUrl(): string {
+  return process.env.DATABASE_URL || process.env.NUXT_DATABASE_URL || 'sqlite:./data/boreline.sqlite'
+}
+
+let instance: Sequelize | undefined
+
+/** The lazily created Sequelize instance for `DATABASE_URL`. */
+export function getDb(): Sequelize {
+  if (instance) return instance
+  const storage = storageFromUrl(databaseUrl())
+  if (storage !== ':memory:') mkdirSync(dirname(storage), { recursive: true })
+  instance = new Sequelize({
+    dialect: 'sqlite',
+    storage,
+    dialectModule,
+    logging: process.env.DB_LOG === '1' ? console.log : false,
+    define: { underscored: true, timestamps: true },
+    pool: { max: 1, min: 0, idle: 10_000 },
+    retry: { max: 3 },
+  })
+  return instance
+}
+
+export async function closeDb(): Promise<void> {
+  if (instance) await instance.close()
+  instance = undefined
+}
+
+const writeMutex = new Mutex()
+const currentTx = new AsyncLocalStorage<Transaction>()
+
+/**
+ * Runs `fn` in one IMMEDIATE write transaction, serialised with every other write in this process.
+ * Nested calls join the outer transaction (so helpers can call each other without deadlocking).
+ * Anything thrown rolls the whole transaction back.
+ */
+export async function withWrite<T>(fn: (t: Transaction) => Promise<T>): Promise<T> {
+  const outer = currentTx.getStore()
+  if (outer) return fn(outer)
+  return writeMutex.runExclusive(() =>
+    getDb().transaction({ type: Transaction.TYPES.IMMEDIATE }, (t) => currentTx.run(t, () => fn(t))),
+  )
+}
+
+/** How many write transactions are queued or running (for diagnostics and the benchmarks). */
+export function writeQueueBusy(): boolean {
+  return writeMutex.isLocked()
+}

@@ -1,0 +1,45 @@
+/**
+ * What each role may do: the one place this is written down. The server decides with it on every route
+ * (server/utils/auth.ts `requireAbility`); the client uses it only to hide what the user cannot do.
+ */
+import type { Role } from '../types/accounts'
+
+export const ABILITIES = {
+  // catalogue and calculations
+  'catalogue.view': ['distributor_admin', 'counter_staff', 'garage_manager', 'garage_technician'],
+  'catalogue.edit': ['distributor_admin', 'counter_staff'],
+  /** trade (net) prices; technicians only when their garage allows it (a garage setting, checked separately) */
+  'prices.view': ['distributor_admin', 'counter_staff', 'garage_manager', 'garage_technician'],
+  'calculations.use': ['distributor_admin', 'counter_staff', 'garage_manager', 'garage_technician'],
+  // the garage's work
+  'inspections.record': ['garage_manager', 'garage_technician'],
+  'quotes.draft': ['garage_manager', 'garage_technician'],
+  'quotes.price': ['garage_manager'],
+  'quotes.send': ['garage_manager'],
+  'orders.place': ['garage_manager'],
+  'orders.pay': ['garage_manager'],
+  'coreReturns.book': ['garage_manager'],
+  'statement.view': ['garage_manager'],
+  'garage.settings': ['garage_manager'],
+  'garage.staff': ['garage_manager'],
+  // the distributor's work
+  'orders.work': ['distributor_admin', 'counter_staff'],
+  'coreReturns.decide': ['distributor_admin', 'counter_staff'],
+  'priceLists.manage': ['distributor_admin', 'counter_staff'],
+  'accounts.decide': ['distributor_admin'],
+  'tiers.manage': ['distributor_admin'],
+  'distributor.staff': ['distributor_admin'],
+  'audit.view': ['distributor_admin'],
+} as const satisfies Record<string, readonly Role[]>
+
+export type Ability = keyof typeof ABILITIES
+
+/** True when `role` is granted `ability`. Unknown roles are granted nothing. */
+export function can(role: Role | undefined | null, ability: Ability): boolean {
+  if (!role) return false
+  return (ABILITIES[ability] as readonly Role[]).includes(role)
+}
+
+export function isDistributorRole(role: Role | undefined | null): boolean {
+  return role === 'distributor_admin' || role === 'counter_staff'
+}

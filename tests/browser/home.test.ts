@@ -1,0 +1,41 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import type { Browser } from 'playwright-core'
+import { foreignRequests, launch, newContext, shot } from '../support/browser'
+
+describe('home page in Chromium', () => {
+  let browser: Browser
+  beforeAll(async () => { browser = await launch() })
+  afterAll(async () => { await browser?.close() })
+
+  it('renders with the shipped fonts and makes no request off this machine', async () => {
+    const { context, requests } = await newContext(browser)
+    const page = await context.newPage()
+    await page.goto('/', { waitUntil: 'networkidle' })
+    await expect(page.getByRole('heading', { level: 1 })).toBeTruthy()
+    expect(await page.title()).toContain('Boreline')
+    const fonts = await page.evaluate(async () => {
+      await document.fonts.ready
+      return {
+        text: document.fonts.check('16px Inter'),
+        mono: document.fonts.check('16px "JetBrains Mono"'),
+        loaded: [...document.fonts].filter((f) => f.status === 'loaded').map((f) => f.family),
+      }
+    })
+    expect(fonts.loaded.some((f) => f.includes('Inter'))).toBe(true)
+    expect(fonts.text).toBe(true)
+    // font files came from our own server
+    expect(requests.some((u) => /\/_nuxt\/.*inter.*\.woff2/i.test(u))).toBe(true)
+    expect(foreignRequests(requests)).toEqual([])
+    await shot(page, 'home')
+    await context.close()
+  })
+
+  it('is keyboard friendly: the first Tab reaches the skip link', async () => {
+    const { context } = await newContext(browser)
+    const page = await context.newPage()
+    await page.goto('/')
+    await page.keyboard.press('Tab')
+    expect(await page.evaluate(() => document.activeElement?.textContent?.trim())).toBe('Skip to content')
+    await context.close()
+  })
+})

@@ -1,0 +1,148 @@
+/**
+ * Global setup for the e2e and browser projects: one build, one server, one throw-away database.
+ * - builds the app with `nuxi build` only when a source file is newer than .output (CI: always fresh);
+ * - starts the local fakes (mail catcher; payments when present) on free ports, in this process;
+ * - migrates and seeds a database in a temporary folder, then starts `node .output/server/index.mjs`.
+ * Both projects share it: a second call reuses the running server (reference counted).
+ */
+import { spawn, spawnSync, type ChildProcess } from 'node:child_process'
+import { existsSync, mkdirSync, mkdtempSync, readdirSync, rmSync, statSync, writeFileSync } from 'node:fs'
+import { createServer } from 'node:net'
+import { tmpdir } from 'node:os'
+import { join, resolve } from 'node:path'
+import type { TestProject } from 'vitest/node'
+
+const root = resolve(import.meta.dirname, '../..')
+
+interface Shared {
+  refs: number
+  env: TestEnv
+  server: ChildProcess
+  closers: (() => Promise<void>)[]
+  dir: string
+}
+export interface TestEnv { baseUrl: string; mailUrl: string; paymentsUrl: string; dbPath: string; uploadsDir: string; tmpDir: string }
+
+const KEY = Symbol.for('boreline.e2e.shared')
+const g = globalThis as unknown as Record<symbol, Promise<Shared> | undefined>
+
+function newestMtime(p: string): number {
+  if (!existsSync(p)) return 0
+  const st = statSync(p)
+  if (!st.isDirectory()) return st.mtimeMs
+  let m = 0
+  for (const name of readdirSync(p)) m = Math.max(m, newestMtime(join(p, name)))
+  return m
+}
+
+function buildIfStale(): void {
+  const marker = join(root, '.output/nitro.json')
+  const sources = ['app', 'server', 'shared', 'public', 'nuxt.config.ts', 'tailwind.config.ts', 'package-lock.json']
+  const newest = Math.max(...sources.map((s) => newestMtime(join(root, s))))
+  if (!process.env.BORELINE_REBUILD && existsSync(marker) && statSync(marker).mtimeMs > newest) return
+  console.log('[e2e] building the app once for all e2e and browser tests…')
+  const r = spawnSync('npx', ['nuxi', 'build'], { cwd: root, encoding: 'utf8', env: { ...process.env, NODE_ENV: 'production' }, maxBuffer: 64 * 1024 * 1024 })
+  if (r.status !== 0) throw new Error(`nuxi build failed:\n${(r.stdout + r.stderr).slice(-6000)}`)
+}
+
+export function freePort(): Promise<number> {
+  return new Promise((res, rej) => {
+    const s = createServer()
+    s.once('error', rej)
+    s.listen(0, '127.0.0.1', () => {
+      const port = (s.address() as { port: number }).port
+      s.close(() => res(port))
+    })
+  })
+}
+
+async function waitForHealth(url: string, server: ChildProcess, log: () => string): Promise<void> {
+  const until = Date.now() + 60_000
+  while (Date.now() < until) {
+    if (server.exitCode !== null) throw new Error(`server exited (${server.exitCode}):\n${log()}`)
+    try {
+      const r = await fetch(`${url}/api/health`)
+      if (r.ok) return
+    } catch { /* not up yet */ }
+    await new Promise((r) => setTimeout(r, 250))
+  }
+  throw new Error(`server did not become healthy:\n${log()}`)
+}
+
+async function start(): Promise<Shared> {
+  buildIfStale()
+  const dir = mkdtempSync(join(tmpdir(), 'boreline-e2e-'))
+  const dbPath = join(dir, 'test.sqlite')
+  const uploadsDir = join(dir, 'uploads')
+  mkdirSync(uploadsDir)
+  const closers: (() => Promise<void>)[] = []
+
+  const { createMailCatcher } = await import('../../fakes/mail/server')
+  const mail = createMailCatcher({ smtpPort: 0, httpPort: 0 })
+  const { smtpPort, httpPort } = await mail.listen()
+  closers.push(() => mail.close())
+
+  const appPort = await freePort()
+  const baseUrl = `http://127.0.0.1:${appPort}`
+  let paymentsUrl = ''
+  let paymentsPort = 0
+  const paymentsModule = join(root, 'fakes/payments/server.ts')
+  if (existsSync(paymentsModule)) {
+    const { createPaymentsFake } = await import('../../fakes/payments/server')
+    const fake = createPaymentsFake({ port: 0, webhookUrl: `${baseUrl}/api/webhooks/stripe`, webhookSecret: 'whsec_boreline_test_secret' })
+    const info = await fake.listen()
+    paymentsPort = info.port
+    paymentsUrl = info.url
+    closers.push(() => fake.close())
+  }
+
+  const env: NodeJS.ProcessEnv = {
+    ...process.env,
+    NODE_ENV: 'production',
+    HOST: '127.0.0.1',
+    PORT: String(appPort),
+    UV_THREADPOOL_SIZE: '16',
+    DATABASE_URL: `sqlite:${dbPath}`,
+    NUXT_SESSION_PASSWORD: 'e2e-session-password-0123456789-abcdefghijkl',
+    NUXT_PUBLIC_ORIGIN: baseUrl,
+    NUXT_UPLOADS_DIR: uploadsDir,
+    NUXT_SMTP_HOST: '127.0.0.1',
+    NUXT_SMTP_PORT: String(smtpPort),
+    NUXT_STRIPE_PORT: String(paymentsPort || 12111),
+    NUXT_STRIPE_WEBHOOK_SECRET: 'whsec_boreline_test_secret',
+    BORELINE_TEST_HOOKS: '1',
+  }
+  const seed = spawnSync('npx', ['tsx', 'scripts/db-seed.ts'], { cwd: root, env, encoding: 'utf8' })
+  if (seed.status !== 0) throw new Error(`seeding failed:\n${seed.stdout}\n${seed.stderr}`)
+
+  let out = ''
+  const server = spawn(process.execPath, ['.output/server/index.mjs'], { cwd: root, env, stdio: ['ignore', 'pipe', 'pipe'] })
+  server.stdout!.on('data', (d) => { out = (out + d).slice(-20_000) })
+  server.stderr!.on('data', (d) => { out = (out + d).slice(-20_000) })
+  await waitForHealth(baseUrl, server, () => out)
+  writeFileSync(join(dir, 'server.log.path'), 'see stdout')
+  const tmpDir = join(dir, 'work')
+  mkdirSync(tmpDir)
+  return {
+    refs: 0, server, closers, dir,
+    env: { baseUrl, mailUrl: `http://127.0.0.1:${httpPort}`, paymentsUrl, dbPath, uploadsDir, tmpDir },
+  }
+}
+
+declare module 'vitest' {
+  export interface ProvidedContext { boreline: TestEnv }
+}
+
+export default async function setup(project: TestProject) {
+  g[KEY] ??= start()
+  const shared = await g[KEY]!
+  shared.refs++
+  project.provide('boreline', shared.env)
+  return async () => {
+    shared.refs--
+    if (shared.refs > 0) return
+    shared.server.kill('SIGTERM')
+    for (const c of shared.closers) await c().catch(() => {})
+    if (!process.env.BORELINE_KEEP_TMP) rmSync(shared.dir, { recursive: true, force: true })
+  }
+}

@@ -1,0 +1,37 @@
+import { fileURLToPath } from 'node:url'
+import { defineConfig } from 'vitest/config'
+import { defineVitestProject } from '@nuxt/test-utils/config'
+
+const r = (p: string) => fileURLToPath(new URL(p, import.meta.url))
+const alias = { '#shared': r('./shared'), '~~': r('./'), '~': r('./app'), '@': r('./app') }
+
+// One server for e2e and browser: tests/support/global-setup.ts builds the app once (if stale),
+// starts the fakes and `node .output/server/index.mjs` on a throw-away database, and shares the URL.
+export default defineConfig({
+  test: {
+    reporters: ['default', ['json', { outputFile: 'test-results/vitest.json' }]],
+    projects: [
+      {
+        resolve: { alias },
+        test: { name: 'unit', include: ['tests/unit/**/*.test.ts', 'fakes/**/*.test.ts'], environment: 'node', testTimeout: 30_000 },
+      },
+      await defineVitestProject({
+        test: { name: 'nuxt', include: ['tests/nuxt/**/*.test.ts'], environment: 'nuxt', testTimeout: 30_000 },
+      }),
+      {
+        resolve: { alias },
+        test: {
+          name: 'e2e', include: ['tests/e2e/**/*.test.ts'], environment: 'node',
+          globalSetup: ['tests/support/global-setup.ts'], fileParallelism: false, testTimeout: 60_000, hookTimeout: 600_000,
+        },
+      },
+      {
+        resolve: { alias },
+        test: {
+          name: 'browser', include: ['tests/browser/**/*.test.ts'], environment: 'node',
+          globalSetup: ['tests/support/global-setup.ts'], fileParallelism: false, testTimeout: 120_000, hookTimeout: 600_000,
+        },
+      },
+    ],
+  },
+})
