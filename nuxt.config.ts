@@ -50,6 +50,7 @@ export default defineNuxtConfig({
   },
   nitro: {
     externals: { external: ['sqlite3', 'sequelize'] },
+    ...(buildDir ? { output: { dir: `${buildDir}/.output` } } : {}),
   },
   auth: { hash: { scrypt: { ...SCRYPT_OPTIONS } } },
   typescript: { strict: true },

@@ -1,6 +1,6 @@
 /** npm run fakes: every local stand-in for a hosted service, in one process (Ctrl-C stops them). */
-import { existsSync } from 'node:fs'
-import { fileURLToPath } from 'node:url'
+import { startPaymentsFake } from './payments/index'
 
 await import('./mail/index')
-if (existsSync(fileURLToPath(new URL('./payments/index.ts', import.meta.url)))) await import('./payments/index')
+const { url, fake } = await startPaymentsFake()
+console.log(`payments fake: ${url} (webhooks to ${fake.state.config.webhookUrl})`)

@@ -4,9 +4,11 @@
  */
 import type { QueryInterface } from 'sequelize'
 import * as m0001 from './0001-foundation'
+import * as m0002 from './0002-catalogue'
 
 export interface Migration { name: string; up: (qi: QueryInterface) => Promise<void>; down: (qi: QueryInterface) => Promise<void> }
 
 export const migrations: Migration[] = [
   { name: '0001-foundation', ...m0001 },
+  { name: '0002-catalogue', ...m0002 },
 ]

@@ -6,14 +6,17 @@
 import type { Sequelize } from 'sequelize'
 import { getDb } from '../utils/db'
 import { initAccountModels } from './accounts'
+import { initCatalogueModels } from './catalogue'
 
 export * from './accounts'
+export * from './catalogue'
 
 let initialised: Sequelize | undefined
 
 export function initModels(sequelize: Sequelize = getDb()): Sequelize {
   if (initialised === sequelize) return sequelize
   initAccountModels(sequelize)
+  initCatalogueModels(sequelize)
   initialised = sequelize
   return sequelize
 }

@@ -13,6 +13,8 @@ import { join, resolve } from 'node:path'
 import type { TestProject } from 'vitest/node'
 
 const root = resolve(import.meta.dirname, '../..')
+// BORELINE_BUILD_DIR lets several work trees (or engineers) build and test side by side
+const outDir = process.env.BORELINE_BUILD_DIR ? join(resolve(process.env.BORELINE_BUILD_DIR), '.output') : join(root, '.output')
 
 interface Shared {
   refs: number
@@ -36,7 +38,7 @@ function newestMtime(p: string): number {
 }
 
 function buildIfStale(): void {
-  const marker = join(root, '.output/nitro.json')
+  const marker = join(outDir, 'nitro.json')
   const sources = ['app', 'server', 'shared', 'public', 'nuxt.config.ts', 'tailwind.config.ts', 'package-lock.json']
   const newest = Math.max(...sources.map((s) => newestMtime(join(root, s))))
   if (!process.env.BORELINE_REBUILD && existsSync(marker) && statSync(marker).mtimeMs > newest) return
@@ -116,7 +118,7 @@ async function start(): Promise<Shared> {
   if (seed.status !== 0) throw new Error(`seeding failed:\n${seed.stdout}\n${seed.stderr}`)
 
   let out = ''
-  const server = spawn(process.execPath, ['.output/server/index.mjs'], { cwd: root, env, stdio: ['ignore', 'pipe', 'pipe'] })
+  const server = spawn(process.execPath, [join(outDir, 'server/index.mjs')], { cwd: root, env, stdio: ['ignore', 'pipe', 'pipe'] })
   server.stdout!.on('data', (d) => { out = (out + d).slice(-20_000) })
   server.stderr!.on('data', (d) => { out = (out + d).slice(-20_000) })
   await waitForHealth(baseUrl, server, () => out)
