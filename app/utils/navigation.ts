@@ -12,4 +12,21 @@ export interface NavEntry {
   side: OrgKind | 'both'
 }
 
-export const NAV_ENTRIES: NavEntry[] = []
+export const NAV_ENTRIES: NavEntry[] = [
+  { to: '/catalogue', label: 'Find by vehicle', ability: 'catalogue.view', side: 'both' },
+  { to: '/catalogue/search', label: 'Part search', ability: 'catalogue.view', side: 'both' },
+  { to: '/calculations/bore-check', label: 'Bore check', ability: 'calculations.use', side: 'both' },
+  { to: '/inspections', label: 'Inspections', ability: 'inspections.record', side: 'garage' },
+  { to: '/quotes', label: 'Quotes', ability: 'quotes.draft', side: 'garage' },
+  { to: '/admin/applications', label: 'Applications', ability: 'accounts.decide', side: 'distributor' },
+  { to: '/admin/accounts', label: 'Trade accounts', ability: 'accounts.view', side: 'distributor' },
+  { to: '/admin/tiers', label: 'Tiers', ability: 'tiers.manage', side: 'distributor' },
+  { to: '/price-lists', label: 'Price lists', ability: 'priceLists.manage', side: 'distributor' },
+  { to: '/orders', label: 'Orders', ability: 'orders.place', side: 'garage' },
+  { to: '/statement', label: 'Statement', ability: 'statement.view', side: 'garage' },
+  { to: '/counter/orders', label: 'Order queue', ability: 'orders.work', side: 'distributor' },
+  { to: '/counter/core-returns', label: 'Core returns', ability: 'coreReturns.decide', side: 'distributor' },
+  { to: '/garage/settings', label: 'Garage settings', ability: 'garage.settings', side: 'garage' },
+  { to: '/account/staff', label: 'Staff', ability: 'garage.staff', side: 'garage' },
+  { to: '/account/staff', label: 'Staff', ability: 'distributor.staff', side: 'distributor' },
+]

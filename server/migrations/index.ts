@@ -5,10 +5,22 @@
 import type { QueryInterface } from 'sequelize'
 import * as m0001 from './0001-foundation'
 import * as m0002 from './0002-catalogue'
+import * as m0003 from './0003-accounts'
+import * as m0004 from './0004-catalogue-extra'
+import * as m0005 from './0005-inspections'
+import * as m0006 from './0006-quotes'
+import * as m0007 from './0007-price-lists'
+import * as m0008 from './0008-orders'
 
 export interface Migration { name: string; up: (qi: QueryInterface) => Promise<void>; down: (qi: QueryInterface) => Promise<void> }
 
 export const migrations: Migration[] = [
   { name: '0001-foundation', ...m0001 },
   { name: '0002-catalogue', ...m0002 },
+  { name: '0003-accounts', ...m0003 },
+  { name: '0004-catalogue-extra', ...m0004 },
+  { name: '0005-inspections', ...m0005 },
+  { name: '0006-quotes', ...m0006 },
+  { name: '0007-price-lists', ...m0007 },
+  { name: '0008-orders', ...m0008 },
 ]

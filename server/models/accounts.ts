@@ -35,6 +35,8 @@ export class Organisation extends Model<InferAttributes<Organisation>, InferCrea
   declare homeBranchId: CreationOptional<number | null>
   declare decisionReason: CreationOptional<string | null>
   declare decidedAt: CreationOptional<Date | null>
+  /** garage setting: technicians see trade prices in the catalogue (column added by 0004-catalogue-extra) */
+  declare techniciansSeePrices: CreationOptional<boolean>
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
 }
@@ -45,6 +47,7 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare email: string
   declare name: string
   declare role: Role
+  declare phone: CreationOptional<string>
   declare passwordHash: CreationOptional<string | null>
   declare status: CreationOptional<UserStatus>
   declare sessionVersion: CreationOptional<number>
@@ -88,10 +91,13 @@ export function initAccountModels(sequelize: Sequelize): void {
     tradingAddress: DataTypes.TEXT, taxNumber: DataTypes.STRING, contactName: DataTypes.STRING,
     phone: DataTypes.STRING, email: DataTypes.STRING, tierId: DataTypes.INTEGER,
     paymentTerms: DataTypes.STRING, creditLimitMinor: DataTypes.INTEGER, paymentDays: DataTypes.INTEGER,
-    homeBranchId: DataTypes.INTEGER, decisionReason: DataTypes.TEXT, decidedAt: DataTypes.DATE, ...stamps,
+    homeBranchId: DataTypes.INTEGER, decisionReason: DataTypes.TEXT, decidedAt: DataTypes.DATE,
+    techniciansSeePrices: { type: DataTypes.BOOLEAN, defaultValue: false }, // column added by 0004-catalogue-extra
+    ...stamps,
   }, { sequelize, tableName: 'organisations' })
   User.init({
     id, organisationId: DataTypes.INTEGER, email: DataTypes.STRING, name: DataTypes.STRING, role: DataTypes.STRING,
+    phone: { type: DataTypes.STRING, defaultValue: '' }, // column added by 0003-accounts
     passwordHash: DataTypes.TEXT, status: DataTypes.STRING, sessionVersion: DataTypes.INTEGER,
     lastSignInAt: DataTypes.DATE, ...stamps,
   }, { sequelize, tableName: 'users' })

@@ -6,17 +6,32 @@
 import type { Sequelize } from 'sequelize'
 import { getDb } from '../utils/db'
 import { initAccountModels } from './accounts'
+import { initAccountExtraModels } from './accounts-extra'
 import { initCatalogueModels } from './catalogue'
+import { initInspectionModels } from './inspections'
+import { initQuoteModels } from './quotes'
+import { initPriceListModels } from './price-lists'
+import { initOrderModels } from './orders'
 
 export * from './accounts'
+export * from './accounts-extra'
 export * from './catalogue'
+export * from './inspections'
+export * from './quotes'
+export * from './price-lists'
+export * from './orders'
 
 let initialised: Sequelize | undefined
 
 export function initModels(sequelize: Sequelize = getDb()): Sequelize {
   if (initialised === sequelize) return sequelize
   initAccountModels(sequelize)
+  initAccountExtraModels(sequelize)
   initCatalogueModels(sequelize)
+  initInspectionModels(sequelize)
+  initQuoteModels(sequelize)
+  initPriceListModels(sequelize)
+  initOrderModels(sequelize)
   initialised = sequelize
   return sequelize
 }

@@ -4,9 +4,17 @@
  */
 import { withWrite } from '../utils/db'
 import { seedAccounts } from './accounts'
+import { seedCatalogue } from './catalogue'
+import { seedQuotes } from './quotes'
+import { seedProofDocuments } from './proof-documents'
+import { seedOrders } from './orders'
 
 export async function runSeed(log: (s: string) => void = console.log): Promise<void> {
   await withWrite(async (t) => {
     await seedAccounts(t, log)
+    await seedCatalogue(t, log)
+    await seedQuotes(t, log)
+    await seedProofDocuments(t, log)
+    await seedOrders(t, log)
   })
 }

@@ -6,9 +6,14 @@ import type { H3Event } from 'h3'
 import { createError, getQuery, getRouterParams, readBody } from 'h3'
 import type { ZodType } from 'zod'
 
-export function fieldErrors(issues: { path: PropertyKey[]; message: string }[]): Record<string, string> {
+export function fieldErrors(issues: { path: PropertyKey[]; message: string; code?: string; keys?: string[] }[]): Record<string, string> {
   const fields: Record<string, string> = {}
   for (const i of issues) {
+    // a strict schema names every field it refuses (mass assignment), each under its own key
+    if (i.code === 'unrecognized_keys' && i.keys?.length) {
+      for (const k of i.keys) fields[[...i.path.map(String), k].join('.')] ??= 'This field cannot be set here.'
+      continue
+    }
     const key = i.path.map(String).join('.') || '_'
     fields[key] ??= i.message
   }

@@ -26,6 +26,8 @@ export const ABILITIES = {
   'orders.work': ['distributor_admin', 'counter_staff'],
   'coreReturns.decide': ['distributor_admin', 'counter_staff'],
   'priceLists.manage': ['distributor_admin', 'counter_staff'],
+  /** read the garages' trade accounts and their proof documents (counter staff check terms when working orders) */
+  'accounts.view': ['distributor_admin', 'counter_staff'],
   'accounts.decide': ['distributor_admin'],
   'tiers.manage': ['distributor_admin'],
   'distributor.staff': ['distributor_admin'],

@@ -1,0 +1,276 @@
+/**
+ * Catalogue benchmark (issue 4): one run, figures side by side, ratios against the targets.
+ *
+ *   npx tsx bench/catalogue.ts [--database <sqlite file>] [--output <.output dir>] [--duration 10] [--connections 50]
+ *
+ * - builds the synthetic catalogue (200k parts, 20k vehicles, 1M fitments) into --database unless it already holds it;
+ * - starts the built server (`--output`, default $BORELINE_BUILD_DIR/.output or ./.output) on that database with
+ *   BORELINE_BENCH=1 and measures start-up (until /api/health answers, and until the search index is built) and RSS;
+ * - GET /api/vehicles/:id/parts under --connections connections with autocannon over 200 vehicles, cached and with
+ *   the caches off (BORELINE_CATALOGUE_CACHE=0, a second server), beside the constant JSON route of the same size;
+ * - search latency over a fixed mix of 1,000 queries (SKUs, OE numbers, typos, superseded SKUs, two words, type +
+ *   size): in-process (plan + index), end to end over HTTP, and SQLite FTS5 on the same rows; with the share of
+ *   queries whose expected part is in the first 20 results.
+ * Keep the machine otherwise quiet; the whole run takes 4-7 minutes on 2 cores.
+ */
+import { spawn, spawnSync, type ChildProcess } from 'node:child_process'
+import { existsSync, mkdirSync, readFileSync } from 'node:fs'
+import { createServer } from 'node:net'
+import { dirname, join, resolve } from 'node:path'
+// @ts-expect-error autocannon ships without type declarations
+import autocannon from 'autocannon'
+import sqlite3 from 'sqlite3'
+
+interface CannonResult { requests: { average: number }; latency: { p50: number; p99: number }; non2xx: number; errors: number }
+
+const root = resolve(import.meta.dirname, '..')
+const arg = (name: string, fallback: string) => { const i = process.argv.indexOf(`--${name}`); return i > 0 ? process.argv[i + 1]! : fallback }
+const dbPath = resolve(arg('database', '/tmp/boreline-bench/catalogue.sqlite'))
+const output = resolve(arg('output', process.env.BORELINE_BUILD_DIR ? join(process.env.BORELINE_BUILD_DIR, '.output') : join(root, '.output')))
+const duration = Number(arg('duration', '10'))
+const connections = Number(arg('connections', '50'))
+const MANAGER = 'hattie.corran@millbrook-motors.test'
+const PASSWORD = 'brake-demo-2026'
+
+const pct = (xs: number[], p: number) => { const s = [...xs].sort((a, b) => a - b); return s[Math.min(s.length - 1, Math.floor((p / 100) * s.length))]! }
+const ms = (x: number) => `${x.toFixed(1)} ms`
+function all<T>(db: sqlite3.Database, sql: string, params: unknown[] = []): Promise<T[]> {
+  return new Promise((res, rej) => db.all(sql, params, (e, rows) => (e ? rej(e) : res(rows as T[]))))
+}
+function exec(db: sqlite3.Database, sql: string): Promise<void> {
+  return new Promise((res, rej) => db.exec(sql, (e) => (e ? rej(e) : res())))
+}
+function freePort(): Promise<number> {
+  return new Promise((res, rej) => { const s = createServer(); s.once('error', rej); s.listen(0, '127.0.0.1', () => { const p = (s.address() as { port: number }).port; s.close(() => res(p)) }) })
+}
+const rssMb = (pid: number, field = 'VmRSS') => Number(/(\d+) kB/.exec(readFileSync(`/proc/${pid}/status`, 'utf8').split('\n').find((l) => l.startsWith(field)) ?? '')?.[1] ?? 0) / 1024
+
+async function ensureCatalogue(): Promise<void> {
+  if (existsSync(dbPath)) {
+    const db = new sqlite3.Database(dbPath, sqlite3.OPEN_READONLY)
+    const [r] = await all<{ n: number }>(db, "SELECT COUNT(*) AS n FROM parts WHERE sku LIKE 'SY-%'").catch(() => [{ n: 0 }])
+    db.close()
+    if (r!.n >= 200_000) return
+    throw new Error(`${dbPath} exists but does not hold the synthetic catalogue; remove it or pass another --database`)
+  }
+  mkdirSync(dirname(dbPath), { recursive: true })
+  console.log('building the synthetic catalogue (200k parts, 20k vehicles, 1M fitments)…')
+  const t = Date.now()
+  const r = spawnSync('npx', ['tsx', 'scripts/catalogue-synthetic.ts', '--parts', '200000', '--vehicles', '20000', '--fitments', '1000000', '--database', dbPath], { cwd: root, stdio: 'inherit' })
+  if (r.status !== 0) throw new Error('catalogue:synthetic failed')
+  console.log(`  written in ${((Date.now() - t) / 1000).toFixed(1)} s`)
+}
+
+interface Server { proc: ChildProcess; url: string; startMs: number; stop: () => Promise<void> }
+async function startServer(extraEnv: Record<string, string> = {}): Promise<Server> {
+  const port = await freePort()
+  const url = `http://127.0.0.1:${port}`
+  const t0 = performance.now()
+  const proc = spawn(process.execPath, [join(output, 'server/index.mjs')], {
+    cwd: root, stdio: ['ignore', 'ignore', 'inherit'],
+    env: { ...process.env, NODE_ENV: 'production', HOST: '127.0.0.1', PORT: String(port), DATABASE_URL: `sqlite:${dbPath}`, NUXT_SESSION_PASSWORD: 'bench-session-password-0123456789-abcdefgh', NUXT_PUBLIC_ORIGIN: url, BORELINE_BENCH: '1', ...extraEnv },
+  })
+  for (;;) {
+    if (proc.exitCode !== null) throw new Error(`server exited with ${proc.exitCode}`)
+    try { if ((await fetch(`${url}/api/health`)).ok) break } catch { /* starting */ }
+    await new Promise((r) => setTimeout(r, 50))
+  }
+  return {
+    proc, url, startMs: performance.now() - t0,
+    stop: () => new Promise((res) => { proc.once('exit', () => res()); proc.kill('SIGTERM') }),
+  }
+}
+
+async function signIn(url: string): Promise<string> {
+  const r = await fetch(`${url}/api/auth/sign-in`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: MANAGER, password: PASSWORD }) })
+  if (!r.ok) throw new Error(`sign-in failed: ${r.status}`)
+  return r.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ')
+}
+
+function cannon(url: string, paths: string[], cookie?: string): Promise<CannonResult> {
+  return new Promise((res, rej) => {
+    autocannon({
+      url, connections, duration, pipelining: 1,
+      requests: paths.map((path) => ({ method: 'GET', path, headers: cookie ? { cookie } : {} })),
+    }, (err: Error | null, result: CannonResult) => (err ? rej(err) : res(result)))
+  })
+}
+const load = (r: CannonResult) => ({ rps: r.requests.average, p50: r.latency.p50, p99: r.latency.p99, non2xx: r.non2xx, errors: r.errors })
+
+// ---------------------------------------------------------------------------------------------------------------
+// the fixed query mix
+
+interface Query { q: string; kind: string; expect: string | null }
+async function queryMix(db: sqlite3.Database): Promise<Query[]> {
+  // deterministic: every n-th row
+  const skus = await all<{ sku: string }>(db, "SELECT sku FROM parts WHERE status = 'active' AND id % 997 = 0 ORDER BY id LIMIT 200")
+  const oes = await all<{ sku: string; oe: string }>(db, "SELECT p.sku, o.oe_number AS oe FROM part_oe_numbers o JOIN parts p ON p.id = o.part_id WHERE o.id % 983 = 0 AND p.status = 'active' ORDER BY o.id LIMIT 350")
+  const olds = await all<{ sku: string; old: string }>(db, 'SELECT p.sku, s.old_sku AS old FROM supersessions s JOIN parts p ON p.id = s.new_part_id WHERE s.id % 7 = 0 ORDER BY s.id LIMIT 50')
+  const descs = await all<{ sku: string; description: string; productLine: string }>(db, "SELECT sku, description, product_line AS productLine FROM parts WHERE id % 1301 = 0 AND sku LIKE 'SY-%' AND type != 'fluid' ORDER BY id LIMIT 150")
+  const slip = (s: string, i: number) => {
+    const pos = [...s].map((c, j) => (/\d/.test(c) ? j : -1)).filter((j) => j >= 0)
+    const j = pos[i % pos.length]!
+    if (i % 2 === 0 && /\d/.test(s[j + 1] ?? '') && s[j] !== s[j + 1]) return s.slice(0, j) + s[j + 1] + s[j] + s.slice(j + 2) // swap neighbours
+    return s.slice(0, j) + String((Number(s[j]) + 3) % 10) + s.slice(j + 1) // one wrong digit
+  }
+  const out: Query[] = []
+  skus.forEach((r) => out.push({ q: r.sku, kind: 'SKU', expect: r.sku }))
+  oes.slice(0, 200).forEach((r) => out.push({ q: r.oe, kind: 'OE number', expect: r.sku }))
+  oes.slice(200, 350).forEach((r, i) => out.push({ q: slip(r.oe, i), kind: 'OE typo', expect: r.sku }))
+  skus.slice(0, 100).forEach((r, i) => out.push({ q: slip(r.sku, i + 3), kind: 'SKU typo', expect: r.sku }))
+  olds.forEach((r) => out.push({ q: r.old, kind: 'superseded', expect: r.sku }))
+  descs.forEach((r, i) => {
+    const m = / for (\S+) (\S+)/.exec(r.description)
+    const q = i % 2 === 0 && m ? `${m[1]} ${m[2]}` : r.productLine
+    out.push({ q: q.toLowerCase(), kind: 'two words', expect: null })
+  })
+  const sizes = ['front disc 300', 'master cylinder 22.22', 'rear pads 16.5', 'caliper 54', 'rear drum 228.6', 'hose 420', 'front disc 280', 'wheel cylinder 19.05', 'vented disc 320', 'reman caliper 57', 'front pads 19', 'master cylinder 25.4', 'disc 345', 'rear disc 272', 'sensor 900']
+  for (let i = 0; out.length < 1000; i++) out.push({ q: sizes[i % sizes.length]!, kind: 'type + size', expect: null })
+  return out
+}
+
+/** FTS5 on the same rows: SKU, OE numbers, superseded SKUs, description and product line. */
+async function ftsBuild(db: sqlite3.Database): Promise<number> {
+  const [has] = await all<{ n: number }>(db, "SELECT COUNT(*) AS n FROM sqlite_master WHERE name = 'bench_parts_fts'")
+  if (has!.n) return 0
+  const t = performance.now()
+  await exec(db, `CREATE VIRTUAL TABLE bench_parts_fts USING fts5(sku, ids, description, product_line, tokenize = 'unicode61');
+    INSERT INTO bench_parts_fts (rowid, sku, ids, description, product_line)
+      SELECT p.id, p.sku,
+        COALESCE((SELECT group_concat(oe_number, ' ') FROM part_oe_numbers o WHERE o.part_id = p.id), '') || ' ' ||
+        COALESCE((SELECT group_concat(old_sku, ' ') FROM supersessions s WHERE s.new_part_id = p.id), ''),
+        p.description, p.product_line FROM parts p;`)
+  return performance.now() - t
+}
+const ftsQuery = (q: string) => q.toLowerCase().split(/[^a-z0-9.]+/).filter(Boolean).map((t) => `"${t.replace(/"/g, '')}"*`).join(' AND ')
+
+async function main() {
+  if (!existsSync(join(output, 'server/index.mjs'))) throw new Error(`no built server at ${output}: run BORELINE_BUILD_DIR=… npx nuxi build first`)
+  await ensureCatalogue()
+  const db = new sqlite3.Database(dbPath)
+  const [counts] = await all<{ parts: number; vehicles: number; fitments: number }>(db, 'SELECT (SELECT COUNT(*) FROM parts) AS parts, (SELECT COUNT(*) FROM vehicles) AS vehicles, (SELECT COUNT(*) FROM fitments) AS fitments')
+  console.log(`catalogue: ${counts!.parts} parts, ${counts!.vehicles} vehicles, ${counts!.fitments} fitments\n`)
+
+  // ---- start-up and memory
+  const server = await startServer()
+  const cookie = await signIn(server.url)
+  const tIndex = performance.now()
+  for (;;) { // the index builds in the background from start; the first search waits for it
+    const r = await fetch(`${server.url}/api/parts?q=SY-P0000001&pageSize=1`, { headers: { cookie } })
+    if (r.ok) break
+    await new Promise((res) => setTimeout(res, 100))
+  }
+  const indexReadyMs = server.startMs + (performance.now() - tIndex)
+  const rssReady = rssMb(server.proc.pid!)
+  console.log(`start-up: ${ms(server.startMs)} until /api/health answers, ${(indexReadyMs / 1000).toFixed(1)} s until the search index answers; RSS ${rssReady.toFixed(0)} MB`)
+
+  // ---- vehicle parts
+  const vehicles = await all<{ id: number }>(db, "SELECT id FROM vehicles WHERE id % 100 = 0 AND make NOT IN ('Veltra','Kaskel','Durmond','Lystrom','Brenmoor','Taviro','Quillan') ORDER BY id LIMIT 200")
+  const paths = vehicles.map((v) => `/api/vehicles/${v.id}/parts`)
+  const cold: number[] = []
+  let bytes = 0
+  for (const p of paths) {
+    const t = performance.now()
+    const r = await fetch(server.url + p, { headers: { cookie } })
+    bytes += (await r.text()).length
+    cold.push(performance.now() - t)
+  }
+  const size = Math.round(bytes / paths.length)
+  console.log(`vehicle parts: ${paths.length} vehicles, average response ${size} bytes; first (uncached) request p50 ${ms(pct(cold, 50))}, p99 ${ms(pct(cold, 99))}`)
+  const cached = load(await cannon(server.url, paths, cookie))
+  const constant = load(await cannon(server.url, [`/api/bench/constant?bytes=${size}`]))
+  const constantSession = load(await cannon(server.url, [`/api/bench/constant?bytes=${size}`], cookie))
+  const rssAfterLoad = rssMb(server.proc.pid!)
+
+  // ---- search
+  const mix = await queryMix(db)
+  const http: number[] = [], httpFound: boolean[] = []
+  for (const m of mix) {
+    const t = performance.now()
+    const r = await fetch(`${server.url}/api/parts?${new URLSearchParams({ q: m.q, pageSize: '20' })}`, { headers: { cookie } })
+    const body = await r.json() as { data: { sku: string }[] }
+    http.push(performance.now() - t)
+    if (m.expect) httpFound.push(body.data.some((d) => d.sku === m.expect))
+  }
+  const peakRss = rssMb(server.proc.pid!, 'VmHWM')
+  await server.stop()
+
+  // in-process: the same plan + index the server runs, without HTTP, session and page hydration
+  process.env.DATABASE_URL = `sqlite:${dbPath}`
+  const { getDb, closeDb } = await import('../server/utils/db')
+  const { getPartIndex } = await import('../server/services/catalogue/catalogue-index')
+  const { planQuery } = await import('../server/services/catalogue/search-plan')
+  void getDb()
+  const index = await getPartIndex()
+  const inproc: number[] = [], inprocFound: boolean[] = []
+  for (let pass = 0; pass < 2; pass++) { // the first pass warms the JIT
+    inproc.length = 0
+    inprocFound.length = 0
+    for (const m of mix) {
+      const t = performance.now()
+      const { hits } = index.search(planQuery(m.q))
+      inproc.push(performance.now() - t)
+      if (m.expect) inprocFound.push(hits.slice(0, 20).some((h) => index.info(h.id)?.sku === m.expect))
+    }
+  }
+  await closeDb()
+
+  const ftsBuildMs = await ftsBuild(db)
+  const fts: number[] = [], ftsFound: boolean[] = []
+  for (const m of mix) {
+    const match = ftsQuery(m.q)
+    const t = performance.now()
+    const rows = match ? await all<{ sku: string }>(db, 'SELECT sku FROM bench_parts_fts WHERE bench_parts_fts MATCH ? ORDER BY rank LIMIT 20', [match]).catch(() => []) : []
+    fts.push(performance.now() - t)
+    if (m.expect) ftsFound.push(rows.some((r) => r.sku === m.expect))
+  }
+  db.close()
+
+  // ---- uncached vehicle parts (second server, caches off)
+  const uncachedServer = await startServer({ BORELINE_CATALOGUE_CACHE: '0', BORELINE_SEARCH_INDEX_AT_START: '0' })
+  const cookie2 = await signIn(uncachedServer.url)
+  const uncached = load(await cannon(uncachedServer.url, paths, cookie2))
+  await uncachedServer.stop()
+
+  const share = (xs: boolean[]) => `${((100 * xs.filter(Boolean).length) / Math.max(1, xs.length)).toFixed(1)} %`
+  const byKind = (lat: number[]) => [...new Set(mix.map((m) => m.kind))].map((k) => {
+    const xs = mix.map((m, i) => (m.kind === k ? lat[i]! : -1)).filter((x) => x >= 0)
+    return `${k} p95 ${ms(pct(xs, 95))}`
+  }).join('; ')
+  const foundByKind = (found: boolean[]) => {
+    const withExpect = mix.filter((m) => m.expect)
+    return [...new Set(withExpect.map((m) => m.kind))].map((k) => `${k} ${share(found.filter((_, i) => withExpect[i]!.kind === k))}`).join(', ')
+  }
+  const row = (name: string, r: ReturnType<typeof load>) => `| ${name} | ${r.rps.toFixed(0)} | ${r.p50} ms | ${r.p99} ms | ${r.non2xx + r.errors} |`
+  console.log(`
+## Results (${new Date().toISOString().slice(0, 10)}, ${connections} connections, ${duration} s each)
+
+| vehicle parts API | req/s | p50 | p99 | non-2xx/errors |
+|---|---|---|---|---|
+${row('GET /api/vehicles/:id/parts, cached', cached)}
+${row('GET /api/vehicles/:id/parts, caches off', uncached)}
+${row(`constant JSON, ${size} B, no session`, constant)}
+${row(`constant JSON, ${size} B, signed in (session checks)`, constantSession)}
+
+cached / constant (no session): ${(cached.rps / constant.rps).toFixed(2)}; cached / constant (signed in): ${(cached.rps / constantSession.rps).toFixed(2)}; cached / caches off: ${(cached.rps / uncached.rps).toFixed(2)}
+target >= 2000 req/s: ${(cached.rps / 2000).toFixed(2)} x; target p99 < 40 ms: ${(cached.p99 / 40).toFixed(2)} of it
+
+| search, 1,000 queries | p50 | p95 | expected part in first 20 |
+|---|---|---|---|
+| minisearch plan + index, in process | ${ms(pct(inproc, 50))} | ${ms(pct(inproc, 95))} | ${share(inprocFound)} |
+| GET /api/parts end to end (sequential) | ${ms(pct(http, 50))} | ${ms(pct(http, 95))} | ${share(httpFound)} |
+| SQLite FTS5 (prefix tokens, bm25), in process | ${ms(pct(fts, 50))} | ${ms(pct(fts, 95))} | ${share(ftsFound)} |
+
+minisearch p95 / target 50 ms: ${(pct(inproc, 95) / 50).toFixed(2)}; end to end p95 / 50 ms: ${(pct(http, 95) / 50).toFixed(2)}; minisearch / FTS5 p95: ${(pct(inproc, 95) / pct(fts, 95)).toFixed(2)}
+by kind (in process): ${byKind(inproc)}
+found by kind: minisearch ${foundByKind(inprocFound)}; FTS5 ${foundByKind(ftsFound)}${ftsBuildMs ? `\nFTS5 table built in ${(ftsBuildMs / 1000).toFixed(1)} s` : ''}
+
+| start-up with ${counts!.parts} parts | figure | target | ratio |
+|---|---|---|---|
+| until /api/health answers | ${(server.startMs / 1000).toFixed(2)} s | 15 s | ${(server.startMs / 15000).toFixed(2)} |
+| until the search index answers | ${(indexReadyMs / 1000).toFixed(1)} s | 15 s | ${(indexReadyMs / 15000).toFixed(2)} |
+| RSS when ready / after the load runs / peak | ${rssReady.toFixed(0)} / ${rssAfterLoad.toFixed(0)} / ${peakRss.toFixed(0)} MB | 1024 MB | ${(peakRss / 1024).toFixed(2)} |
+`)
+}
+
+main().then(() => process.exit(0), (err) => { console.error(err); process.exit(1) })

@@ -1,0 +1,30 @@
+/**
+ * GET /api/admin/trade-applications/:id/document -> the garage's proof-of-trade document, as a download.
+ * Distributor staff only. Served as an attachment with the type detected at upload, `nosniff` and a
+ * sandboxing CSP, so a crafted file cannot run in Boreline's origin.
+ */
+import { stat } from 'node:fs/promises'
+import { IdParamSchema } from '#shared/schemas/accounts'
+import { findGarage, latestProof } from '../../../../services/garages'
+import { openProof, proofPath } from '../../../../services/proof-upload'
+
+export default defineEventHandler(async (event) => {
+  requireAbility(event, 'accounts.view')
+  const { id } = paramsWith(event, IdParamSchema)
+  const org = await findGarage(id)
+  const doc = org ? await latestProof(org.id) : null
+  if (!org || !doc) throw notFound('Document')
+  const uploadsDir = String(useRuntimeConfig(event).uploadsDir)
+  const size = await stat(proofPath(uploadsDir, doc.storedName)).then((s) => s.size).catch(() => null)
+  if (size === null) throw notFound('Document')
+  const ascii = doc.originalName.replace(/[^\x20-\x7e]/g, '_').replace(/["\\]/g, '_')
+  setResponseHeaders(event, {
+    'content-type': doc.mime,
+    'content-length': size,
+    'content-disposition': `attachment; filename="${ascii}"; filename*=UTF-8''${encodeURIComponent(doc.originalName)}`,
+    'x-content-type-options': 'nosniff',
+    'content-security-policy': "default-src 'none'; sandbox",
+    'cache-control': 'private, no-store',
+  })
+  return sendStream(event, openProof(uploadsDir, doc.storedName))
+})

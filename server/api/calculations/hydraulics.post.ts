@@ -1,0 +1,24 @@
+/**
+ * POST /api/calculations/hydraulics
+ * Body (SI units): { pedalForceN, pedalRatio, boosterRatio, masterCylinder: { boreMm, strokeMm? }, split,
+ *   massKg?, axles: { front: AXLE, rear: AXLE }, replacement?: { masterCylinder?, axles?: { front?, rear? } } }
+ * -> the hydraulic chain for the original and the replacement, the comparison in percent, circuit failure,
+ *    findings ordered by severity, inputs, units, assumptions and cautions (shared/utils/brake computeHydraulics).
+ * 401 signed out; 422 with `data.fields` keyed by field path when any part of the input is impossible
+ * (nothing is computed from half an input).
+ */
+import { computeHydraulics, parseHydraulicsInput } from '#shared/utils/brake'
+import { issuesToFields } from '../../services/calculations'
+
+export default defineEventHandler(async (event) => {
+  requireAbility(event, 'calculations.use')
+  let body: unknown
+  try {
+    body = await readBody(event)
+  } catch {
+    throw invalidInput({ _: 'The request body is not valid JSON.' })
+  }
+  const parsed = parseHydraulicsInput(body)
+  if (!parsed.ok) throw invalidInput(issuesToFields(parsed.issues))
+  return computeHydraulics(parsed.data)
+})

@@ -1,0 +1,24 @@
+/**
+ * POST /api/calculations/wear
+ * Body: { discs?: [{ position, thicknessReadingsMm[], minThicknessMm, runoutMm?, ... }], pads?: [{ axle, innerMm,
+ *   outerMm }], drums?: [{ position, diameterMm, maxDiameterMm }], fluid?: { gradeInSystem?, gradeToAdd?,
+ *   specifiedGrade?, waterPercent? } }
+ * -> a verdict per item (ok / advise / fail), the overall verdict and the part types to replace per axle
+ *    (shared/utils/brake computeWear). Nothing is stored: POST /api/inspections records an inspection.
+ * 401 signed out; 422 with `data.fields` keyed by field path.
+ */
+import { computeWear, parseWearInput } from '#shared/utils/brake'
+import { issuesToFields } from '../../services/calculations'
+
+export default defineEventHandler(async (event) => {
+  requireAbility(event, 'calculations.use')
+  let body: unknown
+  try {
+    body = await readBody(event)
+  } catch {
+    throw invalidInput({ _: 'The request body is not valid JSON.' })
+  }
+  const parsed = parseWearInput(body)
+  if (!parsed.ok) throw invalidInput(issuesToFields(parsed.issues))
+  return computeWear(parsed.data)
+})

@@ -1,0 +1,19 @@
+/**
+ * PATCH /api/catalogue/parts/:sku  { productLine?, description?, status?, specs?, oeNumbers? } -> { sku }.
+ * `specs` replaces the whole specification and is checked against the part type's schema. Audited with before/after.
+ */
+import { PartPatchSchema, SkuParamsSchema } from '#shared/schemas/parts'
+import { catalogueHttpError } from '../../../services/catalogue/http'
+import { patchPart } from '../../../services/catalogue/upkeep'
+
+export default defineEventHandler(async (event) => {
+  const { user } = requireAbility(event, 'catalogue.edit')
+  const { sku } = paramsWith(event, SkuParamsSchema)
+  const input = await bodyWith(event, PartPatchSchema)
+  try {
+    const part = await patchPart(user.id, sku, input)
+    return { sku: part.sku }
+  } catch (err) {
+    throw catalogueHttpError(err)
+  }
+})

@@ -1,0 +1,20 @@
+/**
+ * POST /api/catalogue/parts  { sku, type, productLine, description, specs, oeNumbers: [{ oeNumber, maker }] }
+ * -> 201 { sku }. Counter staff and the distributor admin. `specs` is checked against the type's schema
+ * (422 with `data.fields["specs.<field>"]`); 409 when the SKU (or a superseded SKU) is taken. Audited.
+ */
+import { PartCreateSchema } from '#shared/schemas/parts'
+import { catalogueHttpError } from '../../../services/catalogue/http'
+import { createPart } from '../../../services/catalogue/upkeep'
+
+export default defineEventHandler(async (event) => {
+  const { user } = requireAbility(event, 'catalogue.edit')
+  const input = await bodyWith(event, PartCreateSchema)
+  try {
+    const part = await createPart(user.id, input)
+    setResponseStatus(event, 201)
+    return { sku: part.sku }
+  } catch (err) {
+    throw catalogueHttpError(err)
+  }
+})

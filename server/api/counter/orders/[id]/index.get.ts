@@ -1,0 +1,12 @@
+/**
+ * GET /api/counter/orders/:id -> OrderDetail with the garage and the moves allowed from here.
+ * 401; 403 without `orders.work`; 404.
+ */
+import { OrderParamsSchema } from '#shared/schemas/orders'
+import { findAnyOrder, orderDetail } from '../../../../services/orders'
+
+export default defineEventHandler(async (event) => {
+  requireAbility(event, 'orders.work')
+  const { id } = paramsWith(event, OrderParamsSchema)
+  return orderDetail(await findAnyOrder(id), 'counter')
+})

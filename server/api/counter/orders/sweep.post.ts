@@ -1,0 +1,11 @@
+/**
+ * POST /api/counter/orders/sweep -> SweepResult: runs now what the periodic sweep runs every few minutes
+ * (checkouts paid or expired without their event reaching us, card orders never taken to checkout, refunds
+ * still to send). 401; 403 without `orders.work`.
+ */
+import { sweepOrders } from '../../../services/payments'
+
+export default defineEventHandler(async (event) => {
+  requireAbility(event, 'orders.work')
+  return sweepOrders()
+})

@@ -1,0 +1,12 @@
+/**
+ * GET /api/garage/settings  -> GarageSettingsView (managers)
+ * Labour rate, markup rules, tax rate, quote validity and terms, whether technicians see trade prices (the
+ * organisation's flag, shared with the catalogue), the logo, and the installation's currency.
+ * 401; 403 without `garage.settings`.
+ */
+import { garageSettingsView } from '../../services/garage-settings'
+
+export default defineEventHandler(async (event) => {
+  const { org } = requireAbility(event, 'garage.settings')
+  return garageSettingsView(org, quoteCurrency())
+})

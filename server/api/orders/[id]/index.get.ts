@@ -1,0 +1,12 @@
+/**
+ * GET /api/orders/:id -> OrderDetail (lines, totals, payment state, last decline, core returns, timeline).
+ * 401; 403 not a garage manager; 404 not found or another garage's.
+ */
+import { OrderParamsSchema } from '#shared/schemas/orders'
+import { findGarageOrder, orderDetail } from '../../../services/orders'
+
+export default defineEventHandler(async (event) => {
+  const { org } = requireAbility(event, 'orders.place')
+  const { id } = paramsWith(event, OrderParamsSchema)
+  return orderDetail(await findGarageOrder(org.id, id), 'garage')
+})

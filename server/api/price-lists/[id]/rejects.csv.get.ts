@@ -1,0 +1,49 @@
+/**
+ * GET /api/price-lists/:id/rejects.csv -> text/csv attachment: every refused row with its row number,
+ * the columns at fault and the reason, then the row's cells as read under the file's own headers (so the
+ * fixed rows can be uploaded again as they are). Cells are written by csv-stringify with
+ * `escape_formulas: true`, so a formula that came in with the file cannot run when the list is opened.
+ */
+import { stringify } from 'csv-stringify'
+import { Op } from 'sequelize'
+import { UploadIdParamsSchema } from '#shared/schemas/price-lists'
+import { PriceUpload, PriceUploadRow } from '../../../models/price-lists'
+
+export default defineEventHandler(async (event) => {
+  requireAbility(event, 'priceLists.manage')
+  const { id } = paramsWith(event, UploadIdParamsSchema)
+  const up = await PriceUpload.findByPk(id)
+  if (!up) throw notFound('Price file')
+  const cellColumns = [up.mapping?.sku, up.mapping?.description, up.mapping?.type, up.mapping?.listPrice, up.mapping?.tradeCost,
+    up.mapping?.coreDeposit, up.mapping?.packQuantity, ...Object.values(up.mapping?.stock ?? {})].filter((h): h is string => !!h)
+  const csv = stringify({ header: true, columns: ['row', 'problem_columns', 'problem', ...cellColumns], escape_formulas: true, bom: true })
+  const base = (up.fileName.replace(/\.[^.]+$/, '').replace(/[^A-Za-z0-9._-]+/g, '-').slice(0, 60) || 'price-file')
+  setResponseHeaders(event, {
+    'content-type': 'text/csv; charset=utf-8',
+    'content-disposition': `attachment; filename="${base}-refused-rows.csv"`,
+    'x-content-type-options': 'nosniff',
+    'cache-control': 'no-store',
+  })
+  ;(async () => {
+    try {
+      let after = 0
+      for (;;) {
+        const rows = await PriceUploadRow.findAll({
+          where: { uploadId: id, kind: 'rejected', id: { [Op.gt]: after } },
+          order: [['id', 'ASC']], limit: 2000,
+        })
+        if (!rows.length) break
+        for (const r of rows) {
+          const raw = r.raw ?? {}
+          if (!csv.write([r.rowNumber, r.columns ?? '', r.reason ?? '', ...cellColumns.map((h) => raw[h] ?? (h === up.mapping?.sku ? r.sku ?? '' : ''))])) {
+            await new Promise((res) => csv.once('drain', res))
+          }
+        }
+        after = rows[rows.length - 1]!.id
+      }
+    } finally {
+      csv.end()
+    }
+  })().catch((err) => csv.destroy(err))
+  return sendStream(event, csv)
+})

@@ -1,0 +1,35 @@
+/**
+ * POST /api/quotes/:id/lines
+ *   { kind: "part" | "labour" | "sundry" | "discount", sku?, quantity?, description?, hours?, amountMinor?,
+ *     recommendation?: "required" | "advised", markupBp?, rateMinor?, taxBp? }
+ * A part line captures the garage's net price now (active price list less its tier), applies the garage's
+ * markup rule and, for a remanufactured unit, adds a core-deposit line. Labour takes the garage's rate. Sundries
+ * and discounts take `amountMinor` (a discount's size, taken off). Prices, markups, rates, tax rates and
+ * discounts are set by managers; technicians add parts, labour and unpriced sundries.
+ * On a quote that has left draft the line goes into a new revision. -> 201 QuoteDetail (+ `addedLineIds`).
+ * 401; 422 with `data.fields`; 404 not this garage's quote; 403 pricing by a technician; 409 a replaced revision.
+ */
+import { QuoteLineCreateSchema } from '#shared/schemas/quotes'
+import { addLine, assertDiscountsFit, editableQuote } from '../../../../services/quotes'
+
+export default defineEventHandler(async (event) => {
+  requireAuth(event)
+  const body = await bodyWith(event, QuoteLineCreateSchema)
+  const { auth, quote } = await loadOwnQuote(event)
+  if (body.kind === 'discount') requirePricing(event, 'give a discount')
+  if (body.markupBp !== undefined || body.rateMinor !== undefined || body.taxBp !== undefined || body.amountMinor !== undefined) {
+    requirePricing(event, 'set prices, markups, rates or tax')
+  }
+  const { target, added } = await quoteWrite(() => withWrite(async (t) => {
+    const { quote: q } = await editableQuote(t, quote, auth.user.id)
+    const lines = await addLine(t, q, auth.org, body)
+    await assertDiscountsFit(t, q.id)
+    await audit(t, {
+      actorUserId: auth.user.id, organisationId: auth.org.id, action: 'quote.line.add', entity: 'quote', entityId: q.id,
+      changes: { kind: body.kind, sku: lines[0]!.sku, quantity: lines[0]!.quantity, amountMinor: lines[0]!.amountMinor, lines: lines.map((l) => l.id) },
+    })
+    return { target: q, added: lines.map((l) => l.id) }
+  }))
+  setResponseStatus(event, 201)
+  return { ...(await quoteAnswer(target, auth)), addedLineIds: added }
+})

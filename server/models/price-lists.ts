@@ -1,0 +1,128 @@
+/**
+ * Price-file models: an upload with its check, the staged rows the check produced, and column mappings
+ * remembered per supplier. JSON columns (`headers`, `mapping`, `stock`, `raw`) are text, exposed parsed.
+ * The heavy work (staging 200,000 rows, applying a version) runs as batched SQL in
+ * server/services/price-lists, not through these models.
+ */
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
+import type { ChangeKind, ColumnMapping, MissingAction, UploadStatus } from '../../shared/types/price-lists'
+
+const json = (field: string, fallback: unknown) => ({
+  type: DataTypes.TEXT,
+  get(this: Model) {
+    const raw = this.getDataValue(field) as string | null
+    return raw == null ? fallback : JSON.parse(raw)
+  },
+  set(this: Model, v: unknown) {
+    this.setDataValue(field, v == null ? null : JSON.stringify(v))
+  },
+})
+
+export class PriceUpload extends Model<InferAttributes<PriceUpload>, InferCreationAttributes<PriceUpload>> {
+  declare id: CreationOptional<number>
+  declare status: CreationOptional<UploadStatus>
+  declare stage: CreationOptional<string | null>
+  declare progress: CreationOptional<number>
+  declare rowsTotal: CreationOptional<number>
+  declare countNew: CreationOptional<number>
+  declare countChanged: CreationOptional<number>
+  declare countUnchanged: CreationOptional<number>
+  declare countMissing: CreationOptional<number>
+  declare countRejected: CreationOptional<number>
+  declare countLarge: CreationOptional<number>
+  declare fileName: string
+  declare storedName: CreationOptional<string | null>
+  declare fileSize: number
+  declare fileFormat: 'csv' | 'xlsx'
+  declare delimiter: CreationOptional<string | null>
+  declare delimiterChosen: CreationOptional<boolean>
+  declare decimalMark: CreationOptional<'.' | ','>
+  declare encoding: CreationOptional<string | null>
+  declare headers: CreationOptional<string[]>
+  declare mapping: CreationOptional<ColumnMapping | null>
+  declare supplierName: CreationOptional<string>
+  declare errorMessage: CreationOptional<string | null>
+  declare basePriceListId: CreationOptional<number | null>
+  declare priceListId: CreationOptional<number | null>
+  declare previousPriceListId: CreationOptional<number | null>
+  declare missingAction: CreationOptional<MissingAction>
+  declare excludeRejected: CreationOptional<boolean>
+  declare effectiveAt: CreationOptional<Date | null>
+  declare createdByUserId: number
+  declare appliedByUserId: CreationOptional<number | null>
+  declare appliedAt: CreationOptional<Date | null>
+  declare rolledBackByUserId: CreationOptional<number | null>
+  declare rolledBackAt: CreationOptional<Date | null>
+  declare createdAt: CreationOptional<Date>
+  declare updatedAt: CreationOptional<Date>
+}
+
+export class PriceUploadRow extends Model<InferAttributes<PriceUploadRow>, InferCreationAttributes<PriceUploadRow>> {
+  declare id: CreationOptional<number>
+  declare uploadId: number
+  declare kind: ChangeKind
+  declare rowNumber: number | null
+  declare sku: string | null
+  declare partId: number | null
+  declare partType: string | null
+  declare description: string | null
+  declare oldListMinor: number | null
+  declare newListMinor: number | null
+  declare oldTradeMinor: number | null
+  declare newTradeMinor: number | null
+  declare oldCoreMinor: number | null
+  declare newCoreMinor: number | null
+  declare oldPack: number | null
+  declare newPack: number | null
+  declare changePct: number | null
+  declare large: boolean
+  declare stock: Record<string, number> | null
+  declare columns: string | null
+  declare reason: string | null
+  declare raw: Record<string, string> | null
+  declare partStatusChange: string | null
+}
+
+export class PriceColumnMapping extends Model<InferAttributes<PriceColumnMapping>, InferCreationAttributes<PriceColumnMapping>> {
+  declare id: CreationOptional<number>
+  declare supplierKey: string
+  declare supplierName: string
+  declare mapping: ColumnMapping
+  declare delimiter: CreationOptional<string | null>
+  declare decimalMark: CreationOptional<'.' | ','>
+  declare updatedByUserId: CreationOptional<number | null>
+  declare createdAt: CreationOptional<Date>
+  declare updatedAt: CreationOptional<Date>
+}
+
+const id = { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true }
+const stamps = { createdAt: DataTypes.DATE, updatedAt: DataTypes.DATE }
+const { INTEGER, STRING, FLOAT, BOOLEAN, DATE, TEXT } = DataTypes
+
+export function initPriceListModels(sequelize: Sequelize): void {
+  PriceUpload.init({
+    id, status: STRING, stage: STRING, progress: INTEGER, rowsTotal: INTEGER,
+    countNew: INTEGER, countChanged: INTEGER, countUnchanged: INTEGER, countMissing: INTEGER,
+    countRejected: INTEGER, countLarge: INTEGER,
+    fileName: STRING, storedName: STRING, fileSize: INTEGER, fileFormat: STRING,
+    delimiter: STRING, delimiterChosen: BOOLEAN, decimalMark: STRING, encoding: STRING,
+    headers: json('headers', []), mapping: json('mapping', null), supplierName: STRING, errorMessage: TEXT,
+    basePriceListId: INTEGER, priceListId: INTEGER, previousPriceListId: INTEGER,
+    missingAction: STRING, excludeRejected: BOOLEAN, effectiveAt: DATE,
+    createdByUserId: INTEGER, appliedByUserId: INTEGER, appliedAt: DATE,
+    rolledBackByUserId: INTEGER, rolledBackAt: DATE, ...stamps,
+  }, { sequelize, tableName: 'price_uploads' })
+  PriceUploadRow.init({
+    id, uploadId: INTEGER, kind: STRING, rowNumber: INTEGER, sku: STRING, partId: INTEGER, partType: STRING,
+    description: STRING, oldListMinor: INTEGER, newListMinor: INTEGER, oldTradeMinor: INTEGER, newTradeMinor: INTEGER,
+    oldCoreMinor: INTEGER, newCoreMinor: INTEGER, oldPack: INTEGER, newPack: INTEGER, changePct: FLOAT,
+    large: BOOLEAN, stock: json('stock', null), columns: STRING, reason: TEXT, raw: json('raw', null),
+    partStatusChange: STRING,
+  }, { sequelize, tableName: 'price_upload_rows', timestamps: false })
+  PriceColumnMapping.init({
+    id, supplierKey: STRING, supplierName: STRING, mapping: json('mapping', {}), delimiter: STRING,
+    decimalMark: STRING, updatedByUserId: INTEGER, ...stamps,
+  }, { sequelize, tableName: 'price_column_mappings' })
+
+  PriceUpload.hasMany(PriceUploadRow, { as: 'rows', foreignKey: 'uploadId' })
+}

@@ -1,0 +1,96 @@
+/**
+ * The e-mails of the trade-account life cycle, as plain data (subject, text, html) so routes send them after
+ * their commit with `sendMail`. Anything that came from a person is escaped before it goes into HTML.
+ */
+import { formatMinor } from '../../shared/utils/money'
+import { ROLE_LABELS, type PaymentTerms, type Role } from '../../shared/types/accounts'
+
+export interface MailContent { subject: string; text: string; html: string }
+
+export function escapeHtml(s: string): string {
+  return s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', '\'': '&#39;' }[c]!))
+}
+
+/** Paragraphs of text; a paragraph may carry one link, given as [label, url]. */
+type Para = string | [string, string]
+
+function compose(subject: string, paras: Para[]): MailContent {
+  const text = paras.map((p) => (typeof p === 'string' ? p : `${p[0]}:\n${p[1]}`)).join('\n\n') + '\n\n— Boreline\n'
+  const body = paras.map((p) => (typeof p === 'string'
+    ? `<p>${escapeHtml(p).replace(/\n/g, '<br>')}</p>`
+    : `<p><a href="${escapeHtml(p[1])}">${escapeHtml(p[0])}</a></p>`)).join('')
+  const html = `<!doctype html><html lang="en"><body style="font-family:system-ui,sans-serif;color:#1b2430;max-width:36rem">${body}<p style="color:#5b6878">— Boreline</p></body></html>`
+  return { subject: `Boreline: ${subject}`, text, html }
+}
+
+export interface Money { currency: string; locale: string }
+
+export function termsSentence(terms: PaymentTerms, creditLimitMinor: number, paymentDays: number, money: Money): string {
+  return terms === 'account'
+    ? `Trade account: credit limit ${formatMinor(creditLimitMinor, money.currency, money.locale)}, payment within ${paymentDays} days.`
+    : 'Payment by card when you order.'
+}
+
+export const accountMail = {
+  applicationReceived(o: { contactName: string; businessName: string; statusUrl: string }): MailContent {
+    return compose('we have your trade account application', [
+      `Hello ${o.contactName},`,
+      `Thank you for applying for a trade account for ${o.businessName}. The distributor checks every application and its proof-of-trade document by hand; you will get an e-mail as soon as a decision is made.`,
+      ['Sign in any time to see where your application stands', o.statusUrl],
+    ])
+  },
+  applicationNotice(o: { businessName: string; contactName: string; email: string; reviewUrl: string }): MailContent {
+    return compose(`new trade account application from ${o.businessName}`, [
+      `${o.businessName} (${o.contactName}, ${o.email}) has applied for a trade account and is waiting for a decision.`,
+      ['Review the application', o.reviewUrl],
+    ])
+  },
+  approved(o: { businessName: string; tierName: string; percentBp: number; terms: string; signInUrl: string }): MailContent {
+    return compose('your trade account is open', [
+      `Good news: ${o.businessName} is approved as a trade account.`,
+      `Discount tier: ${o.tierName} (${o.percentBp / 100} % off list prices).\n${o.terms}`,
+      ['Sign in to start', o.signInUrl],
+    ])
+  },
+  rejected(o: { businessName: string; reason: string; applyUrl: string }): MailContent {
+    return compose('your trade account application was not approved', [
+      `We are sorry: the application for ${o.businessName} was not approved.`,
+      `Reason given by the distributor:\n${o.reason}`,
+      ['You are welcome to apply again with updated details', o.applyUrl],
+    ])
+  },
+  suspended(o: { businessName: string; reason: string }): MailContent {
+    return compose('your trade account is suspended', [
+      `The trade account of ${o.businessName} has been suspended, so ordering and quoting are paused.`,
+      `Reason given by the distributor:\n${o.reason}`,
+      'Please contact the distributor to resolve this.',
+    ])
+  },
+  reactivated(o: { businessName: string; signInUrl: string }): MailContent {
+    return compose('your trade account is active again', [
+      `The trade account of ${o.businessName} is active again.`,
+      ['Sign in', o.signInUrl],
+    ])
+  },
+  termsChanged(o: { businessName: string; tierName: string; percentBp: number; terms: string }): MailContent {
+    return compose('your trade terms have changed', [
+      `The distributor has updated the terms of ${o.businessName}.`,
+      `Discount tier: ${o.tierName} (${o.percentBp / 100} % off list prices).\n${o.terms}`,
+    ])
+  },
+  resetLink(o: { name: string; url: string }): MailContent {
+    return compose('reset your password', [
+      `Hello ${o.name},`,
+      'Someone (hopefully you) asked to reset the password of your Boreline account. The link works once, for one hour. Setting a new password signs you out everywhere else.',
+      ['Choose a new password', o.url],
+      'If you did not ask for this, ignore this e-mail: your password stays as it is.',
+    ])
+  },
+  invitation(o: { name: string; inviter: string; organisation: string; role: Role; url: string }): MailContent {
+    return compose(`${o.inviter} invited you to ${o.organisation}`, [
+      `Hello ${o.name},`,
+      `${o.inviter} has invited you to join ${o.organisation} on Boreline as ${ROLE_LABELS[o.role].toLowerCase()}.`,
+      ['Set your password to accept (the link works once, for 7 days)', o.url],
+    ])
+  },
+}

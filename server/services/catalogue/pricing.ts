@@ -1,0 +1,103 @@
+/**
+ * Who sees which prices. Distributor staff: list price and trade cost. A garage manager: list price and the
+ * garage's net price (list less its tier discount, `netPriceMinor`), plus core deposits (never discounted).
+ * A technician: the same only when the garage's setting "technicians see trade prices" is on; otherwise no money
+ * fields at all (absent, not zero). Plain Node.
+ */
+import { QueryTypes } from 'sequelize'
+import { getDb } from '../../utils/db'
+import { can } from '../../../shared/utils/abilities'
+import { netPriceMinor } from '../../../shared/utils/money'
+import type { Organisation, User } from '../../models/accounts'
+
+export type PriceView =
+  | { kind: 'staff' }
+  | { kind: 'garage'; discountBp: number }
+  | { kind: 'none' }
+
+export interface ActivePriceList { id: number; version: number }
+
+export interface CatalogueRevision { catalogue: number; stock: number }
+
+export interface PricingContext { view: PriceView; priceList: ActivePriceList | null; revision: CatalogueRevision }
+
+/**
+ * One round trip per request: the active price list, the caller's tier discount and the catalogue revisions
+ * (bumped by triggers on every catalogue or stock change, see migration 0004).
+ */
+export async function pricingContext(user: Pick<User, 'role'>, org: Pick<Organisation, 'kind' | 'tierId' | 'techniciansSeePrices'>): Promise<PricingContext> {
+  const [row] = await getDb().query<{ plId: number | null; plVersion: number | null; bp: number | null; rev: number | null; stockRev: number | null }>(
+    `SELECT (SELECT id FROM price_lists WHERE status = 'active' ORDER BY version DESC LIMIT 1) AS plId,
+            (SELECT version FROM price_lists WHERE status = 'active' ORDER BY version DESC LIMIT 1) AS plVersion,
+            (SELECT percent_bp FROM discount_tiers WHERE id = :tier) AS bp,
+            (SELECT catalogue FROM catalogue_revisions WHERE id = 1) AS rev,
+            (SELECT stock FROM catalogue_revisions WHERE id = 1) AS stockRev`,
+    { type: QueryTypes.SELECT, replacements: { tier: org.tierId ?? -1 } },
+  )
+  const priceList = row?.plId ? { id: Number(row.plId), version: Number(row.plVersion) } : null
+  return {
+    priceList, view: priceViewOf(user, org, Number(row?.bp ?? 0)),
+    revision: { catalogue: Number(row?.rev ?? 0), stock: Number(row?.stockRev ?? 0) },
+  }
+}
+
+/** The revisions inside a transaction (before and after a change). */
+export async function readRevision(transaction?: import('sequelize').Transaction): Promise<CatalogueRevision> {
+  const [row] = await getDb().query<{ catalogue: number; stock: number }>('SELECT catalogue, stock FROM catalogue_revisions WHERE id = 1', { type: QueryTypes.SELECT, transaction })
+  return { catalogue: Number(row?.catalogue ?? 0), stock: Number(row?.stock ?? 0) }
+}
+
+export function priceViewOf(user: Pick<User, 'role'>, org: Pick<Organisation, 'kind' | 'techniciansSeePrices'>, discountBp: number): PriceView {
+  if (!can(user.role, 'prices.view')) return { kind: 'none' }
+  if (org.kind === 'distributor') return { kind: 'staff' }
+  if (user.role === 'garage_technician' && !org.techniciansSeePrices) return { kind: 'none' }
+  return { kind: 'garage', discountBp }
+}
+
+/** A stable key for caches: responses differ only by this. */
+export function viewKey(view: PriceView): string {
+  return view.kind === 'garage' ? `g${view.discountBp}` : view.kind
+}
+
+export interface StoredPrice { listPriceMinor: number; tradeCostMinor: number | null; coreDepositMinor: number }
+
+/** The money fields this caller may see for one price row (empty object: none, or no price in the list). */
+export function priceFields(view: PriceView, price: StoredPrice | null | undefined): Record<string, number> {
+  if (!price || view.kind === 'none') return {}
+  if (view.kind === 'staff') {
+    const out: Record<string, number> = { listPriceMinor: price.listPriceMinor, coreDepositMinor: price.coreDepositMinor }
+    if (price.tradeCostMinor != null) out.tradeCostMinor = price.tradeCostMinor
+    return out
+  }
+  return { listPriceMinor: price.listPriceMinor, netPriceMinor: netPriceMinor(price.listPriceMinor, view.discountBp), coreDepositMinor: price.coreDepositMinor }
+}
+
+/** Prices of these parts in a price list. */
+export async function pricesFor(priceListId: number | undefined, partIds: number[]): Promise<Map<number, StoredPrice>> {
+  const out = new Map<number, StoredPrice>()
+  if (!priceListId || !partIds.length) return out
+  const rows = await getDb().query<{ partId: number } & StoredPrice>(
+    `SELECT part_id AS partId, list_price_minor AS listPriceMinor, trade_cost_minor AS tradeCostMinor, core_deposit_minor AS coreDepositMinor
+       FROM prices WHERE price_list_id = :pl AND part_id IN (:ids)`,
+    { type: QueryTypes.SELECT, replacements: { pl: priceListId, ids: partIds } },
+  )
+  for (const r of rows) out.set(r.partId, { listPriceMinor: r.listPriceMinor, tradeCostMinor: r.tradeCostMinor, coreDepositMinor: r.coreDepositMinor })
+  return out
+}
+
+export interface BranchStock { branchCode: string; branchName: string; quantity: number }
+
+/** Stock per branch for these parts (every branch listed, zero when there is no row). */
+export async function stockFor(partIds: number[]): Promise<Map<number, BranchStock[]>> {
+  const out = new Map<number, BranchStock[]>()
+  if (!partIds.length) return out
+  const db = getDb()
+  const branches = await db.query<{ id: number; code: string; name: string }>('SELECT id, code, name FROM branches ORDER BY code', { type: QueryTypes.SELECT })
+  const rows = await db.query<{ partId: number; branchId: number; quantity: number }>(
+    'SELECT part_id AS partId, branch_id AS branchId, quantity FROM stock_levels WHERE part_id IN (:ids)',
+    { type: QueryTypes.SELECT, replacements: { ids: partIds } },
+  )
+  const q = new Map(rows.map((r) => [`${r.partId}|${r.branchId}`, r.quantity]))
+  for (const id of partIds) out.set(id, branches.map((b) => ({ branchCode: b.code, branchName: b.name, quantity: q.get(`${id}|${b.id}`) ?? 0 })))
+  return out
+}

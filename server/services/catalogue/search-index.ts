@@ -1,0 +1,524 @@
+/**
+ * Part search, step 2: the in-memory index and the executor of a {@link SearchPlan}. Pure (no I/O): the loader in
+ * catalogue-index.ts fills it from the database and keeps it current.
+ *
+ * Built for a large catalogue (200k parts) on a small machine:
+ * - identifiers (SKU, OE numbers, superseded SKUs) live in one sorted array: exact and prefix lookups are binary
+ *   searches and a typo (one wrong, missing, extra or swapped character) is found by looking up the few hundred
+ *   one-slip variants of what was typed. They never enter the text index, where 600k unique terms would cost
+ *   hundreds of megabytes;
+ * - per part only compact columns are kept (type, axle, status, attribute bits, the dimensions filters use, the
+ *   word ids of its description); descriptions and specs are read from the database for the page shown;
+ * - words: one `minisearch` index per part type holding only the words that are selective in that type (on at most
+ *   {@link COMMON_DF} of its parts). Broader words keep plain posting lists and act as filters on the candidates
+ *   instead of being scored, and type/axle words never get here (search-plan.ts makes them filters);
+ * - a search touches only the part types it asks for; typo tolerance for words of five letters or more.
+ */
+import MiniSearch from 'minisearch'
+import { axleOfSpecs, PART_TYPES, type Dimension, type DimensionRange, type PartType } from '../../../shared/schemas/parts'
+import { editDistance, indexTerms, type Attribute, type ScoredTerm, type SearchPlan } from './search-plan'
+
+export interface IndexInput {
+  id: number
+  sku: string
+  type: PartType
+  description: string
+  productLine: string
+  status: string
+  specs: Record<string, unknown>
+  /** OE numbers (any spelling; compared without spaces, dashes, dots) */
+  oeNumbers: string[]
+  /** old SKUs this part replaces, with the note */
+  replaces: { oldSku: string; note: string }[]
+}
+
+export type MatchKind = 'sku' | 'superseded' | 'oe' | 'similar' | 'prefix' | 'text' | 'filter'
+export interface Hit { id: number; score: number; by: MatchKind; oldSku?: string; note?: string; identifier?: string }
+
+export interface SearchFilters {
+  type?: PartType
+  axle?: 'front' | 'rear'
+  ranges?: Partial<Record<Dimension, DimensionRange>>
+}
+
+/**
+ * A word on more than this many parts of a type is checked as a filter on candidates, not scored: scoring costs
+ * about 20 µs a document in minisearch, so scored words must narrow the list to a few hundred parts per type.
+ */
+export const COMMON_DF = 300
+/** Prefix lookups of identifiers stop after this many entries (a two-letter prefix matches a whole range). */
+export const MAX_PREFIX_HITS = 500
+
+const ATTR_BITS: Record<Attribute, number> = { vented: 1, solid: 2, remanufactured: 4, new: 8, electric: 16, cable: 32, tandem: 64 }
+const AXLE_CODE = { front: 1, rear: 2 } as const
+const KIND = { sku: 0, superseded: 1, oe: 2, skuDigits: 3 } as const
+const KIND_SCORE = [4e9, 3e9, 2e9, 1.5e9]
+const KIND_NAME: MatchKind[] = ['sku', 'superseded', 'oe', 'sku']
+const TYPE_CODE = new Map(PART_TYPES.map((t, i) => [t, i]))
+const DIMS: Dimension[] = ['diameter', 'bore', 'piston', 'thickness', 'width', 'length']
+
+/** Lower-case letters and digits: how identifiers are compared inside the index. */
+export const norm = (s: string) => s.toLowerCase().replace(/[^a-z0-9]/g, '')
+
+/** The dimensions of a part that numbers and range filters compare with (at most two values each). */
+export function dimensionsOf(type: PartType, s: Record<string, unknown>): Partial<Record<Dimension, number[]>> {
+  const n = (k: string) => (typeof s[k] === 'number' ? [s[k] as number] : undefined)
+  switch (type) {
+    case 'disc': return { diameter: n('diameterMm'), thickness: n('thicknessMm') }
+    case 'drum': return { diameter: n('diameterMm'), width: n('widthMm') }
+    case 'shoe_set': return { diameter: n('diameterMm'), width: n('widthMm') }
+    case 'pad_set': return { width: n('widthMm'), thickness: n('thicknessMm') }
+    case 'caliper': return { piston: Array.isArray(s.pistonDiametersMm) ? [...new Set(s.pistonDiametersMm as number[])].slice(0, 2) : undefined }
+    case 'master_cylinder':
+    case 'wheel_cylinder': return { bore: n('boreMm') }
+    case 'hose':
+    case 'wear_sensor': return { length: n('lengthMm') }
+    default: return {}
+  }
+}
+/** Which part types carry a dimension (a `boreMm` filter searches master and wheel cylinders only). */
+export const TYPES_WITH_DIMENSION: Record<Dimension, PartType[]> = {
+  diameter: ['disc', 'drum', 'shoe_set'], thickness: ['disc', 'pad_set'], width: ['pad_set', 'drum', 'shoe_set'],
+  piston: ['caliper'], bore: ['master_cylinder', 'wheel_cylinder'], length: ['hose', 'wear_sensor'],
+}
+
+function attributesOf(s: Record<string, unknown>): number {
+  let a = 0
+  if (s.vented === true) a |= ATTR_BITS.vented
+  if (s.vented === false) a |= ATTR_BITS.solid
+  if (s.condition === 'remanufactured') a |= ATTR_BITS.remanufactured
+  if (s.condition === 'new') a |= ATTR_BITS.new
+  if (s.parkingBrake === 'electric') a |= ATTR_BITS.electric
+  if (s.parkingBrake === 'cable') a |= ATTR_BITS.cable
+  if (s.tandem === true) a |= ATTR_BITS.tandem
+  return a
+}
+
+/**
+ * The exact-equality part of a type's fitting rule as one string (shared/schemas/parts.ts FITTING_RULES): parts with
+ * the same key are candidates for "compatible alternatives"; toleranced dimensions are checked afterwards.
+ */
+export function fittingKey(type: PartType, s: Record<string, unknown>, rules: { key: string; tolerance?: number }[]): string {
+  return rules.filter((r) => !r.tolerance).map((r) => JSON.stringify(s[r.key] ?? null)).join('|')
+}
+
+interface TypeIndex {
+  ms: MiniSearch<{ id: number; text: string }>
+  /** part slots of this type, active first then by SKU (re-sorted lazily after changes) */
+  list: number[]
+  sorted: boolean
+  live: number
+  df: Map<number, number>
+  /** word ids kept out of `ms` because they were on too many parts when first seen, with their part slots */
+  common: Map<number, number[]>
+}
+
+export class PartSearchIndex {
+  // columns per slot
+  private partId: number[] = []
+  private skuOf: string[] = []
+  private typeOf: number[] = []
+  private axleOf: number[] = []
+  private statusOf: number[] = [] // 0 active, 1 discontinued, 2 removed
+  private attrsOf: number[] = []
+  private dimsOf: Record<Dimension, Float64Array> = Object.fromEntries(DIMS.map((d) => [d, new Float64Array(0)])) as Record<Dimension, Float64Array>
+  private dims2Of = new Float64Array(0) // second piston diameter
+  private termsOf: (Int32Array | null)[] = []
+  private fitKeyOf: string[] = []
+  private slotOf = new Map<number, number>()
+  // identifiers: sorted keys with the slot and kind of each entry
+  private idKeys: string[] = []
+  private idSlot: number[] = []
+  private idKind: number[] = []
+  private pending: { keys: string[]; slots: number[]; kinds: number[] } | null = null
+  private oldNotes = new Map<string, { oldSku: string; note: string }>()
+  // words
+  private vocab = new Map<string, number>()
+  private vocabList: string[] = []
+  private readonly types = new Map<PartType, TypeIndex>()
+  private fittingRules: Record<PartType, { key: string; tolerance?: number }[]> | null = null
+
+  constructor(fittingRules?: Record<PartType, { key: string; tolerance?: number }[]>) {
+    this.fittingRules = fittingRules ?? null
+    for (const t of PART_TYPES) {
+      this.types.set(t, {
+        ms: new MiniSearch<{ id: number; text: string }>({
+          fields: ['text'], storeFields: [], tokenize: (s) => (s ? s.split(' ') : []), processTerm: (t) => t || null,
+          searchOptions: { tokenize: (s) => [s], processTerm: (t) => t },
+        }),
+        list: [], sorted: true, live: 0, df: new Map(), common: new Map(),
+      })
+    }
+  }
+
+  get size(): number { return this.slotOf.size }
+
+  has(partId: number): boolean { return this.slotOf.has(partId) }
+
+  /** SKU, type, axle and status of an indexed part. */
+  info(partId: number): { sku: string; type: PartType; axle: 'front' | 'rear' | null; status: string } | null {
+    const s = this.slotOf.get(partId)
+    if (s === undefined) return null
+    return { sku: this.skuOf[s]!, type: PART_TYPES[this.typeOf[s]!]!, axle: this.axleOf[s] === 1 ? 'front' : this.axleOf[s] === 2 ? 'rear' : null, status: this.statusOf[s] === 0 ? 'active' : 'discontinued' }
+  }
+
+  private wordId(term: string): number {
+    let id = this.vocab.get(term)
+    if (id === undefined) { id = this.vocabList.length; this.vocab.set(term, id); this.vocabList.push(term) }
+    return id
+  }
+
+  private grow(n: number): void {
+    const cap = this.dims2Of.length
+    if (n <= cap) return
+    const next = Math.max(n, Math.ceil(cap * 1.5) + 1024)
+    const g = (a: Float64Array) => { const b = new Float64Array(next).fill(Number.NaN); b.set(a); return b }
+    for (const d of DIMS) this.dimsOf[d] = g(this.dimsOf[d])
+    this.dims2Of = g(this.dims2Of)
+  }
+
+  /** Fills columns for a new slot; returns the slot and its words. */
+  private place(input: IndexInput): { slot: number; words: number[] } {
+    const slot = this.partId.length
+    this.grow(slot + 1)
+    const type = input.type
+    this.partId.push(input.id)
+    this.skuOf.push(input.sku)
+    this.typeOf.push(TYPE_CODE.get(type)!)
+    const axle = axleOfSpecs(type, input.specs)
+    this.axleOf.push(axle ? AXLE_CODE[axle] : 0)
+    this.statusOf.push(input.status === 'active' ? 0 : 1)
+    this.attrsOf.push(attributesOf(input.specs))
+    const dims = dimensionsOf(type, input.specs)
+    for (const d of DIMS) {
+      const v = dims[d]
+      if (v?.length) {
+        this.dimsOf[d][slot] = v[0]!
+        if (d === 'piston' && v.length > 1) this.dims2Of[slot] = v[1]!
+      }
+    }
+    const words = [...new Set(indexTerms(`${input.description} ${input.productLine}`))].map((w) => this.wordId(w))
+    this.termsOf.push(Int32Array.from(words))
+    this.fitKeyOf.push(this.fittingRules ? fittingKey(type, input.specs, this.fittingRules[type]) : '')
+    this.slotOf.set(input.id, slot)
+    const ti = this.types.get(type)!
+    ti.list.push(slot)
+    ti.sorted = false
+    ti.live++
+    for (const w of words) ti.df.set(w, (ti.df.get(w) ?? 0) + 1)
+    return { slot, words }
+  }
+
+  private identifierEntries(input: IndexInput, slot: number): [string, number, number][] {
+    const sku = norm(input.sku)
+    const out: [string, number, number][] = [[sku, slot, KIND.sku]]
+    const digitsOnly = sku.replace(/^[a-z]+/, '')
+    if (digitsOnly !== sku && digitsOnly.length >= 3) out.push([digitsOnly, slot, KIND.skuDigits])
+    for (const o of input.oeNumbers) out.push([norm(o), slot, KIND.oe])
+    for (const r of input.replaces) {
+      out.push([norm(r.oldSku), slot, KIND.superseded])
+      this.oldNotes.set(`${norm(r.oldSku)}|${slot}`, r)
+    }
+    return out.filter((e) => e[0].length > 0)
+  }
+
+  private msText(type: PartType, words: ArrayLike<number>): string {
+    const ti = this.types.get(type)!
+    let text = ''
+    for (let i = 0; i < words.length; i++) if (!ti.common.has(words[i]!)) text += (text ? ' ' : '') + this.vocabList[words[i]!]!
+    return text
+  }
+
+  /** Bulk load, step 1 (any number of batches): columns, words and identifiers of each part. */
+  addBatch(inputs: Iterable<IndexInput>): void {
+    this.pending ??= { keys: [], slots: [], kinds: [] }
+    for (const input of inputs) {
+      if (this.slotOf.has(input.id)) continue
+      const { slot } = this.place(input)
+      for (const [k, sl, kind] of this.identifierEntries(input, slot)) { this.pending.keys.push(k); this.pending.slots.push(sl); this.pending.kinds.push(kind) }
+    }
+  }
+
+  /** Bulk load, step 2: decides which words are common per type, fills the text indexes and sorts the identifiers. */
+  finish(): void {
+    for (const ti of this.types.values()) for (const [w, n] of ti.df) if (n > COMMON_DF && !ti.common.has(w)) ti.common.set(w, [])
+    const docs = new Map<PartType, { id: number; text: string }[]>()
+    for (let slot = 0; slot < this.partId.length; slot++) {
+      const terms = this.termsOf[slot]
+      if (!terms || this.statusOf[slot] === 2) continue
+      const type = PART_TYPES[this.typeOf[slot]!]!
+      const ti = this.types.get(type)!
+      for (const w of terms) ti.common.get(w)?.push(slot)
+      if (ti.ms.has(slot)) continue
+      let arr = docs.get(type)
+      if (!arr) docs.set(type, (arr = []))
+      arr.push({ id: slot, text: this.msText(type, terms) })
+    }
+    for (const [type, arr] of docs) this.types.get(type)!.ms.addAll(arr)
+    const p = this.pending
+    this.pending = null
+    if (p && p.keys.length) {
+      const keys = this.idKeys.concat(p.keys), slots = this.idSlot.concat(p.slots), kinds = this.idKind.concat(p.kinds)
+      const order = Array.from({ length: keys.length }, (_, i) => i)
+      order.sort((a, b) => (keys[a]! < keys[b]! ? -1 : keys[a]! > keys[b]! ? 1 : kinds[a]! - kinds[b]!))
+      this.idKeys = order.map((i) => keys[i]!)
+      this.idSlot = order.map((i) => slots[i]!)
+      this.idKind = order.map((i) => kinds[i]!)
+    }
+    for (const t of this.types.keys()) this.listOf(t)
+  }
+
+  /** Adds many parts at once. */
+  addAll(inputs: Iterable<IndexInput>): void {
+    this.addBatch(inputs)
+    this.finish()
+  }
+
+  /** Adds or replaces one part (after an edit). */
+  upsert(input: IndexInput): void {
+    this.remove(input.id)
+    const { slot, words } = this.place(input)
+    const ti = this.types.get(input.type)!
+    for (const w of words) ti.common.get(w)?.push(slot)
+    ti.ms.add({ id: slot, text: this.msText(input.type, words) })
+    for (const e of this.identifierEntries(input, slot)) {
+      const i = this.lowerBound(e[0])
+      this.idKeys.splice(i, 0, e[0])
+      this.idSlot.splice(i, 0, e[1])
+      this.idKind.splice(i, 0, e[2])
+    }
+  }
+
+  remove(partId: number): void {
+    const slot = this.slotOf.get(partId)
+    if (slot === undefined) return
+    const type = PART_TYPES[this.typeOf[slot]!]!
+    const ti = this.types.get(type)!
+    ti.ms.discard(slot)
+    ti.list = ti.list.filter((s) => s !== slot)
+    ti.live--
+    for (const w of this.termsOf[slot] ?? []) {
+      const n = (ti.df.get(w) ?? 1) - 1
+      if (n <= 0) ti.df.delete(w)
+      else ti.df.set(w, n)
+    }
+    this.statusOf[slot] = 2
+    this.termsOf[slot] = null
+    this.slotOf.delete(partId)
+    // drop its identifier entries
+    const keep: number[] = []
+    for (let i = 0; i < this.idSlot.length; i++) if (this.idSlot[i] !== slot) keep.push(i)
+    if (keep.length !== this.idSlot.length) {
+      this.idKeys = keep.map((i) => this.idKeys[i]!)
+      this.idKind = keep.map((i) => this.idKind[i]!)
+      this.idSlot = keep.map((i) => this.idSlot[i]!)
+    }
+  }
+
+  private listOf(type: PartType): number[] {
+    const ti = this.types.get(type)!
+    if (!ti.sorted) {
+      ti.list.sort((a, b) => this.statusOf[a]! - this.statusOf[b]! || (this.skuOf[a]! < this.skuOf[b]! ? -1 : this.skuOf[a]! > this.skuOf[b]! ? 1 : 0))
+      ti.sorted = true
+    }
+    return ti.list
+  }
+
+  /** Active parts of a type with the same exact-equality fitting key (candidates for alternatives). */
+  sameFittingKey(partId: number, limit = 2000): number[] {
+    const slot = this.slotOf.get(partId)
+    if (slot === undefined) return []
+    const type = PART_TYPES[this.typeOf[slot]!]!
+    const key = this.fitKeyOf[slot]
+    const out: number[] = []
+    for (const s of this.listOf(type)) {
+      if (s !== slot && this.statusOf[s] === 0 && this.fitKeyOf[s] === key) { out.push(this.partId[s]!); if (out.length >= limit) break }
+    }
+    return out
+  }
+
+  // ---- identifiers
+
+  private lowerBound(key: string): number {
+    let lo = 0, hi = this.idKeys.length
+    while (lo < hi) { const mid = (lo + hi) >>> 1; if (this.idKeys[mid]! < key) lo = mid + 1; else hi = mid }
+    return lo
+  }
+
+  private exact(key: string): number[] {
+    const out: number[] = []
+    for (let i = this.lowerBound(key); i < this.idKeys.length && this.idKeys[i] === key; i++) out.push(i)
+    return out
+  }
+
+  /** Entries one slip away (Damerau: one substitution, deletion, insertion or swap of neighbours). */
+  private oneSlip(key: string): number[] {
+    const alphabet = 'abcdefghijklmnopqrstuvwxyz0123456789'
+    const variants = new Set<string>()
+    for (let i = 0; i < key.length; i++) {
+      variants.add(key.slice(0, i) + key.slice(i + 1))
+      if (i + 1 < key.length) variants.add(key.slice(0, i) + key[i + 1] + key[i] + key.slice(i + 2))
+      for (const c of alphabet) if (c !== key[i]) variants.add(key.slice(0, i) + c + key.slice(i + 1))
+    }
+    for (let i = 0; i <= key.length; i++) for (const c of alphabet) variants.add(key.slice(0, i) + c + key.slice(i))
+    variants.delete(key)
+    const out: number[] = []
+    for (const v of variants) for (const i of this.exact(v)) out.push(i)
+    return out
+  }
+
+  private prefixed(key: string, limit: number): number[] {
+    const out: number[] = []
+    for (let i = this.lowerBound(key); i < this.idKeys.length && this.idKeys[i]!.startsWith(key) && out.length < limit; i++) {
+      if (this.idKeys[i] !== key) out.push(i)
+    }
+    return out
+  }
+
+  // ---- words
+
+  /** Word ids a query word stands for: exact, by prefix, or within its edit distance. */
+  private resolveWord(t: ScoredTerm): number[] {
+    const out: number[] = []
+    const exactId = this.vocab.get(t.term)
+    if (exactId !== undefined) out.push(exactId)
+    for (let id = 0; id < this.vocabList.length; id++) {
+      if (id === exactId) continue
+      const w = this.vocabList[id]!
+      if (t.prefix && t.term.length >= 2 && w.startsWith(t.term)) { out.push(id); continue }
+      if (t.fuzzy > 0 && Math.abs(w.length - t.term.length) <= t.fuzzy && editDistance(t.term, w, t.fuzzy) <= t.fuzzy) out.push(id)
+    }
+    return out
+  }
+
+  /** Runs a plan with the route's filters; hits in rank order. */
+  search(plan: SearchPlan, filters: SearchFilters = {}): { hits: Hit[]; types: PartType[] } {
+    let types = new Set<PartType>(PART_TYPES)
+    const keep = (ts: readonly PartType[]) => { types = new Set([...types].filter((t) => ts.includes(t))) }
+    if (plan.types) keep(plan.types)
+    if (filters.type) keep([filters.type])
+    const ranges = Object.entries(filters.ranges ?? {}) as [Dimension, DimensionRange][]
+    for (const [d] of ranges) keep(TYPES_WITH_DIMENSION[d])
+    for (const n of plan.numbers) if (n.dims) keep(n.dims.flatMap((d) => TYPES_WITH_DIMENSION[d]))
+    if (filters.axle && plan.axle && filters.axle !== plan.axle) return { hits: [], types: [...types] }
+    const axle = filters.axle ?? plan.axle
+    const axleCode = axle ? AXLE_CODE[axle] : 0
+    let attrMask = 0
+    for (const a of plan.attributes) attrMask |= ATTR_BITS[a]
+    const typeCodes = new Set([...types].map((t) => TYPE_CODE.get(t)!))
+
+    const dimMatch = (slot: number, d: Dimension, test: (v: number) => boolean) => {
+      const v = this.dimsOf[d][slot]!
+      if (!Number.isNaN(v) && test(v)) return true
+      if (d === 'piston') { const w = this.dims2Of[slot]!; return !Number.isNaN(w) && test(w) }
+      return false
+    }
+    const numbers = plan.numbers.map((n) => ({ dims: n.dims ?? DIMS, lo: n.value - n.tolerance - 1e-9, hi: n.value + n.tolerance + 1e-9 }))
+    const rangeTests = ranges.map(([d, r]) => ({ d, lo: (r.min ?? -Infinity) - 1e-9, hi: (r.max ?? Infinity) + 1e-9 }))
+    const accept = (slot: number): boolean => {
+      if (this.statusOf[slot] === 2 || !typeCodes.has(this.typeOf[slot]!)) return false
+      if (axleCode && this.axleOf[slot] !== axleCode) return false
+      if (attrMask && (this.attrsOf[slot]! & attrMask) !== attrMask) return false
+      for (const r of rangeTests) if (!dimMatch(slot, r.d, (v) => v >= r.lo && v <= r.hi)) return false
+      for (const n of numbers) if (!n.dims.some((d) => dimMatch(slot, d, (v) => v >= n.lo && v <= n.hi))) return false
+      return true
+    }
+
+    const words = plan.terms.filter((t) => t.kind === 'word').map((t) => ({ t, ids: this.resolveWord(t) }))
+    const wordSets = words.map((w) => new Set(w.ids))
+    const hasWords = (slot: number, mode: 'AND' | 'OR') => {
+      if (!wordSets.length) return true
+      const terms = this.termsOf[slot]
+      if (!terms) return false
+      for (const set of wordSets) {
+        let found = false
+        for (let i = 0; i < terms.length; i++) if (set.has(terms[i]!)) { found = true; break }
+        if (mode === 'AND' && !found) return false
+        if (mode === 'OR' && found) return true
+      }
+      return mode === 'AND'
+    }
+
+    // identifiers: exact first (SKU, then parts replacing a superseded SKU, then OE), then one-slip, then prefix
+    const hits: Hit[] = []
+    const seen = new Set<number>()
+    const push = (entry: number, score: number, by?: MatchKind) => {
+      const slot = this.idSlot[entry]!
+      if (seen.has(slot) || !accept(slot) || !hasWords(slot, 'AND')) return
+      seen.add(slot)
+      const kind = this.idKind[entry]!
+      const h: Hit = { id: this.partId[slot]!, score, by: by ?? KIND_NAME[kind]!, identifier: this.idKeys[entry] }
+      if (kind === KIND.superseded) {
+        // a superseded SKU, typed exactly or with a slip, lists its replacement and says so
+        const n = this.oldNotes.get(`${this.idKeys[entry]}|${slot}`)
+        if (n) { h.oldSku = n.oldSku; h.note = n.note }
+        if (by !== 'prefix') h.by = 'superseded'
+      }
+      hits.push(h)
+    }
+    const identifiers = plan.terms.filter((t) => t.kind === 'identifier')
+    for (const t of identifiers) {
+      const exact = this.exact(t.term).sort((a, b) => KIND_SCORE[this.idKind[b]!]! - KIND_SCORE[this.idKind[a]!]!)
+      // a discontinued SKU ranks after the part that replaced it (its superseded entry scores higher)
+      for (const e of exact) push(e, this.idKind[e] === KIND.sku && this.statusOf[this.idSlot[e]!] !== 0 ? 2.5e9 : KIND_SCORE[this.idKind[e]!]!)
+      // a typo is looked for only when nothing matched exactly
+      if (!exact.length && t.fuzzy > 0) for (const e of this.oneSlip(t.term)) push(e, 1e9 - this.idKind[e]!, 'similar')
+      if (t.prefix) for (const e of this.prefixed(t.term, MAX_PREFIX_HITS)) push(e, 5e8 - this.idKeys[e]!.length, 'prefix')
+    }
+    hits.sort((a, b) => b.score - a.score)
+    if (identifiers.length) return { hits, types: [...types] }
+
+    const rest = this.wordsOrScan(words, types, accept, hasWords, 'AND')
+    if (rest.length === 0 && words.length > 1) return { hits: this.wordsOrScan(words, types, accept, hasWords, 'OR'), types: [...types] }
+    return { hits: rest, types: [...types] }
+  }
+
+  private wordsOrScan(
+    words: { t: ScoredTerm; ids: number[] }[], types: Set<PartType>, accept: (slot: number) => boolean,
+    hasWords: (slot: number, mode: 'AND' | 'OR') => boolean, mode: 'AND' | 'OR',
+  ): Hit[] {
+    const out: Hit[] = []
+    let scored = false
+    for (const type of PART_TYPES) {
+      if (!types.has(type)) continue
+      const ti = this.types.get(type)!
+      // per type: a word is selective when every word id it stands for is kept in this type's text index
+      const present = words.map((w) => ({ ...w, ids: w.ids.filter((id) => ti.df.has(id)) }))
+      if (mode === 'AND' && present.some((w) => w.ids.length === 0)) continue
+      const selective = present.filter((w) => w.ids.length > 0 && w.ids.every((id) => !ti.common.has(id)))
+      if (selective.length && mode === 'AND') {
+        scored = true
+        const exactOf = (w: { t: ScoredTerm; ids: number[] }) => (this.vocab.get(w.t.term) !== undefined && w.ids.includes(this.vocab.get(w.t.term)!) ? [w.t.term] : [])
+        const results = ti.ms.search({
+          combineWith: 'AND',
+          // each word: any of the words it stands for; the exact spelling counts twice so it ranks above a typo
+          queries: selective.map((w) => ({ combineWith: 'OR', queries: [...w.ids.map((id) => this.vocabList[id]!), ...exactOf(w)] })),
+        }, { filter: (r) => accept(r.id as number) && hasWords(r.id as number, 'AND') })
+        for (const r of results) out.push({ id: this.partId[r.id as number]!, score: r.score, by: 'text' })
+        continue
+      }
+      if (!words.length || mode === 'OR') {
+        for (const slot of this.listOf(type)) if (accept(slot) && hasWords(slot, mode)) out.push({ id: this.partId[slot]!, score: 0, by: words.length ? 'text' : 'filter' })
+        continue
+      }
+      // every word is broad here: walk the shortest posting list (of the word that narrows most) and check the rest
+      let best: number[] | null = null
+      for (const w of present) {
+        const lists = w.ids.map((id) => ti.common.get(id)).filter((l): l is number[] => !!l)
+        const size = lists.reduce((n, l) => n + l.length, 0)
+        if (lists.length === w.ids.length && (best === null || size < best.length)) best = lists.length === 1 ? lists[0]! : lists.flat()
+      }
+      const matched: number[] = []
+      const seen = new Set<number>()
+      for (const slot of best ?? this.listOf(type)) {
+        if (seen.has(slot)) continue
+        seen.add(slot)
+        if (accept(slot) && hasWords(slot, 'AND')) matched.push(slot)
+      }
+      matched.sort((a, b) => this.statusOf[a]! - this.statusOf[b]! || (this.skuOf[a]! < this.skuOf[b]! ? -1 : this.skuOf[a]! > this.skuOf[b]! ? 1 : 0))
+      for (const slot of matched) out.push({ id: this.partId[slot]!, score: 0, by: 'text' })
+    }
+    if (scored) out.sort((a, b) => b.score - a.score)
+    return out
+  }
+}

@@ -1,0 +1,55 @@
+/**
+ * The garage's current prices: list price from the active price list, less the garage's tier discount
+ * (netPriceMinor, rounded once), plus the core deposit held against the old unit. Server-only, no HTTP.
+ */
+import { Op, type Transaction } from 'sequelize'
+import { DiscountTier, type Organisation } from '../models/accounts'
+import { Part, Price, PriceList } from '../models/catalogue'
+import { netPriceMinor } from '../../shared/utils/money'
+
+export interface PartPrice {
+  part: Part
+  listPriceMinor: number
+  coreDepositMinor: number
+  /** the garage's net unit price */
+  unitNetMinor: number
+}
+
+/** The one active price list, or null before any has been loaded. */
+export function activePriceList(t?: Transaction): Promise<PriceList | null> {
+  return PriceList.findOne({ where: { status: 'active' }, order: [['activatedAt', 'DESC'], ['id', 'DESC']], transaction: t })
+}
+
+/** The garage's discount in basis points (0 without a tier). */
+export async function tierBpOf(org: Pick<Organisation, 'tierId'>, t?: Transaction): Promise<number> {
+  if (!org.tierId) return 0
+  const tier = await DiscountTier.findByPk(org.tierId, { transaction: t })
+  return tier?.percentBp ?? 0
+}
+
+/**
+ * Current prices of the given SKUs for a garage, keyed by SKU as stored. SKUs with no part, or no price on
+ * the active list, are simply absent from the map (the caller says why).
+ */
+export async function garagePrices(org: Pick<Organisation, 'tierId'>, skus: string[], t?: Transaction): Promise<Map<string, PartPrice>> {
+  const out = new Map<string, PartPrice>()
+  if (!skus.length) return out
+  const list = await activePriceList(t)
+  if (!list) return out
+  const bp = await tierBpOf(org, t)
+  const parts = await Part.findAll({ where: { sku: { [Op.in]: [...new Set(skus)] } }, transaction: t })
+  if (!parts.length) return out
+  const prices = await Price.findAll({ where: { priceListId: list.id, partId: { [Op.in]: parts.map((p) => p.id) } }, transaction: t })
+  const byPart = new Map(prices.map((p) => [p.partId, p]))
+  for (const part of parts) {
+    const price = byPart.get(part.id)
+    if (!price) continue
+    out.set(part.sku, {
+      part,
+      listPriceMinor: price.listPriceMinor,
+      coreDepositMinor: price.coreDepositMinor ?? 0,
+      unitNetMinor: netPriceMinor(price.listPriceMinor, bp),
+    })
+  }
+  return out
+}

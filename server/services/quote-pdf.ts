@@ -1,0 +1,181 @@
+/**
+ * The quote as a PDF (pdfkit), in the app's own typeface (Inter from @fontsource, WOFF, passed in by the
+ * caller so this stays plain Node): garage header and logo, vehicle, findings, lines, tax, totals, validity,
+ * terms and the safety caution. Figures come from the same serialised view the owner's page uses.
+ */
+import PDFDocument from 'pdfkit'
+import { formatMinor } from '../../shared/utils/money'
+import { formatBp } from '../../shared/utils/quote-totals'
+import { QUOTE_STATUS_LABELS } from '../../shared/utils/quote-states'
+import { FINDING_WORDS, QUOTE_SAFETY_CAUTION, RECOMMENDATION_WORDS } from '../../shared/utils/quote-wording'
+import type { OwnerQuoteView } from '../../shared/types/quotes'
+import { drawSvgLogo } from './svg-to-pdf'
+
+export interface PdfFonts { regular: Buffer; bold: Buffer }
+export interface PdfGarage { name: string; address: string; phone: string; email: string; taxNumber: string }
+export interface PdfLogo { data: Buffer; mime: string }
+
+const INK = '#1b2430'
+const SOFT = '#5b6878'
+const LINE = '#d3cdc2'
+const ACCENT = '#9a5225'
+const FAIL = '#b42318'
+
+/** Renders the quote; resolves with the PDF bytes. */
+export function renderQuotePdf(view: OwnerQuoteView, garage: PdfGarage, fonts: PdfFonts, logo: PdfLogo | null, locale = 'en-GB'): Promise<Buffer> {
+  const money = (m: number) => formatMinor(m, view.currency, locale)
+  const date = (d: string | null) => (d ? new Intl.DateTimeFormat(locale, { dateStyle: 'long' }).format(new Date(d)) : '')
+  const doc = new PDFDocument({
+    size: 'A4', margin: 48, bufferPages: true, font: fonts.regular as unknown as string,
+    info: { Title: `Quote ${view.reference} from ${garage.name}`, Author: garage.name, Subject: view.vehicle, Creator: 'Boreline' },
+  })
+  doc.registerFont('body', fonts.regular)
+  doc.registerFont('bold', fonts.bold)
+  const chunks: Buffer[] = []
+  doc.on('data', (c: Buffer) => chunks.push(c))
+  const done = new Promise<Buffer>((resolve, reject) => {
+    doc.on('end', () => resolve(Buffer.concat(chunks)))
+    doc.on('error', reject)
+  })
+
+  const left = doc.page.margins.left
+  const width = doc.page.width - doc.page.margins.left - doc.page.margins.right
+  const bottom = () => doc.page.height - doc.page.margins.bottom - 24
+  const ensure = (h: number) => { if (doc.y + h > bottom()) doc.addPage() }
+  const heading = (text: string) => {
+    ensure(40)
+    doc.moveDown(0.8).font('bold').fontSize(11).fillColor(INK).text(text, left, doc.y, { width })
+    doc.moveTo(left, doc.y + 2).lineTo(left + width, doc.y + 2).lineWidth(0.5).strokeColor(LINE).stroke()
+    doc.moveDown(0.5)
+  }
+
+  // header: logo and garage on the left, the quote on the right
+  const top = doc.y
+  let textLeft = left
+  if (logo) {
+    try {
+      if (logo.mime === 'image/png' || logo.mime === 'image/jpeg') {
+        doc.image(logo.data, left, top, { fit: [110, 54] })
+        textLeft = left + 122
+      } else if (logo.mime === 'image/svg+xml' && drawSvgLogo(doc, logo.data.toString('utf8'), left, top, 110, 54)) {
+        textLeft = left + 122
+      }
+    } catch { /* an unreadable image leaves the name alone in the header */ }
+  }
+  doc.font('bold').fontSize(16).fillColor(INK).text(garage.name, textLeft, top, { width: 260 })
+  doc.font('body').fontSize(8.5).fillColor(SOFT)
+  for (const line of [garage.address, [garage.phone, garage.email].filter(Boolean).join(' · '), garage.taxNumber ? `Tax number ${garage.taxNumber}` : '']) {
+    if (line) doc.text(line, textLeft, doc.y, { width: 260 })
+  }
+  const leftBottom = doc.y
+  doc.font('bold').fontSize(14).fillColor(ACCENT).text('Quote', left + width - 180, top, { width: 180, align: 'right' })
+  doc.font('body').fontSize(9).fillColor(INK)
+  doc.text(view.reference, left + width - 180, doc.y, { width: 180, align: 'right' })
+  if (view.sentAt) doc.text(`Issued ${date(view.sentAt)}`, { width: 180, align: 'right' })
+  if (view.expiresAt) doc.text(`Valid until ${date(view.expiresAt)}`, { width: 180, align: 'right' })
+  if (view.status !== 'sent' && view.status !== 'draft') doc.text(QUOTE_STATUS_LABELS[view.status], { width: 180, align: 'right' })
+  doc.y = Math.max(leftBottom, doc.y, top + 56) + 10
+  doc.x = left
+
+  heading('Vehicle')
+  doc.font('body').fontSize(9.5).fillColor(INK)
+  doc.text(`${view.vehicle || 'Vehicle'}${view.registration ? `  ·  Registration ${view.registration}` : ''}${view.odometer ? `  ·  Odometer ${view.odometer}` : ''}`, left, doc.y, { width })
+  doc.fillColor(SOFT).text(`Prepared for ${view.ownerName}`, { width })
+
+  if (view.findings.length) {
+    heading('What we found')
+    for (const f of view.findings) {
+      ensure(28)
+      const y = doc.y
+      doc.font('bold').fontSize(8.5).fillColor(f.verdict === 'fail' ? FAIL : ACCENT).text(FINDING_WORDS[f.verdict], left, y, { width: 90 })
+      doc.font('body').fontSize(9).fillColor(INK).text(f.text, left + 96, y, { width: width - 96 })
+      doc.moveDown(0.3)
+    }
+  }
+  if (view.messageToOwner) {
+    heading('Note from the garage')
+    doc.font('body').fontSize(9.5).fillColor(INK).text(view.messageToOwner, left, doc.y, { width })
+  }
+
+  // lines
+  heading('The work')
+  const cols = { desc: left, qty: left + width - 250, unit: left + width - 190, amount: left + width - 110, tax: left + width - 45 }
+  const head = () => {
+    doc.font('bold').fontSize(8).fillColor(SOFT)
+    const y = doc.y
+    doc.text('Description', cols.desc, y, { width: cols.qty - cols.desc - 8 })
+    doc.text('Qty', cols.qty, y, { width: 50, align: 'right' })
+    doc.text('Unit', cols.unit, y, { width: 70, align: 'right' })
+    doc.text('Amount', cols.amount, y, { width: 60, align: 'right' })
+    doc.text('Tax', cols.tax, y, { width: 45, align: 'right' })
+    doc.moveDown(0.4)
+  }
+  head()
+  const decided = view.state === 'decided'
+  for (const l of view.lines) {
+    const labels: string[] = []
+    if (l.recommendation) labels.push(RECOMMENDATION_WORDS[l.recommendation])
+    if (l.kind === 'core_deposit') labels.push(l.coreCharge === 'absorbed' ? 'Deposit paid by the garage' : 'Refundable deposit')
+    if (decided && l.decidable) labels.push(l.ownerDecision === 'approved' ? 'Approved' : 'Declined')
+    const descWidth = cols.qty - cols.desc - 8
+    doc.font('body').fontSize(9)
+    const h = doc.heightOfString(l.description, { width: descWidth }) + (labels.length ? 11 : 0) + (l.reason ? doc.heightOfString(l.reason, { width: descWidth }) : 0) + 6
+    if (doc.y + h > bottom()) { doc.addPage(); head() }
+    const y = doc.y
+    doc.fillColor(decided && l.decidable && l.ownerDecision !== 'approved' ? SOFT : INK).text(l.description, cols.desc, y, { width: descWidth })
+    if (labels.length) {
+      doc.font('bold').fontSize(7.5).fillColor(l.recommendation === 'required' ? FAIL : ACCENT).text(labels.join(' · '), cols.desc, doc.y, { width: descWidth })
+    }
+    if (l.reason) doc.font('body').fontSize(7.5).fillColor(SOFT).text(l.reason, cols.desc, doc.y, { width: descWidth })
+    const endY = doc.y
+    doc.font('body').fontSize(9).fillColor(INK)
+    const qty = l.kind === 'labour' ? `${l.hours} h` : l.kind === 'discount' ? '' : String(l.quantity)
+    doc.text(qty, cols.qty, y, { width: 50, align: 'right' })
+    doc.text(l.kind === 'discount' ? '' : money(l.unitPriceMinor), cols.unit, y, { width: 70, align: 'right' })
+    doc.text(money(l.amountMinor), cols.amount, y, { width: 60, align: 'right' })
+    doc.fillColor(SOFT).text(formatBp(l.taxBp), cols.tax, y, { width: 45, align: 'right' })
+    doc.y = Math.max(endY, doc.y) + 4
+    doc.moveTo(left, doc.y - 2).lineTo(left + width, doc.y - 2).lineWidth(0.3).strokeColor(LINE).stroke()
+  }
+
+  // totals
+  const totalRow = (label: string, value: string, strong = false) => {
+    ensure(16)
+    const y = doc.y
+    doc.font(strong ? 'bold' : 'body').fontSize(strong ? 10.5 : 9.5).fillColor(INK)
+    doc.text(label, left + width - 260, y, { width: 170, align: 'right' })
+    doc.text(value, left + width - 90, y, { width: 90, align: 'right' })
+    doc.moveDown(0.25)
+  }
+  doc.moveDown(0.6)
+  totalRow('Total before tax', money(view.totals.netMinor))
+  totalRow(view.taxLabel, money(view.totals.taxMinor))
+  totalRow('Total to pay', money(view.totals.grossMinor), true)
+  if (view.approvedTotals) {
+    doc.moveDown(0.4)
+    totalRow(`Approved by ${view.signedName ?? 'the owner'} on ${date(view.decidedAt)}`, '')
+    totalRow('Approved before tax', money(view.approvedTotals.netMinor))
+    totalRow('Tax on approved work', money(view.approvedTotals.taxMinor))
+    totalRow('Approved total', money(view.approvedTotals.grossMinor), true)
+  }
+  doc.x = left
+
+  heading('Validity and terms')
+  doc.font('body').fontSize(8.5).fillColor(INK)
+  if (view.expiresAt) doc.text(`This quote is valid until ${date(view.expiresAt)}. Prices are in ${view.currency} and include the tax shown.`, left, doc.y, { width })
+  if (view.terms) doc.moveDown(0.3).text(view.terms, { width })
+
+  heading('Safety caution')
+  doc.font('body').fontSize(8.5).fillColor(INK).text(QUOTE_SAFETY_CAUTION, left, doc.y, { width })
+
+  // page numbers
+  const range = doc.bufferedPageRange()
+  for (let i = range.start; i < range.start + range.count; i++) {
+    doc.switchToPage(i)
+    const y = doc.page.height - doc.page.margins.bottom - 10
+    doc.font('body').fontSize(7.5).fillColor(SOFT)
+      .text(`${garage.name} · ${view.reference} · page ${i + 1} of ${range.count}`, left, y, { width, align: 'center', lineBreak: false })
+  }
+  doc.end()
+  return done
+}

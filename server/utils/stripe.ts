@@ -1,0 +1,37 @@
+/**
+ * The one payment-service client: the official `stripe` SDK, pointed by runtime config (NUXT_STRIPE_HOST,
+ * _PORT, _PROTOCOL) at the local fake in fakes/payments (or at the real service, with its own key).
+ * The SDK retries network failures and 409/5xx answers itself (twice); every POST we make carries an
+ * idempotency key derived from our own records, so a retry never charges or refunds twice.
+ */
+import Stripe from 'stripe'
+
+let client: Stripe | undefined
+let clientKey = ''
+
+export function useStripe(): Stripe {
+  const config = useRuntimeConfig()
+  const key = `${config.stripeSecretKey}|${config.stripeHost}|${config.stripePort}|${config.stripeProtocol}`
+  if (client && clientKey === key) return client
+  client = new Stripe(String(config.stripeSecretKey), {
+    host: String(config.stripeHost),
+    port: Number(config.stripePort),
+    protocol: String(config.stripeProtocol) === 'https' ? 'https' : 'http',
+    telemetry: false,
+    maxNetworkRetries: 2,
+    timeout: 20_000,
+  })
+  clientKey = key
+  return client
+}
+
+/** The webhook signing secret (`whsec_...`). */
+export function stripeWebhookSecret(): string {
+  return String(useRuntimeConfig().stripeWebhookSecret)
+}
+
+/** A short, safe description of a payment-service failure for logs and the caller. */
+export function stripeProblem(err: unknown): string {
+  if (err instanceof Stripe.errors.StripeError) return `${err.type}${err.code ? ` (${err.code})` : ''}: ${err.message}`
+  return err instanceof Error ? err.message : String(err)
+}

@@ -1,0 +1,96 @@
+/**
+ * Inputs of the order, payment, core-return and statement routes, shared by the routes and the forms that
+ * send them. Strict objects: an unknown field is refused by name (no mass assignment of prices or states).
+ */
+import { z } from 'zod'
+import { CORE_RETURN_STATUSES, ORDER_STATUSES } from '../types/orders'
+
+const id = (what: string) => z.number({ error: `Choose the ${what}.` }).int().positive({ error: `Choose the ${what}.` })
+
+export const MAX_ORDER_LINES = 100
+export const MAX_LINE_QUANTITY = 999
+
+export const OrderLineInputSchema = z.object({
+  sku: z.string({ error: 'Enter the part number.' }).trim().min(1, 'Enter the part number.').max(40, 'Part numbers are at most 40 characters.'),
+  quantity: z.number({ error: 'Quantity must be a whole number.' }).int('Quantity must be a whole number.')
+    .min(1, 'Order at least 1.').max(MAX_LINE_QUANTITY, `At most ${MAX_LINE_QUANTITY} of one part per order.`),
+}).strict()
+
+const orderBase = z.object({
+  quoteId: id('quote').optional(),
+  lines: z.array(OrderLineInputSchema, { error: 'lines must be a list of { sku, quantity }.' })
+    .max(MAX_ORDER_LINES, `At most ${MAX_ORDER_LINES} lines per order.`).optional(),
+  branchId: id('branch').optional(),
+  payment: z.enum(['card', 'account'], { error: 'Choose card or trade account.' }),
+  garageReference: z.string({ error: 'Your reference must be text.' }).trim().max(60, 'Your reference is at most 60 characters.').default(''),
+}).strict()
+
+function oneSource(v: { quoteId?: number; lines?: unknown[] }, ctx: z.RefinementCtx) {
+  if (v.quoteId !== undefined && v.lines !== undefined) {
+    ctx.addIssue({ code: 'custom', path: ['lines'], message: 'Order either a quote\'s approved lines or a basket, not both.' })
+  } else if (v.quoteId === undefined && (!v.lines || v.lines.length === 0)) {
+    ctx.addIssue({ code: 'custom', path: ['lines'], message: 'Add at least one part, or order from a quote.' })
+  }
+}
+
+/** POST /api/orders */
+export const OrderCreateSchema = orderBase.superRefine(oneSource)
+export type OrderCreateInput = z.input<typeof OrderCreateSchema>
+
+/** POST /api/orders/preview: the same body; `payment` may be left open while the garage decides. */
+export const OrderPreviewSchema = orderBase.extend({ payment: orderBase.shape.payment.optional() }).superRefine(oneSource)
+
+/** The optional `Idempotency-Key` header of POST /api/orders. */
+export const IdempotencyKeySchema = z.string().trim().min(8, 'Idempotency-Key must be 8 to 80 characters.')
+  .max(80, 'Idempotency-Key must be 8 to 80 characters.').regex(/^[A-Za-z0-9_:.-]+$/, 'Idempotency-Key may use letters, digits and _ : . -')
+
+export const OrderParamsSchema = z.object({ id: z.coerce.number().int().positive() })
+
+const status = z.enum(ORDER_STATUSES, { error: `status must be one of: ${ORDER_STATUSES.join(', ')}` })
+const page = z.coerce.number().int().min(1).max(10_000).default(1)
+
+/** GET /api/orders?status=&page= */
+export const OrderListQuerySchema = z.object({ status: status.optional(), page })
+
+/** GET /api/counter/orders?branchId=&status=&page= ; `open` = everything still to be worked */
+export const CounterOrderListQuerySchema = z.object({
+  branchId: z.coerce.number().int().positive().optional(),
+  status: z.union([status, z.literal('open')]).default('open'),
+  page,
+})
+
+/** POST /api/orders/:id/cancel */
+export const OrderCancelSchema = z.object({
+  reason: z.string({ error: 'The reason must be text.' }).trim().max(300, 'The reason is at most 300 characters.').default(''),
+}).strict()
+
+/** PATCH /api/counter/orders/:id */
+export const CounterOrderPatchSchema = z.object({
+  status: z.enum(['picking', 'dispatched', 'delivered', 'cancelled'], { error: 'status must be picking, dispatched, delivered or cancelled.' }),
+  reason: z.string({ error: 'The reason must be text.' }).trim().max(300, 'The reason is at most 300 characters.').default(''),
+}).strict()
+
+/** POST /api/core-returns: book an expected return (by its id, or by the order line it belongs to). */
+export const CoreReturnBookSchema = z.object({
+  coreReturnId: id('core return').optional(),
+  orderLineId: id('order line').optional(),
+  quantity: z.number({ error: 'Quantity must be a whole number.' }).int('Quantity must be a whole number.').min(1, 'Return at least 1.').optional(),
+  note: z.string({ error: 'The note must be text.' }).trim().max(300, 'The note is at most 300 characters.').default(''),
+}).strict().refine((v) => v.coreReturnId !== undefined || v.orderLineId !== undefined, {
+  path: ['coreReturnId'], message: 'Choose the old unit you are sending back.',
+})
+
+export const CoreReturnParamsSchema = z.object({ id: z.coerce.number().int().positive() })
+
+/** GET /api/core-returns?status= and GET /api/counter/core-returns?status= */
+export const CoreReturnListQuerySchema = z.object({
+  status: z.enum(CORE_RETURN_STATUSES, { error: `status must be one of: ${CORE_RETURN_STATUSES.join(', ')}` }).optional(),
+})
+
+/** PATCH /api/counter/core-returns/:id */
+export const CoreReturnDecisionSchema = z.object({
+  status: z.enum(['accepted', 'rejected'], { error: 'status must be accepted or rejected.' }),
+  reason: z.string({ error: 'The reason must be text.' }).trim().max(300, 'The reason is at most 300 characters.').default(''),
+}).strict().refine((v) => v.status !== 'rejected' || v.reason.length >= 3, {
+  path: ['reason'], message: 'Say why the old unit is not accepted.',
+})

@@ -1,0 +1,208 @@
+/**
+ * Orders, payments, the ledger and core returns: the states and the shapes the routes answer with, shared by
+ * the server serialisers and the pages.
+ *
+ * An order's life (the server refuses every other move with 409):
+ *
+ *   card:    awaiting_payment ──paid──> queued ──> picking ──> dispatched ──> delivered
+ *                 │  └─checkout expired─> lapsed ──pay again (stock re-reserved)──> awaiting_payment
+ *                 └──cancel──> cancelled <──cancel── queued, picking, lapsed
+ *   account: queued ──> picking ──> dispatched ──> delivered   (cancel from queued or picking)
+ */
+
+export const ORDER_STATUSES = ['awaiting_payment', 'queued', 'picking', 'dispatched', 'delivered', 'cancelled', 'lapsed'] as const
+export type OrderStatus = (typeof ORDER_STATUSES)[number]
+
+export const PAYMENT_METHODS = ['card', 'account'] as const
+export type PaymentMethod = (typeof PAYMENT_METHODS)[number]
+
+export const PAYMENT_STATES = ['unpaid', 'paid', 'on_account', 'refund_pending', 'refunded', 'credited'] as const
+export type PaymentState = (typeof PAYMENT_STATES)[number]
+
+export const CORE_RETURN_STATUSES = ['expected', 'booked', 'accepted', 'rejected', 'void'] as const
+export type CoreReturnStatus = (typeof CORE_RETURN_STATUSES)[number]
+
+export const LEDGER_KINDS = ['order', 'core_deposit', 'payment', 'refund', 'credit', 'core_credit'] as const
+export type LedgerKind = (typeof LEDGER_KINDS)[number]
+
+/** The moves counter staff make on the queue (PATCH /api/counter/orders/:id). */
+export const COUNTER_MOVES: Partial<Record<OrderStatus, OrderStatus[]>> = {
+  queued: ['picking', 'cancelled'],
+  picking: ['dispatched', 'cancelled'],
+  dispatched: ['delivered'],
+}
+
+export const ORDER_STATUS_LABELS: Record<OrderStatus, string> = {
+  awaiting_payment: 'Waiting for card payment',
+  queued: 'Confirmed, waiting to be picked',
+  picking: 'Being picked',
+  dispatched: 'On its way',
+  delivered: 'Delivered',
+  cancelled: 'Cancelled',
+  lapsed: 'Checkout lapsed',
+}
+
+export const PAYMENT_STATE_LABELS: Record<PaymentState, string> = {
+  unpaid: 'Not paid yet',
+  paid: 'Paid by card',
+  on_account: 'On trade account',
+  refund_pending: 'Refund on its way',
+  refunded: 'Refunded to card',
+  credited: 'Credited to account',
+}
+
+export const CORE_RETURN_LABELS: Record<CoreReturnStatus, string> = {
+  expected: 'Old unit due back',
+  booked: 'Booked to come back',
+  accepted: 'Accepted, deposit returned',
+  rejected: 'Not accepted',
+  void: 'Not needed (order cancelled)',
+}
+
+export const LEDGER_KIND_LABELS: Record<LedgerKind, string> = {
+  order: 'Order',
+  core_deposit: 'Core deposit',
+  payment: 'Card payment',
+  refund: 'Refund to card',
+  credit: 'Credit',
+  core_credit: 'Core credit',
+}
+
+/** The reference people quote on the phone and that prints on paperwork: BL-000042. */
+export function orderReference(id: number): string {
+  return `BL-${String(id).padStart(6, '0')}`
+}
+
+export interface BranchView { id: number; code: string; name: string }
+
+export interface OrderLineView {
+  id: number
+  sku: string
+  description: string
+  quantity: number
+  unitListMinor: number
+  unitNetMinor: number
+  lineNetMinor: number
+  lineTaxMinor: number
+  coreDepositUnitMinor: number
+  /** set when the line came from a quote: the unit net price the quote had captured */
+  quotedUnitNetMinor: number | null
+}
+
+export interface CoreReturnView {
+  id: number
+  orderId: number
+  orderReference: string
+  orderLineId: number
+  sku: string
+  description: string
+  status: CoreReturnStatus
+  statusLabel: string
+  quantityExpected: number
+  quantityBooked: number | null
+  depositUnitMinor: number
+  /** the deposit that goes back if it is accepted (booked quantity, or all expected before booking) */
+  depositMinor: number
+  creditedMinor: number | null
+  garageNote: string
+  reason: string | null
+  bookedAt: string | null
+  decidedAt: string | null
+  refundPending: boolean
+  /** the garage's name (counter views only) */
+  garage?: string
+}
+
+export interface OrderSummary {
+  id: number
+  reference: string
+  status: OrderStatus
+  statusLabel: string
+  paymentMethod: PaymentMethod
+  paymentState: PaymentState
+  paymentStateLabel: string
+  totalMinor: number
+  currency: string
+  branch: BranchView
+  garageReference: string
+  lineCount: number
+  createdAt: string
+  /** counter views only */
+  garage?: { id: number; name: string }
+}
+
+export interface OrderDetail extends OrderSummary {
+  quoteId: number | null
+  subtotalMinor: number
+  coreDepositMinor: number
+  taxRateBp: number
+  taxMinor: number
+  lines: OrderLineView[]
+  coreReturns: CoreReturnView[]
+  placedBy: string
+  /** the last card attempt's refusal, shown until a payment succeeds */
+  decline: { reason: string; code: string | null; at: string } | null
+  /** what the signed-in caller may do next */
+  can: { pay: boolean; cancel: boolean; invoice: boolean }
+  /** counter views: the moves that are allowed from here */
+  nextStatuses?: OrderStatus[]
+  timeline: { at: string; label: string }[]
+}
+
+export interface PricedLine {
+  sku: string
+  partId: number
+  description: string
+  quantity: number
+  unitListMinor: number
+  unitNetMinor: number
+  lineNetMinor: number
+  lineTaxMinor: number
+  coreDepositUnitMinor: number
+  /** units at the chosen branch right now */
+  available: number
+  quoteLineId: number | null
+  quotedUnitNetMinor: number | null
+  /** unitNetMinor - quotedUnitNetMinor when the price moved since the quote, else null */
+  priceChangeMinor: number | null
+}
+
+export interface OrderPreview {
+  lines: PricedLine[]
+  branch: BranchView
+  branches: BranchView[]
+  subtotalMinor: number
+  coreDepositMinor: number
+  taxRateBp: number
+  taxMinor: number
+  totalMinor: number
+  currency: string
+  /** lines whose price differs from the quote's */
+  changes: { sku: string; quotedUnitNetMinor: number; unitNetMinor: number }[]
+  /** quote lines that could not be ordered (no longer sold, no price), with why */
+  skipped: { sku: string; reason: string }[]
+  terms: 'card' | 'account'
+  account: { creditLimitMinor: number; balanceMinor: number; availableMinor: number; fits: boolean } | null
+  shortages: { sku: string; available: number; wanted: number }[]
+}
+
+export interface StatementEntry {
+  id: number
+  at: string
+  kind: LedgerKind
+  kindLabel: string
+  reference: string
+  description: string
+  amountMinor: number
+  balanceMinor: number
+  orderId: number | null
+  garageReference: string
+}
+
+export interface Statement {
+  garage: { id: number; name: string; terms: 'card' | 'account'; creditLimitMinor: number; paymentDays: number }
+  currency: string
+  entries: StatementEntry[]
+  balanceMinor: number
+  availableMinor: number | null
+}

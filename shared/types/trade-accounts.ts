@@ -1,0 +1,99 @@
+/** What the trade-account routes answer (server serialisers and pages share these shapes). */
+import type { OrgStatus, PaymentTerms, Role, UserStatus } from './accounts'
+
+/** The one paginated list contract: `{ data, meta: { page, pageSize, total } }`. */
+export interface PageOf<T> {
+  data: T[]
+  meta: { page: number; pageSize: number; total: number }
+}
+
+export interface TierView {
+  id: number
+  name: string
+  percentBp: number
+  /** number of garages on the tier (admin list only) */
+  garages?: number
+}
+
+export interface ProofDocumentView {
+  id: number
+  originalName: string
+  mime: string
+  sizeBytes: number
+  uploadedAt: string
+}
+
+export interface GarageSummary {
+  id: number
+  name: string
+  status: OrgStatus
+  contactName: string
+  email: string
+  submittedAt: string
+  decidedAt: string | null
+  tier: TierView | null
+  terms: PaymentTerms
+  creditLimitMinor: number
+  paymentDays: number
+}
+
+export interface AuditView {
+  id: number
+  at: string
+  action: string
+  actor: string | null
+  changes: Record<string, unknown>
+}
+
+export interface PersonView {
+  id: number
+  name: string
+  email: string
+  phone: string
+  role: Role
+  status: UserStatus
+  lastSignInAt: string | null
+}
+
+export interface GarageDetail extends GarageSummary {
+  tradingAddress: string
+  taxNumber: string
+  phone: string
+  decisionReason: string | null
+  document: ProofDocumentView | null
+  people: PersonView[]
+  history: AuditView[]
+}
+
+/** `GET /api/account`: the signed-in person and their organisation's standing. */
+export interface AccountOverview {
+  profile: PersonView
+  organisation: {
+    id: number
+    name: string
+    kind: 'distributor' | 'garage'
+    status: OrgStatus
+    decisionReason: string | null
+    /** tier and terms: only for those who handle the garage's money (managers) and distributor staff */
+    tier: TierView | null
+    terms: PaymentTerms | null
+    creditLimitMinor: number | null
+    paymentDays: number | null
+  }
+}
+
+/** `GET /api/account/application`: what a pending or rejected garage may see. */
+export interface ApplicationStatusView {
+  businessName: string
+  status: OrgStatus
+  submittedAt: string
+  decidedAt: string | null
+  decisionReason: string | null
+  document: { originalName: string; sizeBytes: number } | null
+}
+
+export interface StaffList {
+  /** roles the caller may give when inviting or changing a role */
+  assignableRoles: Role[]
+  data: (PersonView & { manageable: boolean; isYou: boolean })[]
+}

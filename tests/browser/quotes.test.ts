@@ -1,0 +1,156 @@
+/**
+ * The quote journey in Chromium: the technician drafts a quote for a vehicle chosen in the finder steps and one
+ * of its inspections, and adds labour; the manager prices it and sends it; the owner opens the e-mailed link on
+ * a phone-sized screen, declines an advised line and approves the rest, watching the total change, and signs;
+ * the garage then sees the decision.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import type { Browser, Page } from 'playwright-core'
+import { foreignRequests, launch, newContext, shot, signInThroughForm } from '../support/browser'
+import { as, people, waitForMail } from '../support/api'
+import { VEHICLE_ID, ownerEmail, uid } from '../support/quotes'
+
+const registration = `BR${uid().slice(0, 2).toUpperCase()} QTE`
+const owner = ownerEmail()
+
+describe('a quote from the workshop to the owner\'s phone', () => {
+  let browser: Browser
+  let quoteUrl = ''
+  let link = ''
+
+  beforeAll(async () => {
+    browser = await launch()
+    // the inspection the technician recorded at the car (front discs under their minimum, fluid with water)
+    const tech = await as(people.technician)
+    const r = await tech.post('/api/inspections', {
+      vehicleId: VEHICLE_ID, registration, odometer: '61 250 mi',
+      wear: { discs: [{ position: 'front-left', thicknessReadingsMm: [22.4, 22.5], minThicknessMm: 23 }], fluid: { gradeInSystem: 'DOT 4', waterPercent: 2.5 } },
+    })
+    expect(r.status, r.text).toBe(201)
+  })
+  afterAll(async () => { await browser?.close() })
+
+  async function signedIn(email: string): Promise<{ page: Page; requests: string[] }> {
+    const { context, requests } = await newContext(browser, { viewport: { width: 1280, height: 900 } })
+    const page = await context.newPage()
+    await signInThroughForm(page, email)
+    return { page, requests }
+  }
+
+  it('the technician drafts from the vehicle and its inspection, then adds labour', async () => {
+    const { page, requests } = await signedIn(people.technician)
+    await page.goto('/quotes')
+    await page.getByRole('link', { name: 'New quote' }).click()
+    await page.waitForURL(/\/quotes\/new/)
+    await page.getByLabel('Make').selectOption('Veltra')
+    await page.getByLabel('Model').selectOption('Pennon')
+    await page.getByLabel('Year').selectOption('2016')
+    await page.getByRole('button', { name: /1\.4 petrol .*VE-P14T/ }).click()
+    await page.getByRole('radio', { name: new RegExp(registration) }).check()
+    expect(await page.locator('input[name=registration]').inputValue()).toBe(registration)
+    await page.getByLabel('Owner\'s name').fill('Morwen Teague')
+    await page.getByLabel('Owner\'s e-mail').fill(owner)
+    await page.getByLabel('Owner\'s phone').fill('07700 900 777')
+    await shot(page, 'quote-new')
+    await page.getByRole('button', { name: 'Start the quote' }).click()
+    await page.waitForURL(/\/quotes\/\d+$/)
+    quoteUrl = new URL(page.url()).pathname
+    const table = page.locator('table')
+    await table.waitFor()
+    expect(await table.getByText('Required for safety').count()).toBeGreaterThanOrEqual(2) // discs and pads
+    expect(await table.getByText('Advised').count()).toBeGreaterThanOrEqual(1) // the fluid
+    // technicians do not see the garage's trade prices (Millbrook's setting)
+    expect(await page.getByRole('columnheader', { name: 'Markup' }).count()).toBe(0)
+
+    await page.getByRole('radio', { name: 'Labour' }).click()
+    await page.getByLabel('Description').fill('Replace front discs and pads, change the fluid')
+    await page.getByLabel('Hours').fill('2.2')
+    await page.getByRole('button', { name: 'Add line' }).click()
+    await table.getByText('Replace front discs and pads, change the fluid').waitFor()
+    expect(await page.getByRole('button', { name: 'Send to owner' }).count()).toBe(0)
+    await shot(page, 'quote-technician')
+    expect(foreignRequests(requests)).toEqual([])
+  })
+
+  it('the manager prices it (markup visible) and sends it', async () => {
+    const { page } = await signedIn(people.manager)
+    await page.goto(quoteUrl)
+    await page.getByRole('columnheader', { name: 'Markup' }).waitFor()
+    const total = async () => page.locator('[data-total="gross"]').textContent()
+    const before = await total()
+    const pads = page.locator('tr[data-kind="part"]').filter({ hasText: 'pad' }).first()
+    await pads.getByRole('button', { name: /^Edit/ }).click()
+    await page.getByLabel('Markup %').fill('45')
+    await page.getByRole('button', { name: 'Save line' }).click()
+    await page.locator('tr[data-kind="part"]').filter({ hasText: '45 %' }).first().waitFor()
+    expect(await total()).not.toBe(before)
+    await page.getByLabel('Note to the owner (optional)').fill('We can start first thing tomorrow.')
+    await page.getByRole('button', { name: 'Send to owner' }).click()
+    await page.locator('[data-sent-note]').waitFor()
+    expect(await page.locator('[data-status]').first().getAttribute('data-status')).toBe('sent')
+    await shot(page, 'quote-manager-sent')
+    const mail = await waitForMail(owner, /Your quote from Millbrook Motor Works/)
+    link = /https?:\/\/\S+\/q\/[A-Za-z0-9_-]{43}/.exec(mail.text)![0]
+    expect(mail.attachments).toHaveLength(1)
+  })
+
+  it('the owner opens the e-mailed link on a phone, declines the advised line and approves the rest', async () => {
+    const { context, requests } = await newContext(browser, { viewport: { width: 390, height: 844 }, isMobile: true, hasTouch: true, deviceScaleFactor: 2 })
+    const page = await context.newPage()
+    await page.goto(new URL(link).pathname)
+    await page.getByRole('heading', { name: 'Hello Morwen Teague' }).waitFor()
+    // no app chrome: no Boreline navigation or sign-in on the owner's page
+    expect(await page.getByRole('navigation', { name: 'Main' }).count()).toBe(0)
+    expect(await page.getByText('Millbrook Motor Works').first().isVisible()).toBe(true)
+    await page.getByRole('heading', { name: 'What we found' }).waitFor()
+    // the page fits the phone's width
+    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390)
+    await shot(page, 'quote-owner-phone')
+
+    const lines = page.locator('[data-owner-line]')
+    const count = await lines.count()
+    expect(count).toBeGreaterThanOrEqual(4)
+    const live = async () => page.locator('[data-owner-live-total]').textContent()
+    // required lines start approved and cannot be declined here
+    const required = lines.filter({ hasText: 'Required for safety' }).first()
+    expect(await required.getByRole('radio', { name: 'Approve' }).getAttribute('aria-checked')).toBe('true')
+    expect(await required.getByRole('radio', { name: 'Decline' }).isDisabled()).toBe(true)
+    // the total follows the choices
+    const advised = lines.filter({ hasText: 'Advised' }).first()
+    await advised.getByRole('radio', { name: 'Approve' }).tap()
+    const withAdvised = await live()
+    await advised.getByRole('radio', { name: 'Decline' }).tap()
+    expect(await live()).not.toBe(withAdvised)
+    // everything else: approve
+    for (let i = 0; i < count; i++) {
+      const line = lines.nth(i)
+      if (await line.locator('[role="radio"][aria-checked="true"]').count() === 0) await line.getByRole('radio', { name: 'Approve' }).tap()
+    }
+    const approvedTotal = await live()
+    expect(approvedTotal).not.toBe(withAdvised)
+    await page.getByLabel('Type your full name to sign').fill('Morwen Teague')
+    await shot(page, 'quote-owner-chosen')
+    await page.getByRole('button', { name: 'Send my decision' }).tap()
+    await page.locator('[data-decided]').waitFor()
+    expect(await page.locator('[data-decided]').textContent()).toMatch(/Thank you, Morwen Teague/)
+    expect(await page.getByRole('button', { name: 'Send my decision' }).count()).toBe(0)
+    expect(await page.getByText('You declined this').count()).toBe(1)
+    await shot(page, 'quote-owner-decided')
+    // read-only after reloading too
+    await page.reload()
+    await page.locator('[data-decided]').waitFor()
+    expect(await page.getByRole('radio', { name: 'Approve' }).count()).toBe(0)
+    expect(foreignRequests(requests)).toEqual([])
+  })
+
+  it('the garage sees the decision', async () => {
+    const { page } = await signedIn(people.manager)
+    await page.goto(quoteUrl)
+    await page.locator('[data-status="partly_approved"]').first().waitFor()
+    expect(await page.getByText('Owner declined').count()).toBe(1)
+    expect(await page.getByText(/Approved by Morwen Teague/).count()).toBe(1)
+    await page.locator('[data-total="approved"]').waitFor()
+    await shot(page, 'quote-garage-decided')
+    await waitForMail(people.manager, /partly approved by the owner/)
+  })
+})

@@ -1,0 +1,164 @@
+/**
+ * Helpers for the trade-account tests: fresh garages (never the demo ones), sample documents, read-only
+ * looks into the e2e database and uploads folder, and requests from another loopback address.
+ *
+ * Failed sign-ins are throttled per client address. Every test talks to the server from 127.0.0.1, so a test
+ * that fails sign-ins on purpose must do it from an address of its own (`fromAddress`), or the other
+ * test files would be locked out for 15 minutes.
+ */
+import { execFileSync } from 'node:child_process'
+import { existsSync, readdirSync, statSync } from 'node:fs'
+import { request as httpRequest } from 'node:http'
+import { join } from 'node:path'
+import { Client, env, waitForMail, type Res } from './api'
+
+let counter = 0
+/** A name nobody else uses in this run. */
+export function unique(prefix: string): string {
+  counter++
+  return `${prefix}-${Date.now().toString(36)}-${counter}-${Math.random().toString(36).slice(2, 6)}`
+}
+
+export function uniqueEmail(prefix = 'garage'): string {
+  return `${unique(prefix)}@accounts-test.test`.toLowerCase()
+}
+
+// ------------------------------------------------------------------ sample documents
+
+/** A small but well-formed PDF (file-type recognises it by its `%PDF-` header). */
+export function pdfBytes(): Buffer {
+  return Buffer.from('%PDF-1.4\n1 0 obj\n<< /Type /Catalog >>\nendobj\ntrailer\n<< /Root 1 0 R >>\n%%EOF\n', 'latin1')
+}
+/** A 1 x 1 pixel PNG. */
+export function pngBytes(): Buffer {
+  return Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mNkYPhfDwAChwGA60e6kgAAAABJRU5ErkJggg==', 'base64')
+}
+/** The start of a JPEG/JFIF file, enough for type detection. */
+export function jpegBytes(): Buffer {
+  return Buffer.concat([Buffer.from([0xff, 0xd8, 0xff, 0xe0, 0x00, 0x10]), Buffer.from('JFIF\0', 'latin1'), Buffer.alloc(64, 0), Buffer.from([0xff, 0xd9])])
+}
+
+export interface ApplicationFields {
+  businessName: string
+  tradingAddress: string
+  taxNumber: string
+  contactName: string
+  phone: string
+  email: string
+  password: string
+}
+
+export function applicationFields(overrides: Partial<ApplicationFields> = {}): ApplicationFields {
+  const name = unique('Garage')
+  return {
+    businessName: `${name} Brake & Clutch`,
+    tradingAddress: '7 Example Row, Testborough TB1 2AA',
+    taxNumber: 'GB 123 4567 89',
+    contactName: 'Robin Tester',
+    phone: '0161 555 0199',
+    email: uniqueEmail('applicant'),
+    password: 'long-enough-password',
+    ...overrides,
+  }
+}
+
+export interface UploadFile { name: string; bytes: Buffer; type?: string }
+
+export function applicationForm(fields: Partial<ApplicationFields> | Record<string, string>, files: UploadFile[] = [{ name: 'registration.pdf', bytes: pdfBytes(), type: 'application/pdf' }]): FormData {
+  const form = new FormData()
+  for (const [k, v] of Object.entries(fields)) if (v !== undefined) form.append(k, v)
+  for (const f of files) form.append('proof', new Blob([new Uint8Array(f.bytes)], { type: f.type ?? 'application/octet-stream' }), f.name)
+  return form
+}
+
+/** POST /api/trade-applications as multipart (fetch sets the boundary). */
+export function postApplication(client: Client, form: FormData): Promise<Res> {
+  return client.request('/api/trade-applications', { method: 'POST', body: form })
+}
+
+/** A fresh application; returns its organisation id and the applicant's sign-in. */
+export async function applyAsNewGarage(overrides: Partial<ApplicationFields> = {}): Promise<{ id: number; fields: ApplicationFields }> {
+  const fields = applicationFields(overrides)
+  const res = await postApplication(new Client(), applicationForm(fields))
+  if (res.status !== 201) throw new Error(`application failed: ${res.status} ${res.text}`)
+  return { id: res.body.id, fields }
+}
+
+/** A fresh garage approved by the admin (card terms on the cheapest tier unless told otherwise). */
+export async function newApprovedGarage(admin: Client, decision: Record<string, unknown> = {}): Promise<{ id: number; fields: ApplicationFields; manager: Client }> {
+  const { id, fields } = await applyAsNewGarage()
+  const tierId = decision.tierId ?? (await admin.get('/api/admin/tiers')).body.data[0].id
+  const r = await admin.post(`/api/admin/trade-applications/${id}/decision`, { decision: 'approve', terms: 'card', tierId, ...decision })
+  if (r.status !== 200) throw new Error(`approval failed: ${r.status} ${r.text}`)
+  const manager = new Client()
+  await manager.signIn(fields.email, fields.password)
+  return { id, fields, manager }
+}
+
+/** The token in the last link of this kind that was e-mailed to `to`. */
+export async function linkToken(to: string, subject: RegExp, path: 'reset' | 'invite'): Promise<string> {
+  const mail = await waitForMail(to, subject)
+  const m = new RegExp(`/${path}/([A-Za-z0-9_-]+)`).exec(mail.text)
+  if (!m) throw new Error(`no /${path}/ link in the e-mail to ${to}:\n${mail.text}`)
+  return m[1]!
+}
+
+// ------------------------------------------------------------------ looking at what was stored
+
+/** Rows from the e2e database, opened read-only with the sqlite3 command-line tool. */
+export function dbRows<T = Record<string, unknown>>(sql: string): T[] {
+  const out = execFileSync('sqlite3', ['-readonly', '-json', env().dbPath, sql], { encoding: 'utf8' }).trim()
+  return out ? JSON.parse(out) as T[] : []
+}
+
+export function dbValue<T = unknown>(sql: string): T {
+  const row = dbRows(sql)[0]
+  return (row ? Object.values(row)[0] : undefined) as T
+}
+
+export function sqlText(s: string): string {
+  return `'${s.replace(/'/g, "''")}'`
+}
+
+/** Every file under a folder (relative paths), for "nothing was left behind" checks. */
+export function filesUnder(dir: string): string[] {
+  if (!existsSync(dir)) return []
+  const out: string[] = []
+  const walk = (d: string, rel: string) => {
+    for (const name of readdirSync(d)) {
+      const p = join(d, name)
+      if (statSync(p).isDirectory()) walk(p, join(rel, name))
+      else out.push(join(rel, name))
+    }
+  }
+  walk(dir, '')
+  return out.sort()
+}
+
+// ------------------------------------------------------------------ another client address
+
+/**
+ * A JSON request sent from a loopback address of the test's choosing (127.0.0.x all reach the server),
+ * with any headers, e.g. a forged `X-Forwarded-For`. The server sees `localAddress` as the client.
+ */
+export function fromAddress(localAddress: string, path: string, body: unknown, headers: Record<string, string> = {}): Promise<{ status: number; headers: Record<string, string | string[] | undefined>; body: any }> {
+  const url = new URL(path, env().baseUrl)
+  const payload = JSON.stringify(body)
+  return new Promise((resolve, reject) => {
+    const req = httpRequest({
+      host: url.hostname, port: url.port, path: url.pathname, method: 'POST', localAddress, agent: false,
+      headers: { 'content-type': 'application/json', 'content-length': Buffer.byteLength(payload), ...headers },
+    }, (res) => {
+      let text = ''
+      res.setEncoding('utf8')
+      res.on('data', (c) => { text += c })
+      res.on('end', () => {
+        let parsed: unknown = text
+        try { parsed = JSON.parse(text) } catch { /* not JSON */ }
+        resolve({ status: res.statusCode ?? 0, headers: res.headers, body: parsed })
+      })
+    })
+    req.on('error', reject)
+    req.end(payload)
+  })
+}
