@@ -5,6 +5,7 @@ import { defineVitestProject } from '@nuxt/test-utils/config'
 const r = (p: string) => fileURLToPath(new URL(p, import.meta.url))
 const alias = { '#shared': r('./shared'), '~~': r('./'), '~': r('./app'), '@': r('./app') }
 
+// Projects run in groups: unit + nuxt, then e2e, then browser (sequence.groupOrder).
 // One server for e2e and browser: tests/support/global-setup.ts builds the app once (if stale),
 // starts the fakes and `node .output/server/index.mjs` on a throw-away database, and shares the URL.
 export default defineConfig({
@@ -13,16 +14,17 @@ export default defineConfig({
     projects: [
       {
         resolve: { alias },
-        test: { name: 'unit', include: ['tests/unit/**/*.test.ts', 'fakes/**/*.test.ts'], environment: 'node', testTimeout: 30_000 },
+        test: { name: 'unit', include: ['tests/unit/**/*.test.ts', 'fakes/**/*.test.ts'], environment: 'node', testTimeout: 30_000, sequence: { groupOrder: 0 } },
       },
       await defineVitestProject({
-        test: { name: 'nuxt', include: ['tests/nuxt/**/*.test.ts'], environment: 'nuxt', testTimeout: 30_000 },
+        test: { name: 'nuxt', include: ['tests/nuxt/**/*.test.ts'], environment: 'nuxt', testTimeout: 30_000, sequence: { groupOrder: 0 } },
       }),
       {
         resolve: { alias },
         test: {
           name: 'e2e', include: ['tests/e2e/**/*.test.ts'], environment: 'node',
           globalSetup: ['tests/support/global-setup.ts'], fileParallelism: false, testTimeout: 60_000, hookTimeout: 600_000,
+          sequence: { groupOrder: 1 },
         },
       },
       {
@@ -30,6 +32,8 @@ export default defineConfig({
         test: {
           name: 'browser', include: ['tests/browser/**/*.test.ts'], environment: 'node',
           globalSetup: ['tests/support/global-setup.ts'], fileParallelism: false, testTimeout: 120_000, hookTimeout: 600_000,
+          // after e2e: browser journeys are timing-sensitive and 2 cores are shared
+          sequence: { groupOrder: 2 },
         },
       },
     ],

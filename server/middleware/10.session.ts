@@ -3,11 +3,10 @@
  * (2) resolves the caller from the sealed cookie *and* the server-side session record, loading role and
  * organisation status fresh from the database, into `event.context.auth` (null when signed out).
  */
-import { Organisation, User } from '../models/accounts'
-
 const UNSAFE = new Set(['POST', 'PUT', 'PATCH', 'DELETE'])
 // machine-to-machine routes that legitimately come from elsewhere
 const CROSS_SITE_ALLOWED = [/^\/api\/webhooks\//]
+let limits: SessionLimits | undefined
 
 export default defineEventHandler(async (event) => {
   const path = event.path.split('?')[0]!
@@ -27,23 +26,23 @@ export default defineEventHandler(async (event) => {
   const session = await getUserSession(event)
   if (!session.user || !session.sid) return
 
-  const config = useRuntimeConfig(event)
-  const limits = { idleMinutes: Number(config.sessionIdleMinutes), absoluteHours: Number(config.sessionAbsoluteHours) }
-  const user = await User.findByPk(session.user.id)
-  const org = user ? await Organisation.findByPk(user.organisationId) : null
-  const check = user && org && user.status === 'active'
-    ? await checkSessionRecord(session.sid, user, limits)
-    : { ok: false as const, reason: 'user gone' }
-  if (!check.ok || !user || !org) {
+  limits ??= (() => {
+    // read once: useRuntimeConfig(event) re-applies the environment on every call (measurable per request)
+    const config = useRuntimeConfig()
+    return { idleMinutes: Number(config.sessionIdleMinutes), absoluteHours: Number(config.sessionAbsoluteHours) }
+  })()
+  const check = await checkSessionRecord(session.sid, session.user.id, limits)
+  if (!check.ok) {
     await clearUserSession(event)
     return
   }
+  const { user, org } = check
   await touchSessionRecord(check.record)
   event.context.auth = { user, org, sessionId: session.sid }
   // keep the client's copy of role/name in step with the database (e.g. after a role change)
   const fresh = sessionUserOf(user, org)
   const u = session.user
   if (u.role !== fresh.role || u.name !== fresh.name || u.organisationId !== fresh.organisationId) {
-    await setUserSession(event, { user: fresh })
+    await setUserSession(event, { user: fresh, sid: session.sid })
   }
 })

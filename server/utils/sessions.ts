@@ -7,7 +7,7 @@ import { randomBytes } from 'node:crypto'
 import type { H3Event } from 'h3'
 import { getRequestIP, getRequestHeader } from 'h3'
 import { Op } from 'sequelize'
-import { SessionRecord, type Organisation, type User } from '../models/accounts'
+import { Organisation, SessionRecord, User } from '../models/accounts'
 import { withWrite } from './db'
 import type { SessionUser } from '../../shared/types/accounts'
 
@@ -33,17 +33,27 @@ export async function createSessionRecord(event: H3Event, user: User, limits: Se
   return id
 }
 
-export type SessionCheck = { ok: true; record: SessionRecord } | { ok: false; reason: string }
+export type SessionCheck =
+  | { ok: true; record: SessionRecord; user: User; org: Organisation }
+  | { ok: false; reason: string }
 
-/** Is the record behind this id still alive for this user? */
-export async function checkSessionRecord(sid: string, user: User, limits: SessionLimits, now = new Date()): Promise<SessionCheck> {
-  const record = await SessionRecord.findByPk(sid)
-  if (!record || record.userId !== user.id) return { ok: false, reason: 'unknown session' }
+/**
+ * Is the record behind this id still alive? One query loads the record with its user and organisation, so
+ * role and account status come fresh from the database on every request at the cost of a single lookup.
+ */
+export async function checkSessionRecord(sid: string, userId: number, limits: SessionLimits, now = new Date()): Promise<SessionCheck> {
+  const record = await SessionRecord.findByPk(sid, {
+    include: [{ model: User, as: 'user', required: true, include: [{ model: Organisation, as: 'organisation', required: true }] }],
+  })
+  const user = (record as (SessionRecord & { user?: User & { organisation?: Organisation } }) | null)?.user
+  const org = user?.organisation
+  if (!record || !user || !org || record.userId !== userId) return { ok: false, reason: 'unknown session' }
   if (record.revokedAt) return { ok: false, reason: 'signed out' }
   if (record.expiresAt.getTime() <= now.getTime()) return { ok: false, reason: 'session lifetime over' }
   if (record.lastSeenAt.getTime() + limits.idleMinutes * 60_000 <= now.getTime()) return { ok: false, reason: 'idle too long' }
+  if (user.status !== 'active') return { ok: false, reason: 'user not active' }
   if (record.sessionVersion !== user.sessionVersion) return { ok: false, reason: 'session ended' }
-  return { ok: true, record }
+  return { ok: true, record, user, org }
 }
 
 /** Keeps the idle clock running; written at most once a minute per session to spare the single writer. */

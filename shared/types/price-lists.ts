@@ -65,6 +65,8 @@ export interface PriceVersionSummary {
   activatedAt: string | null
   createdBy: string | null
   uploadId: number | null
+  /** the file that made this version was rolled back */
+  rolledBack: boolean
 }
 
 export interface PriceUploadSummary {

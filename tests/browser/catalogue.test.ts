@@ -4,7 +4,7 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Browser, BrowserContext, Page } from 'playwright-core'
-import { foreignRequests, launch, newContext, shot, signInThroughForm } from '../support/browser'
+import { foreignRequests, hydrated, launch, newContext, open, shot, signInThroughForm } from '../support/browser'
 import { people } from '../support/api'
 
 describe('catalogue in Chromium', () => {
@@ -25,7 +25,7 @@ describe('catalogue in Chromium', () => {
     .then((cells) => [...new Set(cells.map((c) => c.trim().split(' ')[0]))].sort())
 
   it('finds the parts for a vehicle from make to engine, asks the disc question and narrows the list', async () => {
-    await page.goto('/catalogue')
+    await open(page, '/catalogue')
     await page.getByRole('button', { name: /^Veltra/ }).click()
     await page.getByRole('button', { name: /^Pennon/ }).click()
     await page.getByRole('button', { name: /^2020/ }).click()
@@ -47,6 +47,7 @@ describe('catalogue in Chromium', () => {
   it('keeps the choice and the answer after a reload', async () => {
     const url = page.url()
     await page.reload()
+    await hydrated(page)
     await page.getByRole('heading', { name: 'Your answers' }).waitFor()
     expect(page.url()).toBe(url)
     await expect(page.locator('#vehicle-h').textContent()).resolves.toMatch(/Veltra Pennon Mk2.*1\.4 petrol/)
@@ -67,7 +68,7 @@ describe('catalogue in Chromium', () => {
     // one wrong character: the last digit off by one
     const slip = oe.replace(/(\d)(?!.*\d)/, (d) => String((Number(d) + 1) % 10))
     expect(slip).not.toBe(oe)
-    await page.goto('/catalogue/search')
+    await open(page, '/catalogue/search')
     await page.getByLabel('Search').fill(slip)
     const row = page.locator('tr[data-sku="KM-1002"]')
     await row.waitFor()

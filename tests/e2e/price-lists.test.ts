@@ -163,7 +163,7 @@ describe('bad input gets a clear message and changes nothing', () => {
     expect(r.body.data.fields.file).toMatch(/larger than 50 MB/)
     // looks like a workbook to file-type (content types + xl/ entries), but one entry inflates ~1000:1
     const bomb = buildZip([
-      { name: '[Content_Types].xml', data: Buffer.from('<?xml version="1.0"?><Types xmlns="http://schemas.openxmlformats.org/package/2006/content-types"/>') },
+      { name: '[Content_Types].xml', data: Buffer.from('<?xml version="1.0"?><Types xmlns="http://schemas.openxmlformats.org/package/2006/content-types"><Override PartName="/xl/workbook.xml" ContentType="application/vnd.openxmlformats-officedocument.spreadsheetml.sheet.main+xml"/></Types>') },
       { name: 'xl/workbook.xml', data: Buffer.from('<workbook/>') },
       { name: 'xl/worksheets/sheet1.xml', data: Buffer.alloc(30 * 1024 * 1024) },
     ])

@@ -38,6 +38,7 @@ export function foreignRequests(requests: string[]): string[] {
 
 export async function signInThroughForm(page: Page, email: string, password = 'brake-demo-2026'): Promise<void> {
   await page.goto('/sign-in')
+  await hydrated(page)
   await page.getByLabel('E-mail').fill(email)
   await page.getByLabel('Password').fill(password)
   await page.getByRole('button', { name: 'Sign in' }).click()
@@ -46,4 +47,21 @@ export async function signInThroughForm(page: Page, email: string, password = 'b
 
 export async function shot(page: Page, name: string): Promise<void> {
   if (process.env.BORELINE_SCREENSHOTS) await page.screenshot({ path: `${process.env.BORELINE_SCREENSHOTS}/${name}.png`, fullPage: true })
+}
+
+/**
+ * Waits until Nuxt has hydrated the page: a click on server-rendered markup before that does nothing,
+ * which makes journeys flaky on a busy machine.
+ */
+export async function hydrated(page: Page): Promise<void> {
+  await page.waitForFunction(() => {
+    const el = document.querySelector('#__nuxt') as (Element & { __vue_app__?: { $nuxt?: { isHydrating?: boolean } } }) | null
+    return !!el?.__vue_app__ && el.__vue_app__.$nuxt?.isHydrating === false
+  }, undefined, { timeout: 30_000 })
+}
+
+/** `page.goto` that returns once the page is hydrated. */
+export async function open(page: Page, url: string): Promise<void> {
+  await page.goto(url)
+  await hydrated(page)
 }

@@ -202,7 +202,12 @@ export async function runCheck(id: number): Promise<void> {
       source = csvRows(path, delimiter)
     }
     const batches = source.rows
-    const blank = (cells: string[]) => cells.every((c) => c.trim() === '')
+    // a blank row (an empty line gives ['']); most rows are told apart by their first cell alone
+    const blank = (cells: string[]) => {
+      const first = cells[0] ?? ''
+      if (first !== '' && first.trim() !== '') return false
+      return cells.every((c) => c.trim() === '')
+    }
 
     // the header: the first row that is not blank
     let pending: FileRow[] = []

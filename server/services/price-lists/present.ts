@@ -56,13 +56,14 @@ export async function uploadSummaries(rows: PriceUpload[]): Promise<PriceUploadS
 export async function versionSummaries(limit = 50): Promise<PriceVersionSummary[]> {
   const lists = await PriceList.findAll({ order: [['version', 'DESC']], limit })
   const names = await namesOf(lists.map((l) => l.createdByUserId))
-  const uploads = await PriceUpload.findAll({ where: { priceListId: { [Op.in]: lists.map((l) => l.id) } }, attributes: ['id', 'priceListId'] })
-  const uploadOf = new Map(uploads.map((u) => [u.priceListId!, u.id]))
+  const uploads = await PriceUpload.findAll({ where: { priceListId: { [Op.in]: lists.map((l) => l.id) } }, attributes: ['id', 'priceListId', 'status'] })
+  const uploadOf = new Map(uploads.map((u) => [u.priceListId!, u]))
   return lists.map((l) => ({
     id: l.id, version: l.version, label: l.label, status: l.status,
     effectiveAt: iso(l.effectiveAt), activatedAt: iso(l.activatedAt),
     createdBy: l.createdByUserId ? names.get(l.createdByUserId) ?? null : null,
-    uploadId: uploadOf.get(l.id) ?? null,
+    uploadId: uploadOf.get(l.id)?.id ?? null,
+    rolledBack: uploadOf.get(l.id)?.status === 'rolled_back',
   }))
 }
 

@@ -1,0 +1,42 @@
+import { describe, expect, it } from 'vitest'
+import { mountSuspended } from '@nuxt/test-utils/runtime'
+import SafetyCaution from '~/components/ui/SafetyCaution.vue'
+import VerdictBadge from '~/components/inspections/VerdictBadge.vue'
+import ShareBar from '~/components/calculations/ShareBar.vue'
+
+describe('SafetyCaution', () => {
+  it('always states that brakes are safety-critical and defers to the maker and qualified practice', async () => {
+    const w = await mountSuspended(SafetyCaution)
+    expect(w.get('[role="note"]').attributes('aria-label')).toBe('Safety caution')
+    expect(w.text()).toContain('Brakes are safety-critical.')
+    expect(w.text()).toContain("vehicle maker's data")
+    expect(w.text()).toContain('qualified practice')
+  })
+  it('adds the theoretical-figures caveat on hydraulics pages', async () => {
+    const w = await mountSuspended(SafetyCaution, { props: { topic: 'hydraulics' } })
+    expect(w.text()).toMatch(/theoretical/i)
+    expect(w.text()).toMatch(/push-out pressure/)
+  })
+})
+
+describe('VerdictBadge', () => {
+  it.each([['ok', 'OK'], ['advise', 'Advise'], ['fail', 'Fail']] as const)('shows %s in words, not colour alone', async (verdict, text) => {
+    const w = await mountSuspended(VerdictBadge, { props: { verdict } })
+    expect(w.text()).toBe(text)
+    expect(w.get('span').attributes('data-verdict')).toBe(verdict)
+  })
+})
+
+describe('ShareBar', () => {
+  it('draws original and replacement front shares and says them for screen readers', async () => {
+    const w = await mountSuspended(ShareBar, { props: { original: 68.4, replacement: 64.9 } })
+    const bars = w.findAll('[role="img"]')
+    expect(bars).toHaveLength(2)
+    expect(bars[0]!.attributes('aria-label')).toMatch(/Original: front 68[.,]4 percent, rear 31[.,]6 percent/)
+    expect(bars[1]!.attributes('aria-label')).toMatch(/Replacement: front 64[.,]9 percent/)
+  })
+  it('shows only the original when there is no replacement', async () => {
+    const w = await mountSuspended(ShareBar, { props: { original: 70, replacement: null } })
+    expect(w.findAll('[role="img"]')).toHaveLength(1)
+  })
+})
