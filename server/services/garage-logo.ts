@@ -7,11 +7,11 @@
  * file, entity declarations, style imports. What passes is still served only with a CSP that forbids script
  * and with nosniff (see the logo routes).
  */
-import { randomBytes } from 'node:crypto'
 import { createReadStream } from 'node:fs'
-import { copyFile, mkdir, readFile, rename, rm, stat, unlink } from 'node:fs/promises'
+import { mkdir, readFile, rm, stat } from 'node:fs/promises'
 import { tmpdir } from 'node:os'
-import { join, resolve, sep } from 'node:path'
+import { join } from 'node:path'
+import { moveIntoStore, newStoredName, storeDir, storedPath, type FileStore } from './stored-files'
 import type { IncomingMessage } from 'node:http'
 import formidable, { errors as formidableErrors, multipart, type File } from 'formidable'
 import { fileTypeFromFile } from 'file-type'
@@ -102,33 +102,23 @@ export async function checkLogoFile(file: File | null): Promise<{ mime: string; 
   return { mime: 'image/svg+xml', ext: 'svg', size }
 }
 
+const LOGOS: FileStore = { folder: 'logos', extensions: ['png', 'jpg', 'svg'] }
+
 export function logosDir(uploadsDir: string): string {
-  return resolve(uploadsDir, 'logos')
+  return storeDir(uploadsDir, LOGOS)
 }
 
 /** The stored logo's path, refusing anything that is not one of our own names. */
 export function logoPath(uploadsDir: string, storedName: string): string {
-  if (!/^[a-f0-9]{32}\.(png|jpg|svg)$/.test(storedName)) throw new Error('not a stored logo name')
-  const dir = logosDir(uploadsDir)
-  const p = resolve(dir, storedName)
-  if (!p.startsWith(dir + sep)) throw new Error('outside the logos folder')
-  return p
+  return storedPath(uploadsDir, LOGOS, storedName)
 }
 
 export function newLogoName(ext: string): string {
-  return `${randomBytes(16).toString('hex')}.${ext}`
+  return newStoredName(ext)
 }
 
 export async function storeLogo(tempPath: string, uploadsDir: string, storedName: string): Promise<void> {
-  await mkdir(logosDir(uploadsDir), { recursive: true })
-  const target = logoPath(uploadsDir, storedName)
-  try {
-    await rename(tempPath, target)
-  } catch (err) {
-    if ((err as NodeJS.ErrnoException).code !== 'EXDEV') throw err
-    await copyFile(tempPath, target)
-    await unlink(tempPath)
-  }
+  await moveIntoStore(tempPath, uploadsDir, LOGOS, storedName)
 }
 
 export async function removeLogo(uploadsDir: string, storedName: string | null | undefined): Promise<void> {
