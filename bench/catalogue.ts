@@ -7,7 +7,8 @@
  * - starts the built server (`--output`, default $BORELINE_BUILD_DIR/.output or ./.output) on that database with
  *   BORELINE_BENCH=1 and measures start-up (until /api/health answers, and until the search index is built) and RSS;
  * - GET /api/vehicles/:id/parts under --connections connections with autocannon over 200 vehicles, cached and with
- *   the caches off (BORELINE_CATALOGUE_CACHE=0, a second server), beside the constant JSON route of the same size;
+ *   the caches off (BORELINE_CATALOGUE_CACHE=0 and BORELINE_SESSION_CACHE=0, a second server), beside the constant JSON
+ *   route of the same size, with and without a session;
  * - search latency over a fixed mix of 1,000 queries (SKUs, OE numbers, typos, superseded SKUs, two words, type +
  *   size): in-process (plan + index), end to end over HTTP, and SQLite FTS5 on the same rows; with the share of
  *   queries whose expected part is in the first 20 results.
@@ -17,6 +18,7 @@ import { spawn, spawnSync, type ChildProcess } from 'node:child_process'
 import { existsSync, mkdirSync, readFileSync } from 'node:fs'
 import { createServer } from 'node:net'
 import { dirname, join, resolve } from 'node:path'
+import { serverEnv, serverNodeArgs } from '../scripts/server-process.mjs'
 // @ts-expect-error autocannon ships without type declarations
 import autocannon from 'autocannon'
 import sqlite3 from 'sqlite3'
@@ -66,9 +68,9 @@ async function startServer(extraEnv: Record<string, string> = {}): Promise<Serve
   const port = await freePort()
   const url = `http://127.0.0.1:${port}`
   const t0 = performance.now()
-  const proc = spawn(process.execPath, [join(output, 'server/index.mjs')], {
+  const proc = spawn(process.execPath, [...serverNodeArgs(), join(output, 'server/index.mjs')], {
     cwd: root, stdio: ['ignore', 'ignore', 'inherit'],
-    env: { ...process.env, NODE_ENV: 'production', HOST: '127.0.0.1', PORT: String(port), DATABASE_URL: `sqlite:${dbPath}`, NUXT_SESSION_PASSWORD: 'bench-session-password-0123456789-abcdefgh', NUXT_PUBLIC_ORIGIN: url, BORELINE_BENCH: '1', ...extraEnv },
+    env: { ...serverEnv(), NODE_ENV: 'production', HOST: '127.0.0.1', PORT: String(port), DATABASE_URL: `sqlite:${dbPath}`, NUXT_SESSION_PASSWORD: 'bench-session-password-0123456789-abcdefgh', NUXT_PUBLIC_ORIGIN: url, BORELINE_BENCH: '1', ...extraEnv },
   })
   for (;;) {
     if (proc.exitCode !== null) throw new Error(`server exited with ${proc.exitCode}`)
@@ -227,7 +229,7 @@ async function main() {
   db.close()
 
   // ---- uncached vehicle parts (second server, caches off)
-  const uncachedServer = await startServer({ BORELINE_CATALOGUE_CACHE: '0', BORELINE_SEARCH_INDEX_AT_START: '0' })
+  const uncachedServer = await startServer({ BORELINE_CATALOGUE_CACHE: '0', BORELINE_SESSION_CACHE: '0', BORELINE_SEARCH_INDEX_AT_START: '0' })
   const cookie2 = await signIn(uncachedServer.url)
   const uncached = load(await cannon(uncachedServer.url, paths, cookie2))
   await uncachedServer.stop()
@@ -248,7 +250,7 @@ async function main() {
 | vehicle parts API | req/s | p50 | p99 | non-2xx/errors |
 |---|---|---|---|---|
 ${row('GET /api/vehicles/:id/parts, cached', cached)}
-${row('GET /api/vehicles/:id/parts, caches off', uncached)}
+${row('GET /api/vehicles/:id/parts, caches off (catalogue and session)', uncached)}
 ${row(`constant JSON, ${size} B, no session`, constant)}
 ${row(`constant JSON, ${size} B, signed in (session checks)`, constantSession)}
 

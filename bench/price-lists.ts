@@ -22,6 +22,7 @@ import { createServer } from 'node:net'
 import { cpus, tmpdir } from 'node:os'
 import { join, resolve } from 'node:path'
 import { performance } from 'node:perf_hooks'
+import { serverNodeArgs } from '../scripts/server-process.mjs'
 
 const root = resolve(import.meta.dirname, '..')
 const outDir = process.env.BORELINE_BUILD_DIR ? join(resolve(process.env.BORELINE_BUILD_DIR), '.output') : join(root, '.output')
@@ -139,7 +140,7 @@ async function main() {
     BORELINE_SEARCH_INDEX_AT_START: '0',
   }
   const nodeArgs = (process.env.BENCH_SERVER_ARGS ?? '').split(' ').filter(Boolean) // e.g. --cpu-prof
-  const server = spawn(process.execPath, [...nodeArgs, join(outDir, 'server/index.mjs')], { cwd: root, env, stdio: ['ignore', 'pipe', 'pipe'] })
+  const server = spawn(process.execPath, [...serverNodeArgs(), ...nodeArgs, join(outDir, 'server/index.mjs')], { cwd: root, env, stdio: ['ignore', 'pipe', 'pipe'] })
   let log = ''
   server.stdout!.on('data', (d) => { log = (log + d).slice(-20_000) })
   server.stderr!.on('data', (d) => { log = (log + d).slice(-20_000) })

@@ -6,6 +6,7 @@ import { spawn, spawnSync, type ChildProcess } from 'node:child_process'
 import { randomBytes } from 'node:crypto'
 import { existsSync, mkdirSync, readdirSync, readFileSync, statSync, writeFileSync } from 'node:fs'
 import { join, resolve } from 'node:path'
+import { serverEnv, serverNodeArgs } from './server-process.mjs'
 
 const root = resolve(import.meta.dirname, '..')
 const port = process.env.PORT ?? '3000'
@@ -40,9 +41,9 @@ process.on('SIGINT', () => { stopAll(); process.exit(0) })
 process.on('SIGTERM', () => { stopAll(); process.exit(0) })
 
 children.push(spawn('npx', ['tsx', 'fakes/start.ts'], { cwd: root, stdio: 'inherit', env: process.env }))
-const server = spawn(process.execPath, ['.output/server/index.mjs'], {
+const server = spawn(process.execPath, [...serverNodeArgs(), '.output/server/index.mjs'], {
   cwd: root, stdio: 'inherit',
-  env: { ...process.env, NODE_ENV: 'production', UV_THREADPOOL_SIZE: '16', PORT: port, NUXT_PUBLIC_ORIGIN: process.env.NUXT_PUBLIC_ORIGIN ?? `http://localhost:${port}` },
+  env: serverEnv({ ...process.env, NODE_ENV: 'production', PORT: port, NUXT_PUBLIC_ORIGIN: process.env.NUXT_PUBLIC_ORIGIN ?? `http://localhost:${port}` }),
 })
 children.push(server)
 server.on('exit', (code) => { stopAll(); process.exit(code ?? 0) })

@@ -1,4 +1,5 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize, type Transaction } from 'sequelize'
+import { authDataChanged } from '../utils/session-cache'
 import type { OrgKind, OrgStatus, PaymentTerms, Role, UserStatus } from '../../shared/types/accounts'
 
 export class Branch extends Model<InferAttributes<Branch>, InferCreationAttributes<Branch>> {
@@ -116,4 +117,18 @@ export function initAccountModels(sequelize: Sequelize): void {
   Organisation.hasMany(User, { as: 'users', foreignKey: 'organisationId' })
   User.belongsTo(Organisation, { as: 'organisation', foreignKey: 'organisationId' })
   SessionRecord.belongsTo(User, { as: 'user', foreignKey: 'userId' })
+
+  // the session check caches these rows (server/utils/session-cache.ts): any change drops the cache at once and
+  // again at commit, so a reader that started in between cannot keep the old rows
+  const dropSessionMemory = (...args: unknown[]) => {
+    authDataChanged()
+    const options = args.find((a): a is { transaction?: Transaction | null } => typeof a === 'object' && a !== null && 'transaction' in a)
+    options?.transaction?.afterCommit(() => authDataChanged())
+  }
+  for (const model of [Organisation, User, SessionRecord]) {
+    const addHook = model.addHook as unknown as (hook: string, name: string, fn: (...args: unknown[]) => void) => void
+    for (const hook of ['afterSave', 'afterDestroy', 'afterUpsert', 'afterBulkCreate', 'afterBulkUpdate', 'afterBulkDestroy']) {
+      addHook.call(model, hook, 'session-cache', dropSessionMemory)
+    }
+  }
 }

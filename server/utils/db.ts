@@ -74,9 +74,19 @@ const currentTx = new AsyncLocalStorage<Transaction>()
 export async function withWrite<T>(fn: (t: Transaction) => Promise<T>): Promise<T> {
   const outer = currentTx.getStore()
   if (outer) return fn(outer)
-  return writeMutex.runExclusive(() =>
-    getDb().transaction({ type: Transaction.TYPES.IMMEDIATE }, (t) => currentTx.run(t, () => fn(t))),
-  )
+  return writeMutex.runExclusive(async () => {
+    try {
+      return await getDb().transaction({ type: Transaction.TYPES.IMMEDIATE }, (t) => currentTx.run(t, () => fn(t)))
+    } finally {
+      for (const listener of afterWriteListeners) listener()
+    }
+  })
+}
+
+const afterWriteListeners = new Set<() => void>()
+/** Called after every write transaction ends (committed or rolled back), before the next one starts. */
+export function afterEveryWrite(listener: () => void): void {
+  afterWriteListeners.add(listener)
 }
 
 /** How many write transactions are queued or running (for diagnostics and the benchmarks). */

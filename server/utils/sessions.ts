@@ -6,9 +6,10 @@
 import { randomBytes } from 'node:crypto'
 import type { H3Event } from 'h3'
 import { getRequestIP, getRequestHeader } from 'h3'
-import { Op } from 'sequelize'
+import { Op, type Model } from 'sequelize'
 import { Organisation, SessionRecord, User } from '../models/accounts'
 import { withWrite } from './db'
+import { cachedSessionRows, rememberSessionRows, rowsGeneration, type SessionRows } from './session-cache'
 import type { SessionUser } from '../../shared/types/accounts'
 
 export interface SessionLimits { idleMinutes: number; absoluteHours: number }
@@ -39,21 +40,41 @@ export type SessionCheck =
 
 /**
  * Is the record behind this id still alive? One query loads the record with its user and organisation, so
- * role and account status come fresh from the database on every request at the cost of a single lookup.
+ * role and account status come from the database; the rows are kept in memory (server/utils/session-cache.ts)
+ * until anything in those tables changes, and `fresh: true` (every state-changing request) reads them anyway.
  */
-export async function checkSessionRecord(sid: string, userId: number, limits: SessionLimits, now = new Date()): Promise<SessionCheck> {
-  const record = await SessionRecord.findByPk(sid, {
-    include: [{ model: User, as: 'user', required: true, include: [{ model: Organisation, as: 'organisation', required: true }] }],
-  })
-  const user = (record as (SessionRecord & { user?: User & { organisation?: Organisation } }) | null)?.user
-  const org = user?.organisation
-  if (!record || !user || !org || record.userId !== userId) return { ok: false, reason: 'unknown session' }
+export async function checkSessionRecord(sid: string, userId: number, limits: SessionLimits, now = new Date(), options: { fresh?: boolean } = {}): Promise<SessionCheck> {
+  const loaded = await sessionRows(sid, options.fresh === true)
+  if (!loaded) return { ok: false, reason: 'unknown session' }
+  const { record, user, org } = loaded
+  if (record.userId !== userId) return { ok: false, reason: 'unknown session' }
   if (record.revokedAt) return { ok: false, reason: 'signed out' }
   if (record.expiresAt.getTime() <= now.getTime()) return { ok: false, reason: 'session lifetime over' }
   if (record.lastSeenAt.getTime() + limits.idleMinutes * 60_000 <= now.getTime()) return { ok: false, reason: 'idle too long' }
   if (user.status !== 'active') return { ok: false, reason: 'user not active' }
   if (record.sessionVersion !== user.sessionVersion) return { ok: false, reason: 'session ended' }
   return { ok: true, record, user, org }
+}
+
+/**
+ * The three rows, from the cache when it holds them, else from one joined query. They are read-only snapshots
+ * shared by every request of the session (their values are frozen, so a change attempted through them throws
+ * instead of quietly altering what later requests see): to change a user or an organisation, load its row.
+ */
+async function sessionRows(sid: string, fresh: boolean): Promise<SessionRows | null> {
+  const cached = fresh ? undefined : cachedSessionRows(sid)
+  if (cached) return cached
+  const readAt = rowsGeneration()
+  const found = await SessionRecord.findByPk(sid, {
+    include: [{ model: User, as: 'user', required: true, include: [{ model: Organisation, as: 'organisation', required: true }] }],
+  })
+  const user = (found as (SessionRecord & { user?: User & { organisation?: Organisation } }) | null)?.user
+  const org = user?.organisation
+  if (!found || !user || !org) return null
+  for (const row of [found, user, org] as Model[]) Object.freeze(row.dataValues)
+  const rows = { record: found, user, org }
+  rememberSessionRows(sid, rows, readAt)
+  return rows
 }
 
 /** Keeps the idle clock running; written at most once a minute per session to spare the single writer. */

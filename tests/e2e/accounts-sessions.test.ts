@@ -64,10 +64,20 @@ describe('sessions', () => {
 
   it('refuses a suspended garage\'s manager on the next request (403), without a new sign-in', async () => {
     const { id, manager } = await newApprovedGarage(admin)
+    // twice: the second answer comes from the session check's memory, which the suspension must drop
+    expect((await manager.get('/api/staff')).status).toBe(200)
     expect((await manager.get('/api/staff')).status).toBe(200)
     expect((await admin.post(`/api/admin/accounts/${id}/suspend`, { reason: 'Paused while we check the account.' })).status).toBe(200)
     expect((await manager.get('/api/staff')).status).toBe(403)
     expect((await manager.post('/api/staff', { email: uniqueEmail('x'), name: 'Nobody New', role: 'garage_technician' })).status).toBe(403)
+  })
+})
+
+describe('visitors', () => {
+  it('are not handed a session cookie by merely asking (nothing minted, sealed or stored for them)', async () => {
+    const r = await new Client().get('/api/vehicles/facets')
+    expect(r.status).toBe(401)
+    expect(r.headers.getSetCookie()).toEqual([])
   })
 })
 

@@ -11,6 +11,7 @@ import { createServer } from 'node:net'
 import { tmpdir } from 'node:os'
 import { join, resolve } from 'node:path'
 import type { TestProject } from 'vitest/node'
+import { serverNodeArgs } from '../../scripts/server-process.mjs'
 
 const root = resolve(import.meta.dirname, '../..')
 // BORELINE_BUILD_DIR lets several work trees (or engineers) build and test side by side
@@ -118,7 +119,7 @@ async function start(): Promise<Shared> {
   if (seed.status !== 0) throw new Error(`seeding failed:\n${seed.stdout}\n${seed.stderr}`)
 
   let out = ''
-  const server = spawn(process.execPath, [join(outDir, 'server/index.mjs')], { cwd: root, env, stdio: ['ignore', 'pipe', 'pipe'] })
+  const server = spawn(process.execPath, [...serverNodeArgs(), join(outDir, 'server/index.mjs')], { cwd: root, env, stdio: ['ignore', 'pipe', 'pipe'] })
   server.stdout!.on('data', (d) => { out = (out + d).slice(-20_000) })
   server.stderr!.on('data', (d) => { out = (out + d).slice(-20_000) })
   await waitForHealth(baseUrl, server, () => out)

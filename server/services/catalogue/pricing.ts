@@ -5,7 +5,7 @@
  * fields at all (absent, not zero). Plain Node.
  */
 import { QueryTypes } from 'sequelize'
-import { getDb } from '../../utils/db'
+import { afterEveryWrite, getDb } from '../../utils/db'
 import { can } from '../../../shared/utils/abilities'
 import { netPriceMinor } from '../../../shared/utils/money'
 import type { Organisation, User } from '../../models/accounts'
@@ -21,25 +21,44 @@ export interface CatalogueRevision { catalogue: number; stock: number }
 
 export interface PricingContext { view: PriceView; priceList: ActivePriceList | null; revision: CatalogueRevision }
 
+interface ContextRow { plId: number | null; plVersion: number | null; bp: number | null; rev: number | null; stockRev: number | null }
+
 /**
- * One round trip per request: the active price list, the caller's tier discount and the catalogue revisions
- * (bumped by triggers on every catalogue or stock change, see migration 0004).
+ * The active price list, the caller's tier discount and the catalogue revisions (bumped by triggers on every
+ * catalogue or stock change, see migration 0004): one round trip, remembered per tier for {@link CONTEXT_TTL_MS}
+ * and forgotten at once after any write transaction in this process, so an apply, a rollback or a tier change
+ * counts from the next request; a change made by another process shows within that second.
  */
-export async function pricingContext(user: Pick<User, 'role'>, org: Pick<Organisation, 'kind' | 'tierId' | 'techniciansSeePrices'>): Promise<PricingContext> {
-  const [row] = await getDb().query<{ plId: number | null; plVersion: number | null; bp: number | null; rev: number | null; stockRev: number | null }>(
-    `SELECT (SELECT id FROM price_lists WHERE status = 'active' ORDER BY version DESC LIMIT 1) AS plId,
-            (SELECT version FROM price_lists WHERE status = 'active' ORDER BY version DESC LIMIT 1) AS plVersion,
-            (SELECT percent_bp FROM discount_tiers WHERE id = :tier) AS bp,
-            (SELECT catalogue FROM catalogue_revisions WHERE id = 1) AS rev,
-            (SELECT stock FROM catalogue_revisions WHERE id = 1) AS stockRev`,
-    { type: QueryTypes.SELECT, replacements: { tier: org.tierId ?? -1 } },
-  )
+export async function pricingContext(user: Pick<User, 'role'>, org: Pick<Organisation, 'kind' | 'tierId' | 'techniciansSeePrices'>, now = Date.now()): Promise<PricingContext> {
+  const tier = org.tierId ?? -1
+  const hit = contextCacheOn() ? contextRows.get(tier) : undefined
+  let row: ContextRow | undefined
+  if (hit && now - hit.at < CONTEXT_TTL_MS) row = hit.row
+  else {
+    const readAt = writes
+    ;[row] = await getDb().query<ContextRow>(
+      `SELECT (SELECT id FROM price_lists WHERE status = 'active' ORDER BY version DESC LIMIT 1) AS plId,
+              (SELECT version FROM price_lists WHERE status = 'active' ORDER BY version DESC LIMIT 1) AS plVersion,
+              (SELECT percent_bp FROM discount_tiers WHERE id = :tier) AS bp,
+              (SELECT catalogue FROM catalogue_revisions WHERE id = 1) AS rev,
+              (SELECT stock FROM catalogue_revisions WHERE id = 1) AS stockRev`,
+      { type: QueryTypes.SELECT, replacements: { tier } },
+    )
+    if (row && readAt === writes && contextCacheOn()) contextRows.set(tier, { at: now, row })
+  }
   const priceList = row?.plId ? { id: Number(row.plId), version: Number(row.plVersion) } : null
   return {
     priceList, view: priceViewOf(user, org, Number(row?.bp ?? 0)),
     revision: { catalogue: Number(row?.rev ?? 0), stock: Number(row?.stockRev ?? 0) },
   }
 }
+
+export const CONTEXT_TTL_MS = 1_000
+const contextRows = new Map<number, { at: number; row: ContextRow }>()
+let writes = 0
+afterEveryWrite(() => { writes++; contextRows.clear() })
+let cacheFlag: boolean | undefined
+const contextCacheOn = () => (cacheFlag ??= process.env.BORELINE_CATALOGUE_CACHE !== '0')
 
 /** The revisions inside a transaction (before and after a change). */
 export async function readRevision(transaction?: import('sequelize').Transaction): Promise<CatalogueRevision> {

@@ -9,20 +9,20 @@
 import { answersFromQuery, VehicleIdParamsSchema } from '#shared/schemas/parts'
 import { catalogueHttpError } from '../../../services/catalogue/http'
 import { catalogueContext } from '../../../services/catalogue/context'
-import { vehiclePartsJson } from '../../../services/catalogue/vehicle-parts'
+import { vehiclePartsBody } from '../../../services/catalogue/vehicle-parts'
 
 export default defineEventHandler(async (event) => {
   const { user, org } = requireAbility(event, 'catalogue.view')
   const { id } = paramsWith(event, VehicleIdParamsSchema)
   const answers = answersFromQuery(getQuery(event))
   const pricing = await catalogueContext(user, org)
-  let json: string | null
+  let body: Buffer | null
   try {
-    json = await vehiclePartsJson(id, answers, pricing)
+    body = await vehiclePartsBody(id, answers, pricing)
   } catch (err) {
     throw catalogueHttpError(err)
   }
-  if (json === null) throw notFound(`Vehicle ${id}`)
+  if (body === null) throw notFound(`Vehicle ${id}`)
   setResponseHeader(event, 'content-type', 'application/json; charset=utf-8')
-  return json
+  return body
 })

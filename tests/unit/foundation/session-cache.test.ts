@@ -1,0 +1,100 @@
+// The per-request session check keeps what it read in memory (server/utils/session-cache.ts). These checks pin
+// down when that memory must be forgotten: a revocation, a role or status change, any committed write. The rules
+// themselves (sign-out ends a session at once, a suspended account stops on its next request) are the
+// trade-accounts issue's; the seal format is iron's (Fe26.2, as sealed by h3), `common practice` for h3 sessions.
+import { mkdtempSync, rmSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+
+const dir = mkdtempSync(join(tmpdir(), 'boreline-session-cache-'))
+process.env.DATABASE_URL = `sqlite:${join(dir, 'unit.sqlite')}`
+
+const { getDb, closeDb, withWrite } = await import('../../../server/utils/db')
+const { migrateUp } = await import('../../../server/utils/migrate')
+const { initModels, Organisation, User, SessionRecord } = await import('../../../server/models/index')
+const { checkSessionRecord, revokeSessionRecord } = await import('../../../server/utils/sessions')
+const cache = await import('../../../server/utils/session-cache')
+
+const limits = { idleMinutes: 60, absoluteHours: 12 }
+let userId = 0, orgId = 0
+
+async function newSession(id: string) {
+  const now = new Date()
+  await withWrite((t) => SessionRecord.create({ id, userId, sessionVersion: 1, ip: '', userAgent: '', lastSeenAt: now, expiresAt: new Date(now.getTime() + 3600_000) }, { transaction: t }))
+}
+/** A change made behind the process's back (as another process would): no model hook, no write transaction here. */
+async function behindTheBack(sql: string) {
+  const sqlite3 = (await import('sqlite3')).default
+  const db = new sqlite3.Database(join(dir, 'unit.sqlite'))
+  await new Promise<void>((res, rej) => db.run(sql, (e) => (e ? rej(e) : res())))
+  await new Promise<void>((res) => db.close(() => res()))
+}
+
+describe('session check memory', () => {
+  beforeAll(async () => {
+    await migrateUp(getDb())
+    initModels()
+    const org = await Organisation.create({ kind: 'garage', name: 'Test Garage', status: 'approved' })
+    const user = await User.create({ organisationId: org.id, email: 'a@test.test', name: 'A', role: 'garage_manager', passwordHash: 'x', status: 'active', sessionVersion: 1 })
+    orgId = org.id; userId = user.id
+  })
+  afterAll(async () => { await closeDb(); rmSync(dir, { recursive: true, force: true }) })
+
+  it('answers a repeated check from memory until something changes, and never hands out writable rows', async () => {
+    await newSession('s-memory')
+    const first = await checkSessionRecord('s-memory', userId, limits)
+    expect(first.ok).toBe(true)
+    await behindTheBack(`UPDATE users SET role = 'garage_technician' WHERE id = ${userId}`)
+    const second = await checkSessionRecord('s-memory', userId, limits)
+    // within ROWS_TTL_MS another process's change is not seen yet (the documented bound)...
+    expect(second.ok && second.user.role).toBe('garage_manager')
+    // ...but a state-changing request reads afresh
+    const fresh = await checkSessionRecord('s-memory', userId, limits, new Date(), { fresh: true })
+    expect(fresh.ok && fresh.user.role).toBe('garage_technician')
+    if (!second.ok) throw new Error('expected ok')
+    expect(() => { (second.org as { name: string }).name = 'changed' }).toThrow(TypeError)
+  })
+
+  it('forgets at once after a revocation, a model update or any committed write', async () => {
+    await newSession('s-forget')
+    expect((await checkSessionRecord('s-forget', userId, limits)).ok).toBe(true)
+    await revokeSessionRecord('s-forget')
+    expect(await checkSessionRecord('s-forget', userId, limits)).toEqual({ ok: false, reason: 'signed out' })
+
+    await newSession('s-suspend')
+    expect((await checkSessionRecord('s-suspend', userId, limits)).ok).toBe(true)
+    await Organisation.update({ status: 'suspended' }, { where: { id: orgId } }) // a model update outside withWrite
+    const suspended = await checkSessionRecord('s-suspend', userId, limits)
+    expect(suspended.ok && suspended.org.status).toBe('suspended')
+
+    const gen = cache.sessionCacheStats().generation
+    await withWrite((t) => getDb().query(`UPDATE users SET status = 'removed' WHERE id = ${userId}`, { transaction: t })) // raw SQL
+    expect(cache.sessionCacheStats().generation).toBeGreaterThan(gen)
+    expect(await checkSessionRecord('s-suspend', userId, limits)).toEqual({ ok: false, reason: 'user not active' })
+    await withWrite((t) => getDb().query(`UPDATE users SET status = 'active' WHERE id = ${userId}`, { transaction: t }))
+    await Organisation.update({ status: 'approved' }, { where: { id: orgId } })
+  })
+
+  it('refuses to remember rows read across a change', () => {
+    const readAt = cache.rowsGeneration()
+    cache.authDataChanged()
+    cache.rememberSessionRows('s-stale', {} as never, readAt)
+    expect(cache.cachedSessionRows('s-stale')).toBeUndefined()
+  })
+
+  it('remembers an opened cookie no longer than its seal is valid, and hands out private copies', () => {
+    const now = Date.now()
+    const sealed = (exp: number | '') => `Fe26.2**salt*iv*cipher*${exp}*hsalt*hmac`
+    const session = { id: 'h3-id', createdAt: now, data: { user: { id: 1, role: 'garage_manager' }, sid: 'abc' } }
+    cache.rememberOpenedSession(sealed(now + 1000), session, undefined, now)
+    const copy = cache.openedSession(sealed(now + 1000), now + 500)!
+    expect(copy).toEqual(session)
+    ;(copy.data.user as { role: string }).role = 'distributor_admin'
+    expect((cache.openedSession(sealed(now + 1000), now + 600)!.data.user as { role: string }).role).toBe('garage_manager')
+    expect(cache.openedSession(sealed(now + 1000), now + 1000)).toBeUndefined() // the seal's own expiry
+    cache.rememberOpenedSession(sealed(''), session, 60, now) // no seal expiry: the session's maxAge bounds it
+    expect(cache.openedSession(sealed(''), now + 59_000)).toBeDefined()
+    expect(cache.openedSession(sealed(''), now + 60_000)).toBeUndefined()
+  })
+})
