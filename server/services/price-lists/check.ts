@@ -2,8 +2,8 @@
  * The check of an uploaded price file, run in the background one file at a time (a second upload waits its
  * turn: never two checks interleaved). It reads the file as a stream, validates and compares each row with
  * the active price list, and stages the result in `price_upload_rows` in batches (each batch one short write
- * transaction through `withWrite`, so other writes keep flowing). The event loop is given back between
- * batches, so the server stays responsive. Nothing in parts, prices or stock changes here.
+ * transaction through `withWrite`, so other writes keep flowing; one batch is written while the next is read).
+ * The event loop is given back between batches, so the server stays responsive. Nothing in parts, prices or stock changes here.
  */
 import { join } from 'node:path'
 import { QueryTypes } from 'sequelize'
@@ -192,6 +192,7 @@ export async function runCheck(id: number): Promise<void> {
   const decimal = upload.decimalMark === ',' ? ',' : '.'
   let delimiter = upload.delimiter
   let source: RowSource | undefined
+  let writing: Promise<void> = Promise.resolve()
   try {
     if (upload.fileFormat === 'xlsx') {
       const entries = await inspectZip(path)
@@ -288,12 +289,17 @@ export async function runCheck(id: number): Promise<void> {
     for await (const rows of batches) {
       for (const row of rows) handle(row)
       if (batch.length >= BATCH) {
-        await stage(id, batch)
+        // SQLite writes one batch (on its own thread) while the next is read and checked here: at most one
+        // batch in flight, so memory stays flat and an error surfaces at the next batch
+        await writing
+        writing = stage(id, batch)
+        writing.catch(() => {}) // awaited (and thrown) at the next batch or at the end
         batch = []
         setLive(id, 'reading', (source.bytesRead() / fileSize) * 92)
       }
       await yieldToLoop() // between batches of 500 rows, whatever else is waiting runs
     }
+    await writing
     await stage(id, batch)
     batch = []
     if (count === 0) throw new PriceFileError('The file has a header row but no data rows.', 'empty')
@@ -338,6 +344,7 @@ export async function runCheck(id: number): Promise<void> {
     }, { where: { id, status: 'parsing' }, transaction: t }))
   } catch (err) {
     if (source) await source.rows.return(undefined).catch(() => {})
+    await writing.catch(() => {}) // a batch still being written must land before the staged rows are removed
     await withWrite((t) => getDb().query('DELETE FROM price_upload_rows WHERE upload_id = $1', { bind: [id], transaction: t })).catch(() => {})
     if (err instanceof PriceFileError) {
       await failCheck(id, err.message, { delimiter })
