@@ -72,6 +72,14 @@ export const accountMail = {
       ['Sign in', o.signInUrl],
     ])
   },
+  paymentReceived(o: { businessName: string; amountMinor: number; reference: string; receivedOn: string; balanceMinor: number; availableMinor: number | null; statementUrl: string }, money: Money): MailContent {
+    const m = (minor: number) => formatMinor(minor, money.currency, money.locale)
+    return compose(`payment of ${m(o.amountMinor)} received`, [
+      `The distributor has booked a payment of ${m(o.amountMinor)} from ${o.businessName} to your trade account (reference ${o.reference}, received ${o.receivedOn}).`,
+      `Balance now owed: ${m(o.balanceMinor)}.${o.availableMinor === null ? '' : ` Credit available for orders on account: ${m(o.availableMinor)}.`}`,
+      ['Your statement', o.statementUrl],
+    ])
+  },
   termsChanged(o: { businessName: string; tierName: string; percentBp: number; terms: string }): MailContent {
     return compose('your trade terms have changed', [
       `The distributor has updated the terms of ${o.businessName}.`,

@@ -6,6 +6,7 @@
 import { Op, Sequelize, type Order, type WhereOptions } from 'sequelize'
 import { AuditEntry, DiscountTier, Organisation, User } from '../models/accounts'
 import { ProofDocument } from '../models/accounts-extra'
+import { LedgerEntry } from '../models/orders'
 import type { GarageListQuery } from '../../shared/schemas/accounts'
 import type { AuditView, GarageDetail, GarageSummary, PageOf, PersonView, ProofDocumentView, TierView } from '../../shared/types/trade-accounts'
 
@@ -89,15 +90,16 @@ export async function historyOf(entity: string, entityId: number | string): Prom
 
 /** The garage in full; the decision history only for those who may read the audit log. */
 export async function garageDetail(o: Organisation & { tier?: DiscountTier | null }, withHistory = true): Promise<GarageDetail> {
-  const [doc, people, history] = await Promise.all([
+  const [doc, people, history, balance] = await Promise.all([
     latestProof(o.id),
     User.findAll({ where: { organisationId: o.id }, order: [['name', 'ASC']] }),
     withHistory ? historyOf('organisation', o.id) : Promise.resolve([]),
+    LedgerEntry.sum('amountMinor', { where: { organisationId: o.id } }),
   ])
   return {
     ...garageSummary(o),
     tradingAddress: o.tradingAddress, taxNumber: o.taxNumber, phone: o.phone, decisionReason: o.decisionReason ?? null,
-    document: proofView(doc), people: people.map(personView), history,
+    document: proofView(doc), people: people.map(personView), history, balanceMinor: Number(balance ?? 0) || 0,
   }
 }
 

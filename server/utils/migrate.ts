@@ -1,10 +1,10 @@
 import { SequelizeStorage, Umzug } from 'umzug'
-import type { Sequelize } from 'sequelize'
+import type { QueryInterface, Sequelize } from 'sequelize'
 import { migrations } from '../migrations/index'
 import { getDb } from './db'
 
 function migrator(sequelize: Sequelize) {
-  return new Umzug({
+  return new Umzug<QueryInterface>({
     migrations: migrations.map((m) => ({
       name: m.name,
       up: async ({ context }) => m.up(context),

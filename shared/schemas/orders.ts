@@ -94,3 +94,21 @@ export const CoreReturnDecisionSchema = z.object({
 }).strict().refine((v) => v.status !== 'rejected' || v.reason.length >= 3, {
   path: ['reason'], message: 'Say why the old unit is not accepted.',
 })
+
+/** Largest single payment booked by hand: £1,000,000.00 (a typing slip beyond it is far likelier than the payment). */
+export const MAX_ACCOUNT_PAYMENT_MINOR = 100_000_000
+
+/**
+ * POST /api/admin/accounts/:id/payments: money a garage on account terms paid outside the card flow.
+ * `reference` is the bank or cheque reference as printed; the same reference is never booked twice for a garage.
+ */
+export const AccountPaymentSchema = z.object({
+  amountMinor: z.number({ error: 'Enter the amount received.' }).int('Enter the amount in pence (a whole number).')
+    .positive('The amount must be more than zero.').max(MAX_ACCOUNT_PAYMENT_MINOR, 'That is more than one payment can be; check the amount.'),
+  reference: z.string({ error: 'Enter the payment reference.' }).trim().min(2, 'Enter the payment reference (bank or cheque reference).')
+    .max(60, 'The reference is at most 60 characters.'),
+  receivedOn: z.string({ error: 'Enter the date the money arrived.' }).regex(/^\d{4}-\d{2}-\d{2}$/, 'Enter the date as YYYY-MM-DD.')
+    .refine((d) => !Number.isNaN(Date.parse(`${d}T00:00:00Z`)) && new Date(`${d}T00:00:00Z`).toISOString().slice(0, 10) === d, 'That date does not exist.'),
+  note: z.string({ error: 'The note must be text.' }).trim().max(300, 'The note is at most 300 characters.').default(''),
+}).strict()
+export type AccountPaymentInput = z.infer<typeof AccountPaymentSchema>

@@ -22,7 +22,7 @@ export type PaymentState = (typeof PAYMENT_STATES)[number]
 export const CORE_RETURN_STATUSES = ['expected', 'booked', 'accepted', 'rejected', 'void'] as const
 export type CoreReturnStatus = (typeof CORE_RETURN_STATUSES)[number]
 
-export const LEDGER_KINDS = ['order', 'core_deposit', 'payment', 'refund', 'credit', 'core_credit'] as const
+export const LEDGER_KINDS = ['order', 'core_deposit', 'payment', 'refund', 'credit', 'core_credit', 'account_payment'] as const
 export type LedgerKind = (typeof LEDGER_KINDS)[number]
 
 /** The moves counter staff make on the queue (PATCH /api/counter/orders/:id). */
@@ -66,6 +66,7 @@ export const LEDGER_KIND_LABELS: Record<LedgerKind, string> = {
   refund: 'Refund to card',
   credit: 'Credit',
   core_credit: 'Core credit',
+  account_payment: 'Payment received',
 }
 
 /** The reference people quote on the phone and that prints on paperwork: BL-000042. */

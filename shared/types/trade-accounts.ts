@@ -63,6 +63,8 @@ export interface GarageDetail extends GarageSummary {
   document: ProofDocumentView | null
   people: PersonView[]
   history: AuditView[]
+  /** what the garage owes on its ledger now (negative: in credit) */
+  balanceMinor: number
 }
 
 /** `GET /api/account`: the signed-in person and their organisation's standing. */

@@ -29,6 +29,8 @@ export const ABILITIES = {
   /** read the garages' trade accounts and their proof documents (counter staff check terms when working orders) */
   'accounts.view': ['distributor_admin', 'counter_staff'],
   'accounts.decide': ['distributor_admin'],
+  /** book money a garage on account terms paid (bank transfer, cheque) against its balance */
+  'payments.record': ['distributor_admin'],
   'tiers.manage': ['distributor_admin'],
   'distributor.staff': ['distributor_admin'],
   'audit.view': ['distributor_admin'],

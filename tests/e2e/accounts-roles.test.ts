@@ -84,6 +84,7 @@ const rows: Row[] = [
   { route: 'GET /api/admin/accounts/:id', call: (c) => c.get(`/api/admin/accounts/${ids.approvedGarage}`), expect: signedIn({ admin: 200, counter: 200 }) },
   { route: 'PATCH /api/admin/accounts/:id', call: (c) => c.patch(`/api/admin/accounts/${ids.approvedGarage}`, {}), expect: signedIn({ admin: 422 }) },
   { route: 'POST /api/admin/accounts/:id/suspend', call: (c) => c.post(`/api/admin/accounts/${ids.approvedGarage}/suspend`, {}), expect: signedIn({ admin: 422 }) },
+  { route: 'POST /api/admin/accounts/:id/payments', call: (c) => c.post(`/api/admin/accounts/${ids.approvedGarage}/payments`, {}), expect: signedIn({ admin: 422 }) },
   { route: 'POST /api/admin/accounts/:id/reactivate', call: (c) => c.post(`/api/admin/accounts/${ids.approvedGarage}/reactivate`, {}), expect: signedIn({ admin: 409 }) },
   { route: 'GET /api/admin/tiers', call: (c) => c.get('/api/admin/tiers'), expect: signedIn({ admin: 200 }) },
   { route: 'POST /api/admin/tiers', call: (c) => c.post('/api/admin/tiers', {}), expect: signedIn({ admin: 422 }) },

@@ -1,0 +1,79 @@
+/**
+ * Money a garage on account terms pays by transfer or cheque, booked by the distributor admin: the balance falls
+ * by exactly the amount, the credit it frees is usable for the next order at once, the garage's statement shows
+ * it and the garage is told. An overpayment, a reference booked before, a date in the future and bad input are
+ * refused by field and change nothing; only the admin may book.
+ */
+import { beforeAll, describe, expect, it } from 'vitest'
+import { setup } from '@nuxt/test-utils/e2e'
+import { Client, as, env, people, waitForMail } from '../support/api'
+import { ledgerOf, makeGarage, makePart, type TestGarage, type TestPart } from '../support/orders'
+
+await setup({ host: env().baseUrl })
+
+// £40.00 net (no tier) + VAT at 20 % (gov.uk "VAT rates") = £48.00 a unit, as in the credit-limit tests
+const UNIT_TOTAL = 4_800
+let part: TestPart, garage: TestGarage, manager: Client, admin: Client
+const today = () => new Date().toISOString().slice(0, 10)
+const order = () => ({ lines: [{ sku: part.sku, quantity: 1 }], payment: 'account' })
+
+beforeAll(async () => {
+  part = await makePart({ listPriceMinor: 4_000, stock: { NGT: 20 } })
+  garage = await makeGarage({ terms: 'account', creditLimitMinor: 2 * UNIT_TOTAL, label: 'Paying Garage' })
+  ;[manager, admin] = await Promise.all([as(garage.email), as(people.admin)])
+  for (let i = 0; i < 2; i++) expect((await manager.post('/api/orders', order())).status).toBe(201)
+  expect((await manager.post('/api/orders', order())).status).toBe(402) // at the limit
+})
+
+describe('booking a payment received', () => {
+  it('shows the admin what the garage owes', async () => {
+    const r = await admin.get(`/api/admin/accounts/${garage.id}`)
+    expect(r.body.balanceMinor).toBe(2 * UNIT_TOTAL)
+  })
+
+  it('refuses bad input, a future date and an overpayment by field, and books nothing', async () => {
+    const before = await ledgerOf(garage.id)
+    const bad = await admin.post(`/api/admin/accounts/${garage.id}/payments`, { amountMinor: 0, reference: 'x', receivedOn: '2026-02-30', colour: 'red' })
+    expect(bad.status).toBe(422)
+    expect(Object.keys(bad.body.data.fields).sort()).toEqual(['amountMinor', 'colour', 'receivedOn', 'reference'])
+    const tomorrow = new Date(Date.now() + 86_400_000).toISOString().slice(0, 10)
+    const future = await admin.post(`/api/admin/accounts/${garage.id}/payments`, { amountMinor: 100, reference: 'BACS 1', receivedOn: tomorrow })
+    expect(future.status).toBe(422)
+    expect(future.body.data.fields.receivedOn).toMatch(/future/)
+    const over = await admin.post(`/api/admin/accounts/${garage.id}/payments`, { amountMinor: 2 * UNIT_TOTAL + 1, reference: 'BACS 1', receivedOn: today() })
+    expect(over.status).toBe(422)
+    expect(over.body.data.fields.amountMinor).toMatch(/owes £96\.00.*at most £96\.00/)
+    expect(await ledgerOf(garage.id)).toEqual(before)
+  })
+
+  it('is for the distributor admin only, and only for a garage that exists', async () => {
+    const body = { amountMinor: 100, reference: 'BACS 2', receivedOn: today() }
+    const [anon, counter, self] = await Promise.all([
+      new Client().post(`/api/admin/accounts/${garage.id}/payments`, body),
+      (await as(people.counter)).post(`/api/admin/accounts/${garage.id}/payments`, body),
+      manager.post(`/api/admin/accounts/${garage.id}/payments`, body),
+    ])
+    expect([anon.status, counter.status, self.status]).toEqual([401, 403, 403])
+    expect((await admin.post('/api/admin/accounts/999999/payments', body)).status).toBe(404)
+  })
+
+  it('lowers the balance by exactly the amount, frees the credit at once, shows on the statement and tells the garage', async () => {
+    const r = await admin.post(`/api/admin/accounts/${garage.id}/payments`, { amountMinor: UNIT_TOTAL, reference: 'BACS 778812', receivedOn: today(), note: 'March statement' })
+    expect(r.status, r.text).toBe(201)
+    expect(r.body).toMatchObject({ amountMinor: UNIT_TOTAL, balanceMinor: UNIT_TOTAL, availableMinor: UNIT_TOTAL })
+    const statement = (await manager.get('/api/statement')).body
+    expect(statement.entries.at(-1)).toMatchObject({ kind: 'account_payment', kindLabel: 'Payment received', amountMinor: -UNIT_TOTAL, balanceMinor: UNIT_TOTAL, reference: 'BACS 778812' })
+    expect(statement.availableMinor).toBe(UNIT_TOTAL)
+    const mail = await waitForMail(garage.email, /payment of £48\.00 received/)
+    expect(mail.text).toMatch(/Balance now owed: £48\.00\. Credit available for orders on account: £48\.00/)
+    expect((await manager.post('/api/orders', order())).status).toBe(201) // the freed credit is usable
+  })
+
+  it('refuses the same reference twice for the garage, however it is spaced or cased', async () => {
+    const before = await ledgerOf(garage.id)
+    const again = await admin.post(`/api/admin/accounts/${garage.id}/payments`, { amountMinor: 100, reference: 'bacs  778812', receivedOn: today() })
+    expect(again.status).toBe(409)
+    expect(again.body.data.fields.reference).toMatch(/already booked/)
+    expect(await ledgerOf(garage.id)).toEqual(before)
+  })
+})
