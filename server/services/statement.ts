@@ -11,7 +11,17 @@ import { notFound } from '../utils/validate'
 import { LEDGER_KIND_LABELS, type Statement } from '../../shared/types/orders'
 import { ORDER_CURRENCY } from './orders'
 
-export async function statementOf(organisationId: number): Promise<Statement> {
+/** First instant of a month and of the month after it (UTC), for `YYYY-MM`. */
+function monthBounds(month: string): [Date, Date] {
+  const [y, m] = month.split('-').map(Number) as [number, number]
+  return [new Date(Date.UTC(y, m - 1, 1)), new Date(Date.UTC(y, m, 1))]
+}
+
+/**
+ * The garage's ledger with running balances; with `month`, only that month's entries, the running balance still
+ * counted from the first entry ever (so the opening balance is what was owed when the month began).
+ */
+export async function statementOf(organisationId: number, month?: string): Promise<Statement> {
   const org = await Organisation.findByPk(organisationId)
   if (!org) throw notFound('Garage')
   const rows = await LedgerEntry.findAll({
@@ -19,10 +29,17 @@ export async function statementOf(organisationId: number): Promise<Statement> {
     include: [{ model: Order, as: 'order', attributes: ['id', 'garageReference'] }],
     order: [['id', 'ASC']],
   })
+  const [from, to] = month ? monthBounds(month) : [null, null]
   let balance = 0
-  const entries = rows.map((r) => {
+  let opening = 0
+  const months = new Set<string>()
+  const entries: Statement['entries'] = []
+  for (const r of rows) {
     balance += r.amountMinor
-    return {
+    months.add(r.createdAt.toISOString().slice(0, 7))
+    if (from && r.createdAt < from) { opening = balance; continue }
+    if (to && r.createdAt >= to) continue
+    entries.push({
       id: r.id,
       at: r.createdAt.toISOString(),
       kind: r.kind,
@@ -33,8 +50,8 @@ export async function statementOf(organisationId: number): Promise<Statement> {
       balanceMinor: balance,
       orderId: r.orderId,
       garageReference: (r as LedgerEntry & { order?: Order }).order?.garageReference ?? '',
-    }
-  })
+    })
+  }
   const terms = org.paymentTerms ?? 'card'
   return {
     garage: { id: org.id, name: org.name, terms, creditLimitMinor: org.creditLimitMinor ?? 0, paymentDays: org.paymentDays ?? 0 },
@@ -42,12 +59,18 @@ export async function statementOf(organisationId: number): Promise<Statement> {
     entries,
     balanceMinor: balance,
     availableMinor: terms === 'account' ? (org.creditLimitMinor ?? 0) - balance : null,
+    period: month ? { month, openingBalanceMinor: opening, closingBalanceMinor: entries.at(-1)?.balanceMinor ?? opening } : null,
+    months: [...months].sort().reverse(),
   }
 }
 
 /** The statement as CSV (UTF-8, header row, amounts in major units with two decimals). */
 export function statementCsv(s: Statement): string {
-  const records = s.entries.map((e) => ({
+  const records: Record<string, string | number>[] = []
+  if (s.period) {
+    records.push({ date: `${s.period.month}-01`, kind: 'Brought forward', reference: '', yours: '', description: `Balance when ${s.period.month} began`, amount: 0, balance: s.period.openingBalanceMinor })
+  }
+  records.push(...s.entries.map((e) => ({
     date: e.at.slice(0, 10),
     kind: e.kindLabel,
     reference: e.reference,
@@ -55,7 +78,7 @@ export function statementCsv(s: Statement): string {
     description: e.description,
     amount: e.amountMinor,
     balance: e.balanceMinor,
-  }))
+  })))
   return stringify(records, {
     header: true,
     columns: [

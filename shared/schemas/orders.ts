@@ -112,3 +112,9 @@ export const AccountPaymentSchema = z.object({
   note: z.string({ error: 'The note must be text.' }).trim().max(300, 'The note is at most 300 characters.').default(''),
 }).strict()
 export type AccountPaymentInput = z.infer<typeof AccountPaymentSchema>
+
+/** GET /api/statement?month=YYYY-MM (and the CSV): one calendar month (UTC) with its opening balance; empty = all. */
+export const StatementQuerySchema = z.object({
+  month: z.preprocess((v) => (v === '' ? undefined : v),
+    z.string({ error: 'Choose a month as YYYY-MM.' }).regex(/^\d{4}-(0[1-9]|1[0-2])$/, 'Choose a month as YYYY-MM, e.g. 2026-11.').optional()),
+})

@@ -203,7 +203,13 @@ export interface StatementEntry {
 export interface Statement {
   garage: { id: number; name: string; terms: 'card' | 'account'; creditLimitMinor: number; paymentDays: number }
   currency: string
+  /** every entry, or only the chosen month's */
   entries: StatementEntry[]
+  /** the balance now, whatever period is shown */
   balanceMinor: number
   availableMinor: number | null
+  /** the month shown, with the balance brought forward into it and carried out of it; null = whole ledger */
+  period: { month: string; openingBalanceMinor: number; closingBalanceMinor: number } | null
+  /** months (YYYY-MM, newest first) that have entries, for choosing one */
+  months: string[]
 }

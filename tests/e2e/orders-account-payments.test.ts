@@ -2,12 +2,14 @@
  * Money a garage on account terms pays by transfer or cheque, booked by the distributor admin: the balance falls
  * by exactly the amount, the credit it frees is usable for the next order at once, the garage's statement shows
  * it and the garage is told. An overpayment, a reference booked before, a date in the future and bad input are
- * refused by field and change nothing; only the admin may book.
+ * refused by field and change nothing; only the admin may book. The statement is read month by month, each month
+ * opening with the balance brought forward (the running balance counted from the first entry: common practice
+ * for a trade account statement).
  */
 import { beforeAll, describe, expect, it } from 'vitest'
 import { setup } from '@nuxt/test-utils/e2e'
 import { Client, as, env, people, waitForMail } from '../support/api'
-import { ledgerOf, makeGarage, makePart, type TestGarage, type TestPart } from '../support/orders'
+import { addLedgerEntry, ledgerOf, makeGarage, makePart, type TestGarage, type TestPart } from '../support/orders'
 
 await setup({ host: env().baseUrl })
 
@@ -75,5 +77,40 @@ describe('booking a payment received', () => {
     expect(again.status).toBe(409)
     expect(again.body.data.fields.reference).toMatch(/already booked/)
     expect(await ledgerOf(garage.id)).toEqual(before)
+  })
+})
+
+describe('the statement, month by month', () => {
+  let c: Client
+  beforeAll(async () => {
+    const g = await makeGarage({ terms: 'account', creditLimitMinor: 100_000, label: 'Monthly Garage' })
+    c = await as(g.email)
+    await addLedgerEntry(g.id, { kind: 'order', amountMinor: 10_000, reference: 'BL-OCT', at: '2025-10-05T10:00:00Z' })
+    await addLedgerEntry(g.id, { kind: 'order', amountMinor: 5_000, reference: 'BL-NOV', at: '2025-11-10T09:00:00Z' })
+    await addLedgerEntry(g.id, { kind: 'account_payment', amountMinor: -8_000, reference: 'BACS NOV', at: '2025-11-30T23:59:00Z' })
+    await addLedgerEntry(g.id, { kind: 'order', amountMinor: 1_000, reference: 'BL-DEC', at: '2025-12-01T00:00:00Z' })
+  })
+
+  it('shows one month with the balance brought forward and carried out, and the balance now', async () => {
+    const r = await c.get('/api/statement?month=2025-11')
+    expect(r.status).toBe(200)
+    expect(r.body.entries.map((e: { reference: string; balanceMinor: number }) => [e.reference, e.balanceMinor])).toEqual([['BL-NOV', 15_000], ['BACS NOV', 7_000]])
+    expect(r.body.period).toEqual({ month: '2025-11', openingBalanceMinor: 10_000, closingBalanceMinor: 7_000 })
+    expect(r.body.balanceMinor).toBe(8_000)
+    expect(r.body.months).toEqual(['2025-12', '2025-11', '2025-10'])
+    const empty = await c.get('/api/statement?month=2025-09')
+    expect(empty.body).toMatchObject({ entries: [], period: { openingBalanceMinor: 0, closingBalanceMinor: 0 } })
+    expect((await c.get('/api/statement')).body).toMatchObject({ period: null, balanceMinor: 8_000 })
+  })
+
+  it('exports the month as CSV starting with the balance brought forward, and refuses a malformed month', async () => {
+    const csv = await c.get('/api/statement.csv?month=2025-11')
+    expect(csv.headers.get('content-disposition')).toContain('statement-2025-11.csv')
+    const lines = csv.text.trim().split('\n')
+    expect(lines[1]).toMatch(/^2025-11-01,Brought forward,,,Balance when 2025-11 began,0\.00,100\.00$/)
+    expect(lines.at(-1)).toMatch(/BACS NOV.*,-80\.00,70\.00$/)
+    const bad = await c.get('/api/statement?month=2025-13')
+    expect(bad.status).toBe(422)
+    expect(bad.body.data.fields.month).toMatch(/YYYY-MM/)
   })
 })

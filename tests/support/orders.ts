@@ -217,3 +217,12 @@ export async function waitFor<T>(fn: () => Promise<T | undefined | null | false>
     await new Promise((r) => setTimeout(r, 100))
   }
 }
+
+/** A ledger entry dated in the past (statement periods): written, then re-dated in the form Sequelize stores. */
+export async function addLedgerEntry(organisationId: number, e: { kind: 'order' | 'account_payment' | 'credit'; amountMinor: number; reference: string; at: string }): Promise<number> {
+  models()
+  const row = await withWrite((t) => LedgerEntry.create({ organisationId, orderId: null, kind: e.kind, amountMinor: e.amountMinor, reference: e.reference, description: `test entry ${e.reference}` }, { transaction: t }))
+  const at = new Date(e.at)
+  await withWrite((t) => getDb().query('UPDATE ledger_entries SET created_at = $1 WHERE id = $2', { bind: [`${at.toISOString().replace('T', ' ').replace('Z', '')} +00:00`, row.id], transaction: t }))
+  return row.id
+}

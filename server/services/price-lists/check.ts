@@ -15,7 +15,9 @@ import { PriceFileError, csvRows, detectDelimiter, inspectZip, proveZipSizes, re
 import { autoMapping, checkMapping, columnIndex, displayHeaders, savedMappingFits } from './mapping'
 import { classify, rowValidator, type CurrentPart } from './rows'
 
-const BATCH = 2000
+// rows per staging transaction: each write transaction opens its own SQLite connection (~14 ms), so small batches
+// cost more than their rows; much larger ones hold other writers (and reads on the shared connection) too long
+const BATCH = 10_000
 
 // ------------------------------------------------------------------------------------------- where files live
 
@@ -96,8 +98,8 @@ export async function activePriceListId(): Promise<number | null> {
 
 /**
  * The parts and their prices in the compared version, held compactly (typed arrays indexed through one
- * SKU map: a few MB for 200,000 parts instead of 200,000 objects) and loaded in slices so the event loop
- * is never held for long.
+ * SKU map: a few MB for 200,000 parts instead of 200,000 objects) and loaded in slices of 10,000 so neither the
+ * event loop nor the shared connection is held for long.
  */
 class CatalogueSnapshot {
   private readonly index = new Map<string, number>()
@@ -145,7 +147,7 @@ class CatalogueSnapshot {
       const rows = await getDb().query<{ id: number; sku: string; status: string; l: number | null; t: number | null; c: number | null; k: number | null }>(
         `SELECT p.id, p.sku, p.status, pr.list_price_minor AS l, pr.trade_cost_minor AS t, pr.core_deposit_minor AS c, pr.pack_quantity AS k
            FROM parts p LEFT JOIN prices pr ON pr.part_id = p.id AND pr.price_list_id = $1
-          WHERE p.id > $2 ORDER BY p.id LIMIT 5000`,
+          WHERE p.id > $2 ORDER BY p.id LIMIT 10000`,
         { bind: [baseId ?? -1, after], type: QueryTypes.SELECT, raw: true },
       )
       if (!rows.length) return snap
