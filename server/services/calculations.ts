@@ -2,7 +2,10 @@
  * Server-side glue for the brake calculations (shared/utils/brake): turning the library's field issues into
  * the project's 422 shape. Plain Node, no Nitro auto-imports.
  */
-import type { FieldIssue } from '../../shared/utils/brake/schemas'
+import type { H3Event } from 'h3'
+import { readBody } from 'h3'
+import type { FieldIssue, ParseResult } from '../../shared/utils/brake/schemas'
+import { invalidInput } from '../utils/validate'
 
 /**
  * The library's issues as `data.fields` for a 422: `{ "axles.front.frictionCoefficient": "message" }`.
@@ -17,4 +20,20 @@ export function issuesToFields(issues: readonly FieldIssue[], prefix = ''): Reco
     fields[key] ??= issue.message
   }
   return fields
+}
+
+/**
+ * The body of a calculation route, read and parsed by the library's own parser: 422 with `data.fields` for a body
+ * that is not JSON or for any impossible field (nothing is computed from half an input).
+ */
+export async function calculationBody<T>(event: H3Event, parse: (body: unknown) => ParseResult<T>): Promise<T> {
+  let body: unknown
+  try {
+    body = await readBody(event)
+  } catch {
+    throw invalidInput({ _: 'The request body is not valid JSON.' })
+  }
+  const parsed = parse(body)
+  if (!parsed.ok) throw invalidInput(issuesToFields(parsed.issues))
+  return parsed.data
 }

@@ -8,17 +8,9 @@
  * (nothing is computed from half an input).
  */
 import { computeHydraulics, parseHydraulicsInput } from '#shared/utils/brake'
-import { issuesToFields } from '../../services/calculations'
+import { calculationBody } from '../../services/calculations'
 
 export default defineEventHandler(async (event) => {
   requireAbility(event, 'calculations.use')
-  let body: unknown
-  try {
-    body = await readBody(event)
-  } catch {
-    throw invalidInput({ _: 'The request body is not valid JSON.' })
-  }
-  const parsed = parseHydraulicsInput(body)
-  if (!parsed.ok) throw invalidInput(issuesToFields(parsed.issues))
-  return computeHydraulics(parsed.data)
+  return computeHydraulics(await calculationBody(event, parseHydraulicsInput))
 })

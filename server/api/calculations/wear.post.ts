@@ -8,17 +8,9 @@
  * 401 signed out; 422 with `data.fields` keyed by field path.
  */
 import { computeWear, parseWearInput } from '#shared/utils/brake'
-import { issuesToFields } from '../../services/calculations'
+import { calculationBody } from '../../services/calculations'
 
 export default defineEventHandler(async (event) => {
   requireAbility(event, 'calculations.use')
-  let body: unknown
-  try {
-    body = await readBody(event)
-  } catch {
-    throw invalidInput({ _: 'The request body is not valid JSON.' })
-  }
-  const parsed = parseWearInput(body)
-  if (!parsed.ok) throw invalidInput(issuesToFields(parsed.issues))
-  return computeWear(parsed.data)
+  return computeWear(await calculationBody(event, parseWearInput))
 })
