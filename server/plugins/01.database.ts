@@ -1,4 +1,9 @@
-/** At start: refuse a weak session secret in production, then migrate and bind the models. */
+/**
+ * At start: refuse a weak session secret in production, create the uploads folder (generated, never in the
+ * repository), then migrate and bind the models.
+ */
+import { mkdirSync } from 'node:fs'
+import { resolve } from 'node:path'
 import { databaseReady } from '../utils/ready'
 import { getDb } from '../utils/db'
 
@@ -12,6 +17,7 @@ export default defineNitroPlugin((nitro) => {
       process.exit(1)
     }
   }
+  mkdirSync(resolve(String(config.uploadsDir || './uploads')), { recursive: true })
   databaseReady().catch((err) => console.error('[boreline] database not ready:', err?.message ?? err))
   nitro.hooks.hook('close', async () => { await getDb().close() })
 })
