@@ -51,6 +51,16 @@ describe('booking a payment received, in the browser', () => {
     await open(g, '/statement')
     await expect.poll(() => g.getByTestId('statement').textContent()).toContain('Payment received')
     expect(await g.getByTestId('statement-balance').textContent()).toBe('£0.00')
+
+    // one month at a time, kept in the address across a reload; a month typed wrongly is named, not a dead end
+    const thisMonth = new Date().toISOString().slice(0, 7)
+    await g.getByTestId('statement-month').selectOption(thisMonth)
+    await g.waitForURL((u) => u.searchParams.get('month') === thisMonth)
+    await g.reload()
+    await expect.poll(() => g.getByTestId('statement-period').textContent()).toMatch(/Brought forward into .*£0\.00.*Carried forward: £0\.00/)
+    await open(g, '/statement?month=2026-13')
+    await expect.poll(() => g.getByTestId('statement-month-error').textContent()).toMatch(/“2026-13” is not a month/)
+    await expect.poll(() => g.getByTestId('statement').textContent()).toContain('Payment received')
     await garageSide.context.close()
   })
 })

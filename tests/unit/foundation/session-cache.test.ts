@@ -1,11 +1,13 @@
 // The per-request session check keeps what it read in memory (server/utils/session-cache.ts). These checks pin
 // down when that memory must be forgotten: a revocation, a role or status change, any committed write. The rules
 // themselves (sign-out ends a session at once, a suspended account stops on its next request) are the
-// trade-accounts issue's; the seal format is iron's (Fe26.2, as sealed by h3), `common practice` for h3 sessions.
+// trade-accounts issue's. Where a sealed cookie's expiry sits is checked against cookies sealed by iron-webcrypto,
+// the library h3 seals sessions with.
 import { mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { defaults as ironDefaults, seal } from 'iron-webcrypto'
 
 const dir = mkdtempSync(join(tmpdir(), 'boreline-session-cache-'))
 process.env.DATABASE_URL = `sqlite:${join(dir, 'unit.sqlite')}`
@@ -83,18 +85,22 @@ describe('session check memory', () => {
     expect(cache.cachedSessionRows('s-stale')).toBeUndefined()
   })
 
-  it('remembers an opened cookie no longer than its seal is valid, and hands out private copies', () => {
+  it('remembers an opened cookie no longer than its seal is valid, and hands out private copies', async () => {
     const now = Date.now()
-    const sealed = (exp: number | '') => `Fe26.2**salt*iv*cipher*${exp}*hsalt*hmac`
     const session = { id: 'h3-id', createdAt: now, data: { user: { id: 1, role: 'garage_manager' }, sid: 'abc' } }
-    cache.rememberOpenedSession(sealed(now + 1000), session, undefined, now)
-    const copy = cache.openedSession(sealed(now + 1000), now + 500)!
+    const password = 'unit-test-session-password-0123456789-abcdef'
+    // sealed as h3 seals a session, once with a lifetime of 1 s and once without one
+    const short = await seal(globalThis.crypto, session, password, { ...ironDefaults, ttl: 1000 })
+    const open = await seal(globalThis.crypto, session, password, ironDefaults)
+    const sealedAt = Date.now()
+    cache.rememberOpenedSession(short, session, undefined, sealedAt)
+    const copy = cache.openedSession(short, sealedAt + 100)!
     expect(copy).toEqual(session)
     ;(copy.data.user as { role: string }).role = 'distributor_admin'
-    expect((cache.openedSession(sealed(now + 1000), now + 600)!.data.user as { role: string }).role).toBe('garage_manager')
-    expect(cache.openedSession(sealed(now + 1000), now + 1000)).toBeUndefined() // the seal's own expiry
-    cache.rememberOpenedSession(sealed(''), session, 60, now) // no seal expiry: the session's maxAge bounds it
-    expect(cache.openedSession(sealed(''), now + 59_000)).toBeDefined()
-    expect(cache.openedSession(sealed(''), now + 60_000)).toBeUndefined()
+    expect((cache.openedSession(short, sealedAt + 200)!.data.user as { role: string }).role).toBe('garage_manager')
+    expect(cache.openedSession(short, sealedAt + 1500)).toBeUndefined() // past the seal's own expiry
+    cache.rememberOpenedSession(open, session, 60, now) // no seal expiry: the session's maxAge bounds it
+    expect(cache.openedSession(open, now + 59_000)).toBeDefined()
+    expect(cache.openedSession(open, now + 60_000)).toBeUndefined()
   })
 })
