@@ -17,7 +17,7 @@
  * Targets (issue 8): preview + apply within 6x the `.import` time; peak memory under 500 MB; health p99 under 200 ms.
  */
 import { spawn, spawnSync } from 'node:child_process'
-import { mkdtempSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs'
+import { appendFileSync, mkdtempSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs'
 import { createServer } from 'node:net'
 import { cpus, tmpdir } from 'node:os'
 import { join, resolve } from 'node:path'
@@ -98,6 +98,11 @@ function sqliteImportMs(csvPath: string): number {
   return times[1]! // median of three
 }
 
+/** Resets the peak resident set of a process (Linux: writing 5 to clear_refs), so each run reports its own peak. */
+function resetPeak(pid: number): void {
+  try { writeFileSync(`/proc/${pid}/clear_refs`, '5') } catch { /* not Linux, or not allowed: the peak then covers the whole run */ }
+}
+
 function vmStatus(pid: number): { rss: number; hwm: number } {
   const s = readFileSync(`/proc/${pid}/status`, 'utf8')
   const kb = (k: string) => Number(new RegExp(`${k}:\\s+(\\d+)`).exec(s)?.[1] ?? 0) * 1024
@@ -120,7 +125,7 @@ async function main() {
   const dump = spawnSync('sqlite3', ['-json', dbPath, `SELECT p.sku, pr.list_price_minor AS l, pr.trade_cost_minor AS t, pr.core_deposit_minor AS c, pr.pack_quantity AS k,
       (SELECT quantity FROM stock_levels s JOIN branches b ON b.id = s.branch_id WHERE s.part_id = p.id AND b.code = 'NGT') AS ngt,
       (SELECT quantity FROM stock_levels s JOIN branches b ON b.id = s.branch_id WHERE s.part_id = p.id AND b.code = 'RVS') AS rvs
-    FROM parts p JOIN prices pr ON pr.part_id = p.id AND pr.price_list_id = (SELECT id FROM price_lists WHERE status = 'active')
+    FROM parts p JOIN part_prices pr ON pr.part_id = p.id
     WHERE p.sku LIKE 'SY-%' ORDER BY p.id`], { encoding: 'utf8', maxBuffer: 512 * 1024 * 1024 })
   const catalogue = JSON.parse(dump.stdout) as CataloguePart[]
   // files and the floor first: the synchronous work here would otherwise stall this process's HTTP client
@@ -142,8 +147,10 @@ async function main() {
   const nodeArgs = (process.env.BENCH_SERVER_ARGS ?? '').split(' ').filter(Boolean) // e.g. --cpu-prof
   const server = spawn(process.execPath, [...serverNodeArgs(), ...nodeArgs, join(outDir, 'server/index.mjs')], { cwd: root, env, stdio: ['ignore', 'pipe', 'pipe'] })
   let log = ''
-  server.stdout!.on('data', (d) => { log = (log + d).slice(-20_000) })
-  server.stderr!.on('data', (d) => { log = (log + d).slice(-20_000) })
+  // BENCH_SERVER_LOG=<file>: the server's whole output goes there too (with DB_LOG=1, every statement and its time)
+  const keepLog = process.env.BENCH_SERVER_LOG
+  server.stdout!.on('data', (d) => { log = (log + d).slice(-20_000); if (keepLog) appendFileSync(keepLog, d) })
+  server.stderr!.on('data', (d) => { log = (log + d).slice(-20_000); if (keepLog) appendFileSync(keepLog, d) })
   server.on('exit', (code, signal) => { log += `\n[server exited: ${code ?? signal}]` })
   try {
     for (let i = 0; i < 240; i++) {
@@ -174,6 +181,7 @@ async function main() {
     let stop = false
     let samples: number[] = []
     let peakRss = 0
+    let overallPeak = 0
     const sampler = (async () => {
       for (;;) {
         if (sampling) {
@@ -192,6 +200,8 @@ async function main() {
       const content = readFileSync(path)
       samples = []
       sampling = true
+      const hwmBefore = vmStatus(server.pid!).hwm
+      resetPeak(server.pid!)
       const t0 = performance.now()
       const fd = new FormData()
       fd.append('supplierName', 'Bench Supplier')
@@ -213,6 +223,8 @@ async function main() {
       })
       const tApplied = performance.now()
       sampling = false
+      const peakBytes = vmStatus(server.pid!).hwm
+      overallPeak = Math.max(overallPeak, hwmBefore, peakBytes)
       const during = [...samples].sort((a, b) => a - b)
       let rollbackMs: number | null = null
       if (opts.rollback) {
@@ -224,6 +236,7 @@ async function main() {
         label, sizeMb: size / 1024 / 1024, counts: detail.counts,
         uploadMs: tUploaded - t0, previewMs: tPreview - t0, applyMs: tApplied - tA, rollbackMs,
         health: { n: during.length, p50: percentile(during, 50), p99: percentile(during, 99), max: during.at(-1) ?? NaN },
+        peakBytes,
       }
     }
 
@@ -231,7 +244,7 @@ async function main() {
     const a = await run(createCsv, 'A: 200k new parts', { rollback: false })
     stop = true
     await sampler
-    const hwm = vmStatus(server.pid!).hwm
+    const hwm = Math.max(overallPeak, vmStatus(server.pid!).hwm)
 
     const rows = [b, a].map((r, i) => {
       const imp = i === 0 ? importUpdate : importCreate
@@ -240,11 +253,11 @@ async function main() {
     const fmt = (ms: number) => `${(ms / 1000).toFixed(2)} s`
     console.log(`\nmachine: ${cpus().length} cores (${cpus()[0]?.model ?? '?'}), Node ${process.version}, sqlite3 CLI ${spawnSync('sqlite3', ['-version'], { encoding: 'utf8' }).stdout.split(' ')[0]}`)
     console.log(`rows per file: ${ROWS.toLocaleString('en-GB')}\n`)
-    console.log('| run | file | counts | upload | upload → preview | apply | preview + apply | sqlite3 .import | ratio | health p50 / p99 / max (n) |')
-    console.log('|---|---|---|---|---|---|---|---|---|---|')
+    console.log('| run | file | counts | upload | upload → preview | apply | preview + apply | sqlite3 .import | ratio | health p50 / p99 / max (n) | peak memory |')
+    console.log('|---|---|---|---|---|---|---|---|---|---|---|')
     for (const r of rows) {
       const c = r.counts
-      console.log(`| ${r.label} | ${r.sizeMb.toFixed(1)} MB | new ${c.new}, changed ${c.changed} (${c.large} > 30 %), unchanged ${c.unchanged}, refused ${c.rejected} | ${fmt(r.uploadMs)} | ${fmt(r.previewMs)} | ${fmt(r.applyMs)} | ${fmt(r.previewMs + r.applyMs)} | ${fmt(r.importMs)} | **${r.ratio.toFixed(1)}x** | ${r.health.p50.toFixed(0)} / **${r.health.p99.toFixed(0)}** / ${r.health.max.toFixed(0)} ms (${r.health.n}) |`)
+      console.log(`| ${r.label} | ${r.sizeMb.toFixed(1)} MB | new ${c.new}, changed ${c.changed} (${c.large} > 30 %), unchanged ${c.unchanged}, refused ${c.rejected} | ${fmt(r.uploadMs)} | ${fmt(r.previewMs)} | ${fmt(r.applyMs)} | ${fmt(r.previewMs + r.applyMs)} | ${fmt(r.importMs)} | **${r.ratio.toFixed(1)}x** | ${r.health.p50.toFixed(0)} / **${r.health.p99.toFixed(0)}** / ${r.health.max.toFixed(0)} ms (${r.health.n}) | ${(r.peakBytes / 1024 / 1024).toFixed(0)} MB |`)
     }
     console.log(`\nroll back of run B: ${fmt(b.rollbackMs!)}`)
     const mb = (b: number) => `${(b / 1024 / 1024).toFixed(0)} MB`

@@ -234,7 +234,7 @@ async function main() {
   function list_id() { return list!.id }
   await insertAll(db, 'parts', ['id', 'sku', 'type', 'product_line', 'description', 'specs', 'status', 'created_at', 'updated_at'], partRows, 500)
   await insertAll(db, 'part_oe_numbers', ['part_id', 'oe_number', 'oe_normalised', 'maker'], oeRows)
-  await insertAll(db, 'prices', ['price_list_id', 'part_id', 'list_price_minor', 'trade_cost_minor', 'core_deposit_minor', 'pack_quantity'], priceRows)
+  await insertAll(db, 'part_prices', ['price_list_id', 'part_id', 'list_price_minor', 'trade_cost_minor', 'core_deposit_minor', 'pack_quantity'], priceRows)
   await insertAll(db, 'stock_levels', ['part_id', 'branch_id', 'quantity', 'updated_at'], stockRows)
   await insertAll(db, 'supersessions', ['old_sku', 'new_part_id', 'note', 'created_at'], supRows)
   console.log(`parts: ${partRows.length}, OE numbers: ${oeRows.length}, supersessions: ${supRows.length} in ${((Date.now() - t0) / 1000).toFixed(1)} s`)

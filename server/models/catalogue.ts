@@ -137,13 +137,14 @@ export class PriceList extends Model<InferAttributes<PriceList>, InferCreationAt
   declare updatedAt: CreationOptional<Date>
 }
 
-export class Price extends Model<InferAttributes<Price>, InferCreationAttributes<Price>> {
-  declare priceListId: number
+/** The price of a part in use now (one row per part), with the version that last set it. */
+export class CurrentPrice extends Model<InferAttributes<CurrentPrice>, InferCreationAttributes<CurrentPrice>> {
   declare partId: number
   declare listPriceMinor: number
   declare tradeCostMinor: CreationOptional<number | null>
   declare coreDepositMinor: CreationOptional<number>
   declare packQuantity: CreationOptional<number>
+  declare priceListId: number
 }
 
 const id = { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true }
@@ -182,10 +183,10 @@ export function initCatalogueModels(sequelize: Sequelize): void {
   PriceList.init({
     id, version: INTEGER, label: STRING, status: STRING, effectiveAt: DATE, activatedAt: DATE, createdByUserId: INTEGER, ...stamps,
   }, { sequelize, tableName: 'price_lists' })
-  Price.init({
-    priceListId: { type: INTEGER, primaryKey: true }, partId: { type: INTEGER, primaryKey: true },
-    listPriceMinor: INTEGER, tradeCostMinor: INTEGER, coreDepositMinor: INTEGER, packQuantity: INTEGER,
-  }, { sequelize, tableName: 'prices', timestamps: false })
+  CurrentPrice.init({
+    partId: { type: INTEGER, primaryKey: true },
+    listPriceMinor: INTEGER, tradeCostMinor: INTEGER, coreDepositMinor: INTEGER, packQuantity: INTEGER, priceListId: INTEGER,
+  }, { sequelize, tableName: 'part_prices', timestamps: false })
 
   Vehicle.hasMany(VehicleOption, { as: 'options', foreignKey: 'vehicleId' })
   Vehicle.hasMany(VehicleBrake, { as: 'brakes', foreignKey: 'vehicleId' })
@@ -195,7 +196,7 @@ export function initCatalogueModels(sequelize: Sequelize): void {
   Part.hasMany(Fitment, { as: 'fitments', foreignKey: 'partId' })
   Part.hasMany(PartOeNumber, { as: 'oeNumbers', foreignKey: 'partId' })
   Part.hasMany(StockLevel, { as: 'stock', foreignKey: 'partId' })
-  Part.hasMany(Price, { as: 'prices', foreignKey: 'partId' })
+  Part.hasOne(CurrentPrice, { as: 'price', foreignKey: 'partId' })
   Supersession.belongsTo(Part, { as: 'newPart', foreignKey: 'newPartId' })
-  Price.belongsTo(PriceList, { as: 'priceList', foreignKey: 'priceListId' })
+  CurrentPrice.belongsTo(PriceList, { as: 'priceList', foreignKey: 'priceListId' })
 }

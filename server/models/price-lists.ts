@@ -1,11 +1,10 @@
 /**
- * Price-file models: an upload with its check, the staged rows the check produced, and column mappings
- * remembered per supplier. JSON columns (`headers`, `mapping`, `stock`, `raw`) are text, exposed parsed.
- * The heavy work (staging 200,000 rows, applying a version) runs as batched SQL in
- * server/services/price-lists, not through these models.
+ * Price-file models: an upload with its check, and column mappings remembered per supplier. JSON columns
+ * (`headers`, `mapping`) are text, exposed parsed. What a check found lives in `price_upload_findings`, written
+ * and read as JSON chunks by server/services/price-lists/findings.ts (no model: never one row at a time).
  */
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
-import type { ChangeKind, ColumnMapping, MissingAction, UploadStatus } from '../../shared/types/price-lists'
+import type { ColumnMapping, MissingAction, UploadStatus } from '../../shared/types/price-lists'
 
 const json = (field: string, fallback: unknown) => ({
   type: DataTypes.TEXT,
@@ -57,32 +56,6 @@ export class PriceUpload extends Model<InferAttributes<PriceUpload>, InferCreati
   declare updatedAt: CreationOptional<Date>
 }
 
-export class PriceUploadRow extends Model<InferAttributes<PriceUploadRow>, InferCreationAttributes<PriceUploadRow>> {
-  declare id: CreationOptional<number>
-  declare uploadId: number
-  declare kind: ChangeKind
-  declare rowNumber: number | null
-  declare sku: string | null
-  declare partId: number | null
-  declare partType: string | null
-  declare description: string | null
-  declare oldListMinor: number | null
-  declare newListMinor: number | null
-  declare oldTradeMinor: number | null
-  declare newTradeMinor: number | null
-  declare oldCoreMinor: number | null
-  declare newCoreMinor: number | null
-  declare oldPack: number | null
-  declare newPack: number | null
-  declare changePct: number | null
-  declare large: boolean
-  declare stock: Record<string, number> | null
-  declare columns: string | null
-  declare reason: string | null
-  declare raw: Record<string, string> | null
-  declare partStatusChange: string | null
-}
-
 export class PriceColumnMapping extends Model<InferAttributes<PriceColumnMapping>, InferCreationAttributes<PriceColumnMapping>> {
   declare id: CreationOptional<number>
   declare supplierKey: string
@@ -97,7 +70,7 @@ export class PriceColumnMapping extends Model<InferAttributes<PriceColumnMapping
 
 const id = { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true }
 const stamps = { createdAt: DataTypes.DATE, updatedAt: DataTypes.DATE }
-const { INTEGER, STRING, FLOAT, BOOLEAN, DATE, TEXT } = DataTypes
+const { INTEGER, STRING, BOOLEAN, DATE, TEXT } = DataTypes
 
 export function initPriceListModels(sequelize: Sequelize): void {
   PriceUpload.init({
@@ -112,17 +85,9 @@ export function initPriceListModels(sequelize: Sequelize): void {
     createdByUserId: INTEGER, appliedByUserId: INTEGER, appliedAt: DATE,
     rolledBackByUserId: INTEGER, rolledBackAt: DATE, ...stamps,
   }, { sequelize, tableName: 'price_uploads' })
-  PriceUploadRow.init({
-    id, uploadId: INTEGER, kind: STRING, rowNumber: INTEGER, sku: STRING, partId: INTEGER, partType: STRING,
-    description: STRING, oldListMinor: INTEGER, newListMinor: INTEGER, oldTradeMinor: INTEGER, newTradeMinor: INTEGER,
-    oldCoreMinor: INTEGER, newCoreMinor: INTEGER, oldPack: INTEGER, newPack: INTEGER, changePct: FLOAT,
-    large: BOOLEAN, stock: json('stock', null), columns: STRING, reason: TEXT, raw: json('raw', null),
-    partStatusChange: STRING,
-  }, { sequelize, tableName: 'price_upload_rows', timestamps: false })
   PriceColumnMapping.init({
     id, supplierKey: STRING, supplierName: STRING, mapping: json('mapping', {}), delimiter: STRING,
     decimalMark: STRING, updatedByUserId: INTEGER, ...stamps,
   }, { sequelize, tableName: 'price_column_mappings' })
 
-  PriceUpload.hasMany(PriceUploadRow, { as: 'rows', foreignKey: 'uploadId' })
 }

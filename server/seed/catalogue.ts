@@ -7,7 +7,7 @@
 import type { Transaction } from 'sequelize'
 import { Branch, Organisation } from '../models/accounts'
 import {
-  Fitment, Part, PartOeNumber, Price, PriceList, StockLevel, Supersession, Vehicle, VehicleBrake, VehicleOption,
+  Fitment, Part, PartOeNumber, CurrentPrice, PriceList, StockLevel, Supersession, Vehicle, VehicleBrake, VehicleOption,
 } from '../models/catalogue'
 import { normaliseIdentifier, parseSpecs } from '../../shared/schemas/parts'
 import { buildCatalogue, BORE_MISMATCH } from './catalogue-data'
@@ -112,16 +112,14 @@ export async function seedCatalogue(t: Transaction, log: (s: string) => void): P
       effectiveAt: new Date('2026-10-01T00:00:00Z'), activatedAt: new Date('2026-10-01T00:00:00Z'),
     }, opts)
   }
-  const pricedLists = [list.id]
+  // prices in use: one row per part, set by the version that is active (demo parts not priced yet get one)
   const activeList = await PriceList.findOne({ where: { status: 'active' }, ...opts })
-  if (activeList && activeList.id !== list.id) pricedLists.push(activeList.id) // every version is a complete copy
-  for (const plId of pricedLists) {
-    const havePrice = new Set((await Price.findAll({ where: { priceListId: plId }, attributes: ['partId'], ...opts })).map((p) => p.partId))
-    const newPrices = data.parts.filter((p) => !havePrice.has(partIds.get(p.sku)!)).map((p) => ({
-      priceListId: plId, partId: partIds.get(p.sku)!, listPriceMinor: p.listPriceMinor, tradeCostMinor: p.tradeCostMinor, coreDepositMinor: p.coreDepositMinor, packQuantity: 1,
-    }))
-    for (let i = 0; i < newPrices.length; i += 500) await Price.bulkCreate(newPrices.slice(i, i + 500), opts)
-  }
+  const setBy = (activeList ?? list).id
+  const havePrice = new Set((await CurrentPrice.findAll({ attributes: ['partId'], ...opts })).map((p) => p.partId))
+  const newPrices = data.parts.filter((p) => !havePrice.has(partIds.get(p.sku)!)).map((p) => ({
+    partId: partIds.get(p.sku)!, listPriceMinor: p.listPriceMinor, tradeCostMinor: p.tradeCostMinor, coreDepositMinor: p.coreDepositMinor, packQuantity: 1, priceListId: setBy,
+  }))
+  for (let i = 0; i < newPrices.length; i += 500) await CurrentPrice.bulkCreate(newPrices.slice(i, i + 500), opts)
 
   // one demo garage lets its technicians see trade prices
   await Organisation.update({ techniciansSeePrices: true }, { where: { name: DEMO_GARAGE_TECHNICIANS_SEE_PRICES, kind: 'garage', techniciansSeePrices: false }, ...opts })

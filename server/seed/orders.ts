@@ -47,7 +47,7 @@ async function pickParts(t: Transaction, branchId: number, withDeposit: boolean,
   if (count === 0) return []
   const rows = await getDb().query(
     `SELECT p.sku FROM parts p
-       JOIN prices pr ON pr.part_id = p.id AND pr.price_list_id = (SELECT id FROM price_lists WHERE status = 'active' ORDER BY id DESC LIMIT 1)
+       JOIN part_prices pr ON pr.part_id = p.id
        JOIN stock_levels s ON s.part_id = p.id AND s.branch_id = :branchId
      WHERE p.status = 'active' AND s.quantity >= 6 AND ${withDeposit ? 'pr.core_deposit_minor > 0' : "pr.core_deposit_minor = 0 AND p.type IN ('pad_set', 'disc', 'shoe_set', 'fluid', 'hose')"}
      ORDER BY p.sku LIMIT :count OFFSET :skip`,

@@ -4,7 +4,7 @@
  */
 import { Op, type Transaction } from 'sequelize'
 import { DiscountTier, type Organisation } from '../models/accounts'
-import { Part, Price, PriceList } from '../models/catalogue'
+import { CurrentPrice, Part, PriceList } from '../models/catalogue'
 import { netPriceMinor } from '../../shared/utils/money'
 
 export interface PartPrice {
@@ -39,7 +39,7 @@ export async function garagePrices(org: Pick<Organisation, 'tierId'>, skus: stri
   const bp = await tierBpOf(org, t)
   const parts = await Part.findAll({ where: { sku: { [Op.in]: [...new Set(skus)] } }, transaction: t })
   if (!parts.length) return out
-  const prices = await Price.findAll({ where: { priceListId: list.id, partId: { [Op.in]: parts.map((p) => p.id) } }, transaction: t })
+  const prices = await CurrentPrice.findAll({ where: { partId: { [Op.in]: parts.map((p) => p.id) } }, transaction: t })
   const byPart = new Map(prices.map((p) => [p.partId, p]))
   for (const part of parts) {
     const price = byPart.get(part.id)

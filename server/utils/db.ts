@@ -50,7 +50,9 @@ export function getDb(): Sequelize {
     dialect: 'sqlite',
     storage,
     dialectModule,
-    logging: process.env.DB_LOG === '1' ? console.log : false,
+    // DB_LOG=1: every statement with its time in ms (diagnostics, benchmarks)
+    logging: process.env.DB_LOG === '1' ? (sql: string, ms?: number) => console.log(`[db ${ms ?? '?'} ms] ${sql.slice(0, 300)}`) : false,
+    benchmark: process.env.DB_LOG === '1',
     define: { underscored: true, timestamps: true },
     pool: { max: 1, min: 0, idle: 10_000 },
     retry: { max: 3 },

@@ -25,16 +25,17 @@ async function one<T = Record<string, unknown>>(sql: string, params: unknown[] =
 
 interface PriceRow { part_id: number; list_price_minor: number; trade_cost_minor: number | null; core_deposit_minor: number; pack_quantity: number }
 const activeList = () => one<{ id: number; version: number }>(`SELECT id, version FROM price_lists WHERE status = 'active'`)
-const pricesOf = (listId: number) => all<PriceRow>(
-  'SELECT part_id, list_price_minor, trade_cost_minor, core_deposit_minor, pack_quantity FROM prices WHERE price_list_id = ? ORDER BY part_id', [listId])
+/** The prices in use (one row per part); `_listId` names the version they should be, for the reader. */
+const pricesOf = (_listId: number) => all<PriceRow>(
+  'SELECT part_id, list_price_minor, trade_cost_minor, core_deposit_minor, pack_quantity FROM part_prices ORDER BY part_id')
+const setBy = () => all<{ part_id: number; price_list_id: number }>('SELECT part_id, price_list_id FROM part_prices ORDER BY part_id')
 
 /** Demo parts that are active and priced in the active version, in a stable order. */
 async function demoParts(n: number, offset = 0) {
-  const list = await activeList()
   return all<{ id: number; sku: string; list: number; trade: number | null; core: number; pack: number }>(
     `SELECT p.id, p.sku, pr.list_price_minor AS list, pr.trade_cost_minor AS trade, pr.core_deposit_minor AS core, pr.pack_quantity AS pack
-       FROM parts p JOIN prices pr ON pr.part_id = p.id AND pr.price_list_id = ?
-      WHERE p.status = 'active' AND p.sku NOT LIKE 'PLT-%' ORDER BY p.id LIMIT ? OFFSET ?`, [list.id, n, offset])
+       FROM parts p JOIN part_prices pr ON pr.part_id = p.id
+      WHERE p.status = 'active' AND p.sku NOT LIKE 'PLT-%' ORDER BY p.id LIMIT ? OFFSET ?`, [n, offset])
 }
 
 const money = (minor: number, mark: '.' | ',' = '.') => (minor / 100).toFixed(2).replace('.', mark)
@@ -389,6 +390,7 @@ describe('apply and roll back', () => {
   it('applies a complete new version atomically, and rolling back restores every price exactly', async () => {
     const start = await activeList()
     const before = await pricesOf(start.id)
+    const setByBefore = await setBy()
     const statusBefore = await all<{ id: number; status: string }>('SELECT id, status FROM parts ORDER BY id')
     const parts = await demoParts(40)
     const branches = await all<{ id: number; code: string }>('SELECT id, code FROM branches ORDER BY code')
@@ -406,7 +408,7 @@ describe('apply and roll back', () => {
       expect(now.id).toBe(applied.body.priceListId)
       const after = await pricesOf(now.id)
       const byPart = new Map(after.map((r) => [r.part_id, r]))
-      // a complete copy: every part priced before is priced now, plus the new part
+      // every part priced before is priced now, plus the new part; the file's parts by the new version
       expect(after.length).toBe(before.length + 1)
       parts.forEach((p, i) => {
         expect(byPart.get(p.id)).toEqual({
@@ -424,10 +426,16 @@ describe('apply and roll back', () => {
       const stock = await one<{ quantity: number }>('SELECT quantity FROM stock_levels WHERE part_id = ? AND branch_id = ?', [parts[7]!.id, ngt.id])
       expect(stock.quantity).toBe(57)
       // missing parts were marked discontinued
-      const missing = await one<{ n: number }>(`SELECT COUNT(*) AS n FROM parts WHERE status = 'discontinued' AND id IN (SELECT part_id FROM price_upload_rows WHERE upload_id = ? AND kind = 'missing')`, [d.id])
+      const missing = await one<{ n: number }>(`SELECT COUNT(*) AS n FROM parts WHERE status = 'discontinued'
+        AND id IN (SELECT j.value->>2 FROM price_upload_findings f, json_each(f.rows) j WHERE f.upload_id = ? AND f.kind = 'missing')`, [d.id])
       expect(missing.n).toBe(d.counts.missing)
-      // the old version's rows are untouched
-      expect(await pricesOf(start.id)).toEqual(before)
+      const setByNow = new Map((await setBy()).map((r) => [r.part_id, r.price_list_id]))
+      for (const p of parts) expect(setByNow.get(p.id)).toBe(now.id)
+      // what the apply replaced is on record, one entry per changed part, as it was before
+      const replaced = await one<{ size: number; rows: string }>(`SELECT size, rows FROM price_upload_findings WHERE upload_id = ? AND kind = 'before'`, [d.id])
+      expect(replaced.size).toBe(40)
+      const oldOf = new Map(before.map((r) => [r.part_id, r]))
+      for (const [partId, list] of JSON.parse(replaced.rows) as number[][]) expect(list).toBe(oldOf.get(partId!)!.list_price_minor)
       // audit and the admins' summary
       const entry = await one<{ action: string; changes: string }>(`SELECT action, changes FROM audit_log WHERE action = 'priceList.apply' AND entity_id = ? `, [String(now.id)])
       expect(JSON.parse(entry.changes)).toMatchObject({ uploadId: d.id, version: now.version, changed: 40, new: 1 })
@@ -443,6 +451,7 @@ describe('apply and roll back', () => {
     const back = await activeList()
     expect(back.id).toBe(start.id)
     expect(await pricesOf(back.id)).toEqual(before)
+    expect(await setBy()).toEqual(setByBefore) // even which version set each price
     // part statuses as they were, except our own new part which is out of use again
     const statusAfter = new Map((await all<{ id: number; status: string }>('SELECT id, status FROM parts ORDER BY id')).map((r) => [r.id, r.status]))
     for (const s of statusBefore) expect(statusAfter.get(s.id)).toBe(s.status)
@@ -512,7 +521,7 @@ describe('apply and roll back', () => {
     expect(loser.body.message).toMatch(/changed after this file was checked.*Check the file again/)
     const winner = ra.status === 200 ? a : b
     const now = await activeList()
-    const priceOf = async (partId: number) => (await one<{ l: number }>('SELECT list_price_minor AS l FROM prices WHERE price_list_id = ? AND part_id = ?', [now.id, partId])).l
+    const priceOf = async (partId: number) => (await one<{ l: number; v: number }>('SELECT list_price_minor AS l, price_list_id AS v FROM part_prices WHERE part_id = ?', [partId])).l
     // exactly one file's change is in the version in use, never both
     expect([await priceOf(p!.id), await priceOf(q!.id)]).toEqual(winner === a ? [p!.list + 3, q!.list] : [p!.list, q!.list + 4])
     expect((await rollback(counter, winner.id)).status).toBe(200)
@@ -550,7 +559,7 @@ describe('apply and roll back', () => {
       expect(detail.status).toBe('applied')
       const now = await activeList()
       expect(now.version).toBe(soon.body.version)
-      expect((await one<{ list_price_minor: number }>('SELECT list_price_minor FROM prices WHERE price_list_id = ? AND part_id = ?', [now.id, p!.id])).list_price_minor).toBe(p!.list + 11)
+      expect(await one('SELECT list_price_minor, price_list_id FROM part_prices WHERE part_id = ?', [p!.id])).toEqual({ list_price_minor: p!.list + 11, price_list_id: now.id })
     } finally {
       const detail = (await counter.get(`/api/price-lists/${d.id}`)).body
       if (detail.status === 'scheduled' || detail.status === 'applied') expect((await rollback(counter, d.id)).status).toBe(200)

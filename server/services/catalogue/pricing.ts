@@ -91,14 +91,14 @@ export function priceFields(view: PriceView, price: StoredPrice | null | undefin
   return { listPriceMinor: price.listPriceMinor, netPriceMinor: netPriceMinor(price.listPriceMinor, view.discountBp), coreDepositMinor: price.coreDepositMinor }
 }
 
-/** Prices of these parts in a price list. */
+/** Prices in use of these parts (`priceListId`: the active version; nothing is priced without one). */
 export async function pricesFor(priceListId: number | undefined, partIds: number[]): Promise<Map<number, StoredPrice>> {
   const out = new Map<number, StoredPrice>()
   if (!priceListId || !partIds.length) return out
   const rows = await getDb().query<{ partId: number } & StoredPrice>(
     `SELECT part_id AS partId, list_price_minor AS listPriceMinor, trade_cost_minor AS tradeCostMinor, core_deposit_minor AS coreDepositMinor
-       FROM prices WHERE price_list_id = :pl AND part_id IN (:ids)`,
-    { type: QueryTypes.SELECT, replacements: { pl: priceListId, ids: partIds } },
+       FROM part_prices WHERE part_id IN (:ids)`,
+    { type: QueryTypes.SELECT, replacements: { ids: partIds } },
   )
   for (const r of rows) out.set(r.partId, { listPriceMinor: r.listPriceMinor, tradeCostMinor: r.tradeCostMinor, coreDepositMinor: r.coreDepositMinor })
   return out

@@ -87,7 +87,7 @@ async function buildBase(vehicleId: number, priceListId: number | null, priceLis
             pr.list_price_minor AS listPriceMinor, pr.trade_cost_minor AS tradeCostMinor, pr.core_deposit_minor AS coreDepositMinor
        FROM fitments f
        JOIN parts p ON p.id = f.part_id AND p.status = 'active'
-       LEFT JOIN prices pr ON pr.part_id = p.id AND pr.price_list_id = :pl
+       LEFT JOIN part_prices pr ON pr.part_id = p.id AND :pl > 0
       WHERE f.vehicle_id = :v`,
     { type: QueryTypes.SELECT, replacements: { v: vehicleId, pl: priceListId ?? -1 } },
   )

@@ -1,11 +1,13 @@
 /**
  * Applying a checked price file and rolling it back, each in ONE write transaction (all rows or none).
  *
- * A new version is a complete copy: every part the file prices gets the file's values, every other part the
- * values of the version the check compared against (so rolling back = making the previous version active
- * again, exactly). Parts, stock and version status change in the same transaction; if anything throws, the
- * previous version stays active and untouched. Bulk work is a handful of INSERT … SELECT statements over
- * the staged rows, not one ORM call per row, so even 200,000 rows hold the write lock briefly.
+ * The prices in use live in `part_prices`, one row per part. A new version is the file's findings over the
+ * version before it: the apply first records, from the rows it is about to change, the values they hold
+ * (`before`), then writes the file's values for the parts that are new or whose prices move, and records the part
+ * statuses it changes. Rolling back writes `before` back and undoes those statuses, so the previous version's
+ * prices return exactly. Parts, prices, stock and version status change in the same transaction; if anything
+ * throws, the previous version stays active and untouched. Bulk work is a handful of set-based statements reading
+ * the findings inside SQLite (`json_each`), so even 200,000 rows hold the write lock briefly.
  *
  * Apply, schedule and rollback also refuse to mix files: a file checked against a version that is no longer
  * active must be checked again, and while a version is scheduled no other file is applied.
@@ -21,6 +23,7 @@ import { PriceList } from '../../models/catalogue'
 import { PriceUpload } from '../../models/price-lists'
 import type { MissingAction } from '../../../shared/types/price-lists'
 import { activePriceListId, storedPath } from './check'
+import { F, col, deleteFindings, findingsOf } from './findings'
 
 /** SQLite text for a date in the form Sequelize writes (so models read raw-SQL rows back alike). */
 export function sqlDate(d: Date): string {
@@ -122,53 +125,56 @@ async function reserveVersion(t: Transaction, up: PriceUpload, userId: number, e
 }
 
 /**
- * Writes the version's rows and makes it active, inside the caller's transaction. `list` is a reserved
+ * Writes the version's prices and makes it active, inside the caller's transaction. `list` is a reserved
  * row (status scheduled). Returns the id that was active before.
  */
 async function buildVersion(t: Transaction, up: PriceUpload, list: PriceList, opts: { missingParts: MissingAction; failMidway?: boolean }): Promise<number | null> {
   const q = (sql: string, bind: unknown[]) => getDb().query(sql, { bind, transaction: t })
   const now = sqlDate(new Date())
   const u = up.id
-  const base = up.basePriceListId ?? -1
+  await deleteFindings(t, u, APPLY_RECORDS) // left by an earlier apply of this file that was rolled back or failed
 
   // a part added by hand since the check would collide with a "new" row: refuse rather than guess
   const [clash] = await getDb().query<{ sku: string }>(
-    `SELECT r.sku FROM price_upload_rows r JOIN parts p ON p.sku = r.sku WHERE r.upload_id = $1 AND r.kind = 'new' LIMIT 1`,
+    `SELECT p.sku FROM ${findingsOf(['new'])} f JOIN parts p ON p.sku = ${col('sku')} LIMIT 1`,
     { bind: [u], type: QueryTypes.SELECT, transaction: t },
   )
   if (clash) throw refuse(409, `A part with SKU ${clash.sku} was added to the catalogue after this file was checked. Check the file again before applying it.`)
 
+  // the prices about to be replaced, as they are now (not as the check saw them): rolling back writes these back
+  await q(`INSERT INTO price_upload_findings (upload_id, kind, seq, size, rows)
+           SELECT $1, 'before', 0, COUNT(*), COALESCE(json_group_array(CASE WHEN pp.part_id IS NULL THEN json_array(x.id)
+                  ELSE json_array(x.id, pp.list_price_minor, pp.trade_cost_minor, pp.core_deposit_minor, pp.pack_quantity, pp.price_list_id) END), '[]')
+             FROM (SELECT f.v->>0 AS id FROM ${findingsOf(['prices'])} f) x LEFT JOIN part_prices pp ON pp.part_id = x.id`, [u])
+
   await q(`INSERT INTO parts (sku, type, product_line, description, specs, status, created_at, updated_at)
-           SELECT sku, part_type, '', description, '{}', 'active', $2, $2 FROM price_upload_rows WHERE upload_id = $1 AND kind = 'new'`, [u, now])
-  await q(`UPDATE price_upload_rows SET part_id = (SELECT p.id FROM parts p WHERE p.sku = price_upload_rows.sku), part_status_change = 'created'
-            WHERE upload_id = $1 AND kind = 'new'`, [u])
-  // the file's rows
-  await q(`INSERT INTO prices (price_list_id, part_id, list_price_minor, trade_cost_minor, core_deposit_minor, pack_quantity)
-           SELECT $2, part_id, new_list_minor, new_trade_minor, new_core_minor, new_pack
-             FROM price_upload_rows WHERE upload_id = $1 AND kind IN ('new', 'changed', 'unchanged')`, [u, list.id])
-  // every other part keeps exactly what the compared version gave it (missing, refused, discontinued parts)
-  await q(`INSERT INTO prices (price_list_id, part_id, list_price_minor, trade_cost_minor, core_deposit_minor, pack_quantity)
-           SELECT $2, pr.part_id, pr.list_price_minor, pr.trade_cost_minor, pr.core_deposit_minor, pr.pack_quantity
-             FROM prices pr
-            WHERE pr.price_list_id = $3
-              AND NOT EXISTS (SELECT 1 FROM price_upload_rows r
-                               WHERE r.upload_id = $1 AND r.part_id = pr.part_id AND r.kind IN ('new', 'changed', 'unchanged'))`, [u, list.id, base])
+           SELECT ${col('sku')}, ${col('type')}, '', ${col('description')}, '{}', 'active', $2, $2 FROM ${findingsOf(['new'])} f`, [u, now])
+  await record(t, u, 'created', `SELECT p.id FROM ${findingsOf(['new'])} f JOIN parts p ON p.sku = ${col('sku')}`)
+
+  // the file's prices, for the parts whose prices move ('prices': [partId, list, trade, core, pack]) and the new parts
+  await q(`INSERT INTO part_prices (part_id, list_price_minor, trade_cost_minor, core_deposit_minor, pack_quantity, price_list_id)
+           SELECT f.v->>0, f.v->>1, f.v->>2, COALESCE(f.v->>3, 0), COALESCE(f.v->>4, 1), $2 FROM ${findingsOf(['prices'])} f
+           UNION ALL
+           SELECT p.id, ${col('newList')}, ${col('newTrade')}, COALESCE(${col('newCore')}, 0), COALESCE(${col('newPack')}, 1), $2
+             FROM ${findingsOf(['new'])} f JOIN parts p ON p.sku = ${col('sku')} WHERE true
+           ON CONFLICT (part_id) DO UPDATE SET list_price_minor = excluded.list_price_minor, trade_cost_minor = excluded.trade_cost_minor,
+             core_deposit_minor = excluded.core_deposit_minor, pack_quantity = excluded.pack_quantity, price_list_id = excluded.price_list_id`, [u, list.id])
+
   if (opts.missingParts === 'discontinue') {
-    await q(`UPDATE price_upload_rows SET part_status_change = 'discontinued'
-              WHERE upload_id = $1 AND kind = 'missing' AND part_id IN (SELECT id FROM parts WHERE status = 'active')`, [u])
-    await q(`UPDATE parts SET status = 'discontinued', updated_at = $2
-              WHERE id IN (SELECT part_id FROM price_upload_rows WHERE upload_id = $1 AND part_status_change = 'discontinued')`, [u, now])
+    await record(t, u, 'discontinued', `SELECT p.id FROM parts p WHERE p.status = 'active' AND p.id IN (SELECT ${col('partId')} FROM ${findingsOf(['missing'])} f)`)
+    await q(`UPDATE parts SET status = 'discontinued', updated_at = $2 WHERE id IN (${recorded('discontinued')})`, [u, now])
   }
   // discontinued parts that the file prices again are back in use
-  await q(`UPDATE price_upload_rows SET part_status_change = 'reactivated'
-            WHERE upload_id = $1 AND kind IN ('changed', 'unchanged') AND part_id IN (SELECT id FROM parts WHERE status = 'discontinued')`, [u])
-  await q(`UPDATE parts SET status = 'active', updated_at = $2
-            WHERE id IN (SELECT part_id FROM price_upload_rows WHERE upload_id = $1 AND part_status_change = 'reactivated')`, [u, now])
-  // stock per branch, for the rows that give it (counts that did not move are not rewritten)
+  await record(t, u, 'reactivated', `SELECT p.id FROM parts p WHERE p.status = 'discontinued' AND p.id IN (SELECT f.v FROM ${findingsOf(['revive'])} f)`)
+  await q(`UPDATE parts SET status = 'active', updated_at = $2 WHERE id IN (${recorded('reactivated')})`, [u, now])
+  // stock per branch: the counts the check found moving ('stock': [partId, { branch: count }]) and the new parts' counts
   await q(`INSERT INTO stock_levels (part_id, branch_id, quantity, updated_at)
-           SELECT r.part_id, b.id, CAST(j.value AS INTEGER), $2
-             FROM price_upload_rows r, json_each(r.stock) j JOIN branches b ON b.code = j.key
-            WHERE r.upload_id = $1 AND r.kind IN ('new', 'changed', 'unchanged') AND r.stock IS NOT NULL
+           SELECT x.id, b.id, CAST(s.value AS INTEGER), $2
+             FROM (SELECT f.v->>0 AS id, f.v->'$[1]' AS stock FROM ${findingsOf(['stock'])} f
+                   UNION ALL
+                   SELECT p.id AS id, f.v->'$[${F.stock}]' AS stock FROM ${findingsOf(['new'])} f JOIN parts p ON p.sku = ${col('sku')}
+                    WHERE ${col('stock')} IS NOT NULL) x, json_each(x.stock) s JOIN branches b ON b.code = s.key
+            WHERE true
            ON CONFLICT (part_id, branch_id) DO UPDATE SET quantity = excluded.quantity, updated_at = excluded.updated_at
              WHERE stock_levels.quantity <> excluded.quantity`, [u, now])
 
@@ -178,6 +184,19 @@ async function buildVersion(t: Transaction, up: PriceUpload, list: PriceList, op
   await q(`UPDATE price_lists SET status = 'retired', updated_at = $1 WHERE status = 'active'`, [now])
   await q(`UPDATE price_lists SET status = 'active', activated_at = $2, updated_at = $2 WHERE id = $1`, [list.id, now])
   return previous
+}
+
+/** What an apply records for its roll back. */
+const APPLY_RECORDS = ['before', 'created', 'discontinued', 'reactivated']
+
+/** Records the part ids `select` returns under `kind` (one chunk). */
+async function record(t: Transaction, uploadId: number, kind: string, select: string): Promise<void> {
+  await getDb().query(`INSERT INTO price_upload_findings (upload_id, kind, seq, size, rows)
+                       SELECT $1, '${kind}', 0, COUNT(*), COALESCE(json_group_array(x.id), '[]') FROM (${select}) x`, { bind: [uploadId], transaction: t })
+}
+/** SQL for the part ids recorded under `kind` for the upload bound as $1. */
+function recorded(kind: string): string {
+  return `SELECT r.value FROM price_upload_findings f, json_each(f.rows) r WHERE f.upload_id = $1 AND f.kind = '${kind}'`
 }
 
 /** Apply now, or schedule when `effectiveAt` is more than a few seconds ahead. */
@@ -228,7 +247,8 @@ export async function applyUpload(req: ApplyRequest): Promise<ApplyOutcome> {
       })
       return { status: 'applied' as const, uploadId: up.id, priceListId: list.id, version: list.version, effectiveAt: null }
     })
-    await afterApply(req.uploadId)
+    // the stored file goes and the admins' summary is sent after the answer: neither can undo the apply
+    afterApply(req.uploadId).catch((e) => console.error('[boreline] after-apply work failed:', e))
     return outcome
   } catch (err) {
     const message = (err as { statusCode?: number }).statusCode
@@ -294,11 +314,16 @@ export async function rollbackUpload(uploadId: number, userId: number, opts: { f
     await q(`UPDATE price_lists SET status = 'retired', updated_at = $2 WHERE id = $1`, [list.id, now])
     if (opts.failMidway) throw new Error('test hook: rollback stopped midway')
     await q(`UPDATE price_lists SET status = 'active', activated_at = $2, updated_at = $2 WHERE id = $1`, [prev.id, now])
-    await q(`UPDATE parts SET status = 'active', updated_at = $2
-              WHERE id IN (SELECT part_id FROM price_upload_rows WHERE upload_id = $1 AND part_status_change = 'discontinued')`, [up.id, now])
+    // the prices this file replaced, exactly as they were; parts it priced for the first time lose that price
+    const before = `(SELECT r.value AS v FROM price_upload_findings f, json_each(f.rows) r WHERE f.upload_id = $1 AND f.kind = 'before')`
+    await q(`UPDATE part_prices SET list_price_minor = b.v->>1, trade_cost_minor = b.v->>2, core_deposit_minor = b.v->>3,
+                    pack_quantity = b.v->>4, price_list_id = b.v->>5
+               FROM ${before} b WHERE part_prices.part_id = b.v->>0 AND json_array_length(b.v) > 1`, [up.id])
+    await q(`DELETE FROM part_prices WHERE part_id IN (SELECT b.v->>0 FROM ${before} b WHERE json_array_length(b.v) = 1)
+                OR part_id IN (${recorded('created')})`, [up.id])
+    await q(`UPDATE parts SET status = 'active', updated_at = $2 WHERE id IN (${recorded('discontinued')})`, [up.id, now])
     // parts this file created or brought back have no price in the earlier version: out of use again
-    await q(`UPDATE parts SET status = 'discontinued', updated_at = $2
-              WHERE id IN (SELECT part_id FROM price_upload_rows WHERE upload_id = $1 AND part_status_change IN ('created', 'reactivated'))`, [up.id, now])
+    await q(`UPDATE parts SET status = 'discontinued', updated_at = $2 WHERE id IN (${recorded('created')}) OR id IN (${recorded('reactivated')})`, [up.id, now])
     await up.update({ status: 'rolled_back', rolledBackAt: new Date(), rolledBackByUserId: userId }, { transaction: t })
     await audit(t, {
       actorUserId: userId, action: 'priceList.rollback', entity: 'price_list', entityId: list.id,

@@ -1,9 +1,9 @@
 /**
  * The check of an uploaded price file, run in the background one file at a time (a second upload waits its
  * turn: never two checks interleaved). It reads the file as a stream, validates and compares each row with
- * the active price list, and stages the result in `price_upload_rows` in batches (each batch one short write
- * transaction through `withWrite`, so other writes keep flowing; one batch is written while the next is read).
- * The event loop is given back between batches, so the server stays responsive. Nothing in parts, prices or stock changes here.
+ * the prices in use (a compact in-memory snapshot), keeps the findings in memory and writes them at the end as a
+ * few JSON chunks per kind, with the counts, in one short write transaction (findings.ts). The event loop is
+ * given back between batches of rows, so the server stays responsive. Nothing in parts, prices or stock changes here.
  */
 import { join } from 'node:path'
 import { QueryTypes } from 'sequelize'
@@ -13,11 +13,8 @@ import { PriceColumnMapping, PriceUpload } from '../../models/price-lists'
 import { PRICE_FILE_LIMITS, type ColumnMapping } from '../../../shared/types/price-lists'
 import { PriceFileError, csvRows, detectDelimiter, inspectZip, proveZipSizes, readFirstLine, xlsxRows, type FileRow, type RowSource } from './read'
 import { autoMapping, checkMapping, columnIndex, displayHeaders, savedMappingFits } from './mapping'
-import { classify, rowValidator, type CurrentPart } from './rows'
-
-// rows per staging transaction: each write transaction opens its own SQLite connection (~14 ms), so small batches
-// cost more than their rows; much larger ones hold other writers (and reads on the shared connection) too long
-const BATCH = 10_000
+import { classify, rowValidator, type CurrentPart, type RowResult } from './rows'
+import { ChunkedList, F, deleteFindings, serialise, writeChunks, type Finding } from './findings'
 
 // ------------------------------------------------------------------------------------------- where files live
 
@@ -85,10 +82,13 @@ function setLive(id: number, stage: string, progress: number): void {
 }
 
 async function failCheck(id: number, message: string, extra: Partial<Record<string, unknown>> = {}): Promise<void> {
-  await withWrite((t) => PriceUpload.update(
-    { status: 'failed', stage: null, progress: 100, errorMessage: message, ...extra },
-    { where: { id, status: 'parsing' }, transaction: t },
-  ))
+  await withWrite(async (t) => {
+    const [changed] = await PriceUpload.update(
+      { status: 'failed', stage: null, progress: 100, errorMessage: message, ...extra },
+      { where: { id, status: 'parsing' }, transaction: t },
+    )
+    if (changed) await deleteFindings(t, id) // an earlier check's findings no longer describe this file
+  })
 }
 
 export async function activePriceListId(): Promise<number | null> {
@@ -97,30 +97,40 @@ export async function activePriceListId(): Promise<number | null> {
 }
 
 /**
- * The parts and their prices in the compared version, held compactly (typed arrays indexed through one
- * SKU map: a few MB for 200,000 parts instead of 200,000 objects) and loaded in slices of 10,000 so neither the
- * event loop nor the shared connection is held for long.
+ * The parts with their prices in use and stock per branch, held compactly (typed arrays indexed through one SKU
+ * map: a few MB for 200,000 parts instead of 200,000 objects). Loaded in slices of 5,000 parts, each slice one
+ * JSON text built by SQLite (`json_group_array`) and parsed at once (much cheaper than 5,000 driver row objects),
+ * the next slice's query running while this one is unpacked; neither the event loop nor the connection is held long.
  */
 class CatalogueSnapshot {
   private readonly index = new Map<string, number>()
+  private skus: string[] = []
   private ids = new Int32Array(1024)
   private money = new Float64Array(3 * 1024) // list, trade, core per part; NaN = none
   private packs = new Int32Array(1024) // 0 = none
   private flags = new Uint8Array(1024) // 1 = discontinued
+  private stock: Int32Array // per part, one count per branch (-1 = no row)
   /** first file row that named each part (0 = not yet) */
   firstRow = new Int32Array(1024)
   size = 0
 
-  add(sku: string, id: number, status: string, l: number | null, t: number | null, c: number | null, k: number | null): void {
+  constructor(readonly branchCodes: string[]) {
+    this.stock = new Int32Array(1024 * Math.max(1, branchCodes.length))
+  }
+
+  add(sku: string, id: number, status: string, l: number | null, t: number | null, c: number | null, k: number | null, stock: (number | null)[]): void {
     if (this.size === this.ids.length) this.grow()
     const i = this.size++
     this.index.set(sku.toUpperCase(), i)
+    this.skus.push(sku)
     this.ids[i] = id
     this.money[3 * i] = l ?? NaN
     this.money[3 * i + 1] = t ?? NaN
     this.money[3 * i + 2] = c ?? NaN
     this.packs[i] = k ?? 0
     this.flags[i] = status === 'discontinued' ? 1 : 0
+    const w = this.branchCodes.length
+    for (let b = 0; b < w; b++) this.stock[i * w + b] = stock[b] ?? -1
   }
 
   private grow(): void {
@@ -128,9 +138,25 @@ class CatalogueSnapshot {
     const g = <T extends Int32Array | Float64Array | Uint8Array>(a: T, len: number): T => { const b = new (a.constructor as new (n: number) => T)(len); b.set(a); return b }
     this.ids = g(this.ids, n); this.money = g(this.money, 3 * n); this.packs = g(this.packs, n)
     this.flags = g(this.flags, n); this.firstRow = g(this.firstRow, n)
+    this.stock = g(this.stock, n * Math.max(1, this.branchCodes.length))
   }
 
   slot(sku: string): number | undefined { return this.index.get(sku) }
+  id(i: number): number { return this.ids[i]! }
+  sku(i: number): string { return this.skus[i]! }
+  discontinued(i: number): boolean { return this.flags[i] === 1 }
+
+  /** The counts of `stock` that differ from what the part holds now (null when none moves). */
+  movedStock(i: number, stock: Record<string, number> | null): Record<string, number> | null {
+    if (!stock) return null
+    let moved: Record<string, number> | null = null
+    const w = this.branchCodes.length
+    for (const code in stock) {
+      const b = this.branchCodes.indexOf(code)
+      if (b < 0 || this.stock[i * w + b] !== stock[code]) (moved ??= {})[code] = stock[code]!
+    }
+    return moved
+  }
 
   part(i: number): CurrentPart {
     const v = (x: number) => (Number.isNaN(x) ? null : x)
@@ -140,44 +166,30 @@ class CatalogueSnapshot {
     }
   }
 
-  static async load(baseId: number | null): Promise<CatalogueSnapshot> {
-    const snap = new CatalogueSnapshot()
-    let after = 0
-    for (;;) {
-      const rows = await getDb().query<{ id: number; sku: string; status: string; l: number | null; t: number | null; c: number | null; k: number | null }>(
-        `SELECT p.id, p.sku, p.status, pr.list_price_minor AS l, pr.trade_cost_minor AS t, pr.core_deposit_minor AS c, pr.pack_quantity AS k
-           FROM parts p LEFT JOIN prices pr ON pr.part_id = p.id AND pr.price_list_id = $1
-          WHERE p.id > $2 ORDER BY p.id LIMIT 10000`,
-        { bind: [baseId ?? -1, after], type: QueryTypes.SELECT, raw: true },
-      )
-      if (!rows.length) return snap
-      for (const r of rows) snap.add(r.sku, r.id, r.status, r.l, r.t, r.c, r.k)
-      after = rows[rows.length - 1]!.id
+  static async load(branches: { id: number; code: string }[]): Promise<CatalogueSnapshot> {
+    const snap = new CatalogueSnapshot(branches.map((b) => b.code))
+    const stockCols = branches.map((b) => `(SELECT quantity FROM stock_levels s WHERE s.part_id = p.id AND s.branch_id = ${Number(b.id)})`).join(', ')
+    const [{ top }] = await getDb().query<{ top: number | null }>('SELECT MAX(id) AS top FROM parts', { type: QueryTypes.SELECT }) as [{ top: number | null }]
+    // slices by id range, so the next slice's query runs on SQLite's thread while this one is unpacked here
+    const slice = (from: number) => getDb().query<{ rows: string | null }>(
+      `SELECT json_group_array(json_array(p.id, p.sku, p.status, pr.list_price_minor, pr.trade_cost_minor, pr.core_deposit_minor, pr.pack_quantity${stockCols ? `, ${stockCols}` : ''})) AS rows
+         FROM parts p LEFT JOIN part_prices pr ON pr.part_id = p.id WHERE p.id > $1 AND p.id <= $2`,
+      { bind: [from, from + SLICE], type: QueryTypes.SELECT, raw: true },
+    )
+    let next = top ? slice(0) : null
+    for (let from = 0; next; from += SLICE) {
+      const [got] = await next
+      next = from + SLICE < top! ? slice(from + SLICE) : null
+      for (const r of JSON.parse(got?.rows ?? '[]') as [number, string, string, number | null, number | null, number | null, number | null, ...(number | null)[]][]) {
+        snap.add(r[1], r[0], r[2], r[3], r[4], r[5], r[6], r.slice(7) as (number | null)[])
+      }
       await yieldToLoop()
     }
+    return snap
   }
 }
 
-// Staged rows travel as one JSON array per batch and SQLite unpacks them (json_each): one statement per
-// 2,000 rows, no SQL text built from values, no per-row ORM work. (Measured here: as fast as, or faster
-// than, multi-row INSERTs with 21,000 bound parameters.)
-const STAGE_SQL = `INSERT INTO price_upload_rows (upload_id, kind, row_number, sku, part_id, part_type, description,
-  old_list_minor, new_list_minor, old_trade_minor, new_trade_minor, old_core_minor, new_core_minor, old_pack, new_pack,
-  change_pct, large, stock, columns, reason, raw)
-  SELECT $1, v->>0, v->>1, v->>2, v->>3, v->>4, v->>5, v->>6, v->>7, v->>8, v->>9, v->>10, v->>11, v->>12, v->>13, v->>14, v->>15, v->>16, v->>17, v->>18, v->>19
-  FROM (SELECT value AS v FROM json_each($2))`
-
-type Staged = [
-  kind: string, row: number | null, sku: string | null, partId: number | null, type: string | null, description: string | null,
-  oldList: number | null, newList: number | null, oldTrade: number | null, newTrade: number | null, oldCore: number | null, newCore: number | null,
-  oldPack: number | null, newPack: number | null, pct: number | null, large: 0 | 1, stock: string | null, columns: string | null, reason: string | null, raw: string | null,
-]
-
-async function stage(id: number, batch: Staged[]): Promise<void> {
-  if (!batch.length) return
-  const json = JSON.stringify(batch)
-  await withWrite((t) => getDb().query(STAGE_SQL, { bind: [id, json], transaction: t, type: QueryTypes.INSERT }))
-}
+const SLICE = 5_000
 
 export async function savedMappingFor(supplierName: string): Promise<PriceColumnMapping | null> {
   const key = supplierName.trim().toLowerCase()
@@ -185,16 +197,28 @@ export async function savedMappingFor(supplierName: string): Promise<PriceColumn
   return PriceColumnMapping.findOne({ where: { supplierKey: key } })
 }
 
+const CHECK_KINDS = ['new', 'changed', 'unchanged', 'missing', 'rejected'] as const
+type CheckKind = typeof CHECK_KINDS[number]
+const KIND_CODE: Record<CheckKind, number> = { new: 0, changed: 1, unchanged: 2, missing: 3, rejected: 4 }
+
+function refusedFinding(row: number, sku: string | null, partId: number | null, columns: string | null, reason: string, raw: Record<string, string>): Finding {
+  return [row, sku, partId, null, null, null, null, null, null, null, null, null, null, null, 0, null, (columns ?? "").slice(0, 300), reason, raw]
+}
+
 export async function runCheck(id: number): Promise<void> {
   const upload = await PriceUpload.findByPk(id)
   if (!upload || upload.status !== 'parsing' || !upload.storedName) return
   setLive(id, 'reading', 0)
+  // BORELINE_PRICE_TIMING=1: how long each step took, on the server's log (benchmarks)
+  const t0 = performance.now()
+  const marks: string[] = []
+  const mark = (what: string) => { if (process.env.BORELINE_PRICE_TIMING === '1') marks.push(`${what} ${Math.round(performance.now() - t0)} ms`) }
   const path = storedPath(upload.storedName)
-  const branchCodes = (await Branch.findAll({ attributes: ['code'] })).map((b) => b.code)
+  const branches = (await Branch.findAll({ attributes: ['id', 'code'], order: [['id', 'ASC']] })).map((b) => ({ id: b.id, code: b.code }))
+  const branchCodes = branches.map((b) => b.code)
   const decimal = upload.decimalMark === ',' ? ',' : '.'
   let delimiter = upload.delimiter
   let source: RowSource | undefined
-  let writing: Promise<void> = Promise.resolve()
   try {
     if (upload.fileFormat === 'xlsx') {
       const entries = await inspectZip(path)
@@ -234,120 +258,197 @@ export async function runCheck(id: number): Promise<void> {
     if (problems.length) {
       await batches.return(undefined)
       const found = headers.slice(0, 12).map((h) => `“${h}”`).join(', ')
-      await withWrite((t) => PriceUpload.update({
-        status: 'uploaded', stage: null, progress: 100, headers, mapping, delimiter,
-        errorMessage: `${problems.join(' ')} The columns found are ${found}${headers.length > 12 ? ', …' : ''}.`,
-      }, { where: { id, status: 'parsing' }, transaction: t }))
+      await withWrite(async (t) => {
+        const [changed] = await PriceUpload.update({
+          status: 'uploaded', stage: null, progress: 100, headers, mapping, delimiter,
+          errorMessage: `${problems.join(' ')} The columns found are ${found}${headers.length > 12 ? ', …' : ''}.`,
+        }, { where: { id, status: 'parsing' }, transaction: t })
+        if (changed) await deleteFindings(t, id)
+      })
       return
     }
 
     const baseId = await activePriceListId()
-    const current = await CatalogueSnapshot.load(baseId)
-    await withWrite((t) => getDb().query('DELETE FROM price_upload_rows WHERE upload_id = $1', { bind: [id], transaction: t }))
+    mark('header')
     const validator = rowValidator(mapping, columnIndex(mapping, headers), decimal)
-    const firstRowOfNew = new Map<string, number>() // repeated SKUs among the parts not yet in the catalogue
+    // The snapshot loads (its SQL on SQLite's thread) while the first rows are read and validated here; those
+    // rows wait in `early` and are compared, in file order, once it is there.
+    let current: CatalogueSnapshot | undefined
+    let snapshotError: unknown
+    const loading = CatalogueSnapshot.load(branches).then((snap) => { current = snap; mark('snapshot') }, (err) => { snapshotError = err })
+    let early: ([FileRow, RowResult] | undefined)[] = []
+    let earlyAt = 0
+
+    // findings per kind, in file order, kept as JSON chunks (refused rows as objects: they are sorted at the end);
+    // a repeated SKU's first row is moved to the refused ones at the end
+    const found = { new: new ChunkedList<Finding>(), changed: new ChunkedList<Finding>(), unchanged: new ChunkedList<Finding>(), missing: new ChunkedList<Finding>() }
+    const rejected: Finding[] = []
+    const prices = new ChunkedList<unknown[]>() // for the apply, beside `found.changed` (same indexes)
+    let large = 0
+    // where each SKU's first valid row went: catalogue parts by snapshot slot, new SKUs by name
+    let kindOfSlot = new Uint8Array(0)
+    let indexOfSlot = new Int32Array(0)
+    let mentioned = new Uint8Array(0) // named by any row, refused ones too (not "missing")
+    const firstOfNew = new Map<string, { row: number; index: number }>()
     const repeats = new Map<string, number[]>()
-    let batch: Staged[] = []
+    // for the apply: stock counts that move ([partId, counts]) and discontinued parts the file prices again
+    const stockMoves: unknown[] = []
+    const revive: number[] = []
     let count = 0
     const fileSize = Math.max(1, upload.fileSize)
     const skuHeader = mapping.sku
 
-    const handle = (row: FileRow) => {
+    const compare = (row: FileRow, r: RowResult, snap: CatalogueSnapshot) => {
+      if (kindOfSlot.length !== snap.size) {
+        kindOfSlot = new Uint8Array(snap.size); indexOfSlot = new Int32Array(snap.size); mentioned = new Uint8Array(snap.size)
+      }
+      if (!r.ok) {
+        const slot = r.sku ? snap.slot(r.sku) : undefined
+        if (slot !== undefined) mentioned[slot] = 1
+        rejected.push(refusedFinding(row.rowNumber, r.sku, slot === undefined ? null : snap.id(slot),
+          [...new Set(r.issues.map((i) => i.column))].join(', '), r.issues.map((i) => i.reason).join(' '), r.raw))
+        return
+      }
+      const v = r.values
+      const slot = snap.slot(v.sku)
+      const earlier = slot === undefined ? firstOfNew.get(v.sku)?.row : (snap.firstRow[slot] || undefined)
+      if (earlier !== undefined) {
+        repeats.set(v.sku, [...(repeats.get(v.sku) ?? [earlier]), row.rowNumber])
+        rejected.push(refusedFinding(row.rowNumber, v.sku, slot === undefined ? null : snap.id(slot), skuHeader,
+          `SKU ${v.sku} appears more than once in the file (first on row ${earlier}): keep one row per SKU.`, rawOf(mapping!, row.cells, headers)))
+        return
+      }
+      const cur = slot === undefined ? undefined : snap.part(slot)
+      const c = classify(v, cur, mapping!)
+      if (c.kind === 'rejected') {
+        if (slot !== undefined) mentioned[slot] = 1
+        rejected.push([row.rowNumber, v.sku, cur?.id ?? null, cur ? null : v.type ?? null, cur ? null : v.description ?? null,
+          cur?.list ?? null, c.list, cur?.trade ?? null, c.trade, cur ? cur.core ?? 0 : null, c.core, cur?.pack ?? null, c.pack,
+          null, 0, v.stock ?? null, c.issue?.column ?? null, c.issue?.reason ?? null, rawOf(mapping!, row.cells, headers)])
+        return
+      }
+      const list = found[c.kind]
+      if (slot === undefined) {
+        firstOfNew.set(v.sku, { row: row.rowNumber, index: list.length })
+      } else {
+        snap.firstRow[slot] = row.rowNumber
+        mentioned[slot] = 1
+        kindOfSlot[slot] = KIND_CODE[c.kind]
+        indexOfSlot[slot] = list.length
+        const moved = snap.movedStock(slot, v.stock ?? null)
+        if (moved) stockMoves.push([cur!.id, moved])
+        if (cur!.status === 'discontinued') revive.push(cur!.id)
+      }
+      const note = cur && cur.status === 'discontinued' ? 'Discontinued now: back in use when this list is applied.' : null
+      list.push([
+        row.rowNumber, v.sku, cur?.id ?? null, cur ? null : v.type ?? null, cur ? null : v.description ?? null,
+        cur?.list ?? null, c.list, cur?.trade ?? null, c.trade, cur ? cur.core ?? 0 : null, c.core, cur?.pack ?? null, c.pack,
+        c.changePct, c.large ? 1 : 0, v.stock ?? null, null, note, null,
+      ])
+      if (c.kind === 'changed') {
+        prices.push([cur!.id, c.list, c.trade, c.core, c.pack])
+        if (c.large) large++
+      }
+    }
+    const take = (row: FileRow) => {
       if (blank(row.cells)) return
       count++
       if (count > PRICE_FILE_LIMITS.maxRows) {
         throw new PriceFileError(`The file has more than ${PRICE_FILE_LIMITS.maxRows.toLocaleString('en-GB')} data rows. Split it into smaller files.`, 'too_many_rows')
       }
       const r = validator.validate(row.cells)
-      if (!r.ok) {
-        const slot = r.sku ? current.slot(r.sku) : undefined
-        batch.push(['rejected', row.rowNumber, r.sku, slot === undefined ? null : current.part(slot).id, null, null, null, null, null, null, null, null, null, null, null, 0, null,
-          [...new Set(r.issues.map((i) => i.column))].join(', ').slice(0, 300), r.issues.map((i) => i.reason).join(' '), JSON.stringify(r.raw)])
-        return
-      }
-      const v = r.values
-      const slot = current.slot(v.sku)
-      const earlier = slot === undefined ? firstRowOfNew.get(v.sku) : (current.firstRow[slot] || undefined)
-      if (earlier !== undefined) {
-        repeats.set(v.sku, [...(repeats.get(v.sku) ?? [earlier]), row.rowNumber])
-        batch.push(['rejected', row.rowNumber, v.sku, slot === undefined ? null : current.part(slot).id, null, null, null, null, null, null, null, null, null, null, null, 0, null,
-          skuHeader, `SKU ${v.sku} appears more than once in the file (first on row ${earlier}): keep one row per SKU.`, JSON.stringify(rawOf(mapping!, row.cells, headers))])
-        return
-      }
-      if (slot === undefined) firstRowOfNew.set(v.sku, row.rowNumber)
-      else current.firstRow[slot] = row.rowNumber
-      const cur = slot === undefined ? undefined : current.part(slot)
-      const c = classify(v, cur, mapping!)
-      const note = c.kind !== 'rejected' && cur && cur.status === 'discontinued' ? 'Discontinued now: back in use when this list is applied.' : null
-      batch.push([
-        c.kind, row.rowNumber, v.sku, cur?.id ?? null, cur ? null : v.type ?? null, cur ? null : v.description ?? null,
-        cur?.list ?? null, c.list, cur?.trade ?? null, c.trade, cur ? cur.core ?? 0 : null, c.core, cur?.pack ?? null, c.pack,
-        c.changePct, c.large ? 1 : 0, v.stock ? JSON.stringify(v.stock) : null,
-        c.issue?.column ?? null, c.issue?.reason ?? note, c.kind === 'rejected' ? JSON.stringify(rawOf(mapping!, row.cells, headers)) : null,
-      ])
+      if (current && earlyAt === early.length) compare(row, r, current)
+      else early.push([row, r])
+    }
+    /** Compares up to `max` of the rows that arrived before the snapshot, in order. */
+    const catchUp = (max: number) => {
+      if (!current) return
+      const end = Math.min(early.length, earlyAt + max)
+      for (; earlyAt < end; earlyAt++) { const [row, r] = early[earlyAt]!; early[earlyAt] = undefined; compare(row, r, current) }
+      if (earlyAt === early.length) { early = []; earlyAt = 0 }
     }
 
-    for (const row of pending) handle(row)
+    for (const row of pending) take(row)
+    let sinceProgress = 0
     for await (const rows of batches) {
-      for (const row of rows) handle(row)
-      if (batch.length >= BATCH) {
-        // SQLite writes one batch (on its own thread) while the next is read and checked here: at most one
-        // batch in flight, so memory stays flat and an error surfaces at the next batch
-        await writing
-        writing = stage(id, batch)
-        writing.catch(() => {}) // awaited (and thrown) at the next batch or at the end
-        batch = []
-        setLive(id, 'reading', (source.bytesRead() / fileSize) * 92)
-      }
-      await yieldToLoop() // between batches of 500 rows, whatever else is waiting runs
+      for (const row of rows) take(row)
+      if (snapshotError) throw snapshotError
+      catchUp(1000)
+      if (++sinceProgress >= 20) { sinceProgress = 0; setLive(id, 'reading', (source.bytesRead() / fileSize) * 90) }
+      await yieldToLoop() // between batches of rows, whatever else is waiting runs
     }
-    await writing
-    await stage(id, batch)
-    batch = []
+    await loading
+    if (snapshotError || !current) throw snapshotError ?? new Error('catalogue snapshot missing')
+    while (early.length) { catchUp(2000); await yieldToLoop() }
     if (count === 0) throw new PriceFileError('The file has a header row but no data rows.', 'empty')
-
-    setLive(id, 'comparing', 94)
-    await yieldToLoop()
-    await withWrite(async (t) => {
-      // the first row of a repeated SKU is refused too: which of the rows is right is the person's call
-      for (const [sku, rowsOf] of repeats) {
-        const [first] = await getDb().query<StagedValues>(
-          `SELECT sku, description, part_type, new_list_minor, new_trade_minor, new_core_minor, new_pack, stock
-             FROM price_upload_rows WHERE upload_id = $1 AND kind IN ('new', 'changed', 'unchanged') AND row_number = $3 AND sku = $2`,
-          { bind: [id, sku, rowsOf[0]], type: QueryTypes.SELECT, transaction: t },
-        )
-        await getDb().query(
-          `UPDATE price_upload_rows SET kind = 'rejected', columns = $3, reason = $4, large = 0, raw = $6
-            WHERE upload_id = $1 AND kind IN ('new', 'changed', 'unchanged') AND row_number = $5 AND sku = $2`,
-          {
-            bind: [id, sku, skuHeader, `SKU ${sku} appears more than once in the file (rows ${rowsOf.join(', ')}): keep one row per SKU.`, rowsOf[0],
-              first ? JSON.stringify(rawFromStaged(mapping!, first, decimal)) : null],
-            transaction: t,
-          },
-        )
+    mark('rows read and checked')
+    setLive(id, 'comparing', 92)
+    // the first row of a repeated SKU is refused too: which of the rows is right is the person's call
+    const removed: Record<'new' | 'changed' | 'unchanged', number[]> = { new: [], changed: [], unchanged: [] }
+    const removedIds = new Set<number>()
+    for (const [sku, rowsOf] of repeats) {
+      const slot = current.slot(sku)
+      let kind: CheckKind | undefined
+      let index = -1
+      if (slot === undefined) {
+        const first = firstOfNew.get(sku)
+        if (first) { kind = 'new'; index = first.index }
+      } else {
+        kind = CHECK_KINDS[kindOfSlot[slot]!]
+        index = indexOfSlot[slot]!
       }
-      // active parts the file does not mention (refused rows of a known SKU count as mentioned)
-      await getDb().query(
-        `INSERT INTO price_upload_rows (upload_id, kind, sku, part_id, part_type, description, old_list_minor, old_trade_minor, old_core_minor, old_pack, large)
-         SELECT $1, 'missing', p.sku, p.id, p.type, p.description, pr.list_price_minor, pr.trade_cost_minor, pr.core_deposit_minor, pr.pack_quantity, 0
-           FROM parts p LEFT JOIN prices pr ON pr.part_id = p.id AND pr.price_list_id = $2
-          WHERE p.status = 'active'
-            AND NOT EXISTS (SELECT 1 FROM price_upload_rows r WHERE r.upload_id = $1 AND r.part_id = p.id)`,
-        { bind: [id, baseId ?? -1], transaction: t },
-      )
+      if (kind !== 'new' && kind !== 'changed' && kind !== 'unchanged') continue
+      const first = found[kind].get(index)
+      if (!first) continue
+      removed[kind].push(index)
+      if (first[F.partId] != null) removedIds.add(first[F.partId]!)
+      if (kind === 'changed' && first[F.large]) large--
+      rejected.push(refusedFinding(first[F.row]!, sku, first[F.partId], skuHeader,
+        `SKU ${sku} appears more than once in the file (rows ${rowsOf.join(', ')}): keep one row per SKU.`, rawFromFinding(mapping, first, decimal)))
+    }
+    for (const k of ['new', 'changed', 'unchanged'] as const) if (removed[k].length) found[k].remove(removed[k])
+    if (removed.changed.length) prices.remove(removed.changed)
+    // active parts the file does not mention (refused rows of a known SKU count as mentioned)
+    if (mentioned.length !== current.size) mentioned = new Uint8Array(current.size)
+    for (let i = 0; i < current.size; i++) {
+      if (mentioned[i] || current.discontinued(i)) continue
+      const p = current.part(i)
+      found.missing.push([null, current.sku(i), p.id, null, null, p.list, null, p.trade, null, p.core ?? 0, null, p.pack, null, null, 0, null, null, null, null])
+      if ((i & 4095) === 0) await yieldToLoop()
+    }
+    rejected.sort((a, b) => a[F.row]! - b[F.row]!)
+    for (const list of [...Object.values(found), prices]) list.flush()
+    const counts = {
+      new: found.new.length, changed: found.changed.length, unchanged: found.unchanged.length,
+      missing: found.missing.length, rejected: rejected.length, large,
+    }
+    mark('repeats, missing, lists')
+    setLive(id, 'comparing', 95)
+    // what the apply writes, compact: prices of changed parts, stock counts that move, discontinued parts priced again
+    const serialised: [string, { size: number; json: string }[]][] = [
+      ['new', found.new.chunks], ['changed', found.changed.chunks], ['unchanged', found.unchanged.chunks],
+      ['missing', found.missing.chunks], ['rejected', await serialise(rejected)],
+      ['prices', prices.chunks],
+      ['stock', await serialise(removedIds.size ? stockMoves.filter((x) => !removedIds.has((x as [number])[0])) : stockMoves)],
+      ['revive', await serialise(removedIds.size ? revive.filter((x) => !removedIds.has(x)) : revive)],
+    ]
+    mark('serialised')
+    await withWrite(async (t) => {
+      const still = await PriceUpload.findOne({ where: { id, status: 'parsing' }, attributes: ['id'], transaction: t })
+      if (!still) return
+      await deleteFindings(t, id)
+      for (const [k, chunks] of serialised) await writeChunks(t, id, k, chunks)
+      await PriceUpload.update({
+        status: 'ready', stage: null, progress: 100, headers, mapping, delimiter, errorMessage: null,
+        basePriceListId: baseId, rowsTotal: count,
+        countNew: counts.new, countChanged: counts.changed, countUnchanged: counts.unchanged,
+        countMissing: counts.missing, countRejected: counts.rejected, countLarge: counts.large,
+      }, { where: { id, status: 'parsing' }, transaction: t })
     })
-    setLive(id, 'comparing', 98)
-    const counts = await countsOf(id)
-    await withWrite((t) => PriceUpload.update({
-      status: 'ready', stage: null, progress: 100, headers, mapping, delimiter, errorMessage: null,
-      basePriceListId: baseId, rowsTotal: count,
-      countNew: counts.new, countChanged: counts.changed, countUnchanged: counts.unchanged,
-      countMissing: counts.missing, countRejected: counts.rejected, countLarge: counts.large,
-    }, { where: { id, status: 'parsing' }, transaction: t }))
+    mark('written')
+    if (marks.length) console.log(`[boreline] price file ${id} checked: ${marks.join(', ')}`)
   } catch (err) {
     if (source) await source.rows.return(undefined).catch(() => {})
-    await writing.catch(() => {}) // a batch still being written must land before the staged rows are removed
-    await withWrite((t) => getDb().query('DELETE FROM price_upload_rows WHERE upload_id = $1', { bind: [id], transaction: t })).catch(() => {})
     if (err instanceof PriceFileError) {
       await failCheck(id, err.message, { delimiter })
     } else {
@@ -357,24 +458,19 @@ export async function runCheck(id: number): Promise<void> {
   }
 }
 
-interface StagedValues {
-  sku: string; description: string | null; part_type: string | null; new_list_minor: number | null; new_trade_minor: number | null
-  new_core_minor: number | null; new_pack: number | null; stock: string | null
-}
-
-/** The cells of a row that was staged as valid, written back as the file had them (for the refused-rows list). */
-function rawFromStaged(mapping: ColumnMapping, r: StagedValues, decimal: '.' | ','): Record<string, string> {
+/** The cells of a row that was found valid, written back as the file had them (for the refused-rows list). */
+function rawFromFinding(mapping: ColumnMapping, f: Finding, decimal: '.' | ','): Record<string, string> {
   const amount = (m: number | null) => (m == null ? '' : (m / 100).toFixed(2).replace('.', decimal))
   const raw: Record<string, string> = {}
-  const put = (h: string | null, v: string) => { if (h) raw[h] = v }
-  put(mapping.sku, r.sku)
-  put(mapping.description, r.description ?? '')
-  put(mapping.type, r.part_type ?? '')
-  put(mapping.listPrice, amount(r.new_list_minor))
-  put(mapping.tradeCost, amount(r.new_trade_minor))
-  put(mapping.coreDeposit, amount(r.new_core_minor))
-  put(mapping.packQuantity, r.new_pack == null ? '' : String(r.new_pack))
-  const stock = r.stock ? JSON.parse(r.stock) as Record<string, number> : {}
+  const put = (h: string | null | undefined, v: string) => { if (h) raw[h] = v }
+  put(mapping.sku, f[F.sku] ?? '')
+  put(mapping.description, f[F.description] ?? '')
+  put(mapping.type, f[F.type] ?? '')
+  put(mapping.listPrice, amount(f[F.newList]))
+  put(mapping.tradeCost, amount(f[F.newTrade]))
+  put(mapping.coreDeposit, amount(f[F.newCore]))
+  put(mapping.packQuantity, f[F.newPack] == null ? '' : String(f[F.newPack]))
+  const stock = f[F.stock] ?? {}
   for (const [code, h] of Object.entries(mapping.stock)) put(h, stock[code] == null ? '' : String(stock[code]))
   return raw
 }
@@ -384,19 +480,6 @@ function rawOf(mapping: ColumnMapping, cells: string[], headers: string[]): Reco
   const names = [mapping.sku, mapping.description, mapping.type, mapping.listPrice, mapping.tradeCost, mapping.coreDeposit, mapping.packQuantity, ...Object.values(mapping.stock)]
   for (const h of names) if (h && headers.includes(h)) raw[h] = (cells[headers.indexOf(h)] ?? '').slice(0, 200)
   return raw
-}
-
-export async function countsOf(id: number): Promise<{ new: number; changed: number; unchanged: number; missing: number; rejected: number; large: number }> {
-  const rows = await getDb().query<{ kind: string; n: number; l: number }>(
-    'SELECT kind, COUNT(*) AS n, COALESCE(SUM(large), 0) AS l FROM price_upload_rows WHERE upload_id = $1 GROUP BY kind',
-    { bind: [id], type: QueryTypes.SELECT },
-  )
-  const c = { new: 0, changed: 0, unchanged: 0, missing: 0, rejected: 0, large: 0 }
-  for (const r of rows) {
-    if (r.kind in c) c[r.kind as keyof typeof c] = Number(r.n)
-    if (r.kind === 'changed') c.large = Number(r.l)
-  }
-  return c
 }
 
 /** Remembers a supplier's column mapping (one per supplier name, case-insensitive) for their next file. */

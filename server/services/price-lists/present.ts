@@ -2,10 +2,14 @@
 import { Op } from 'sequelize'
 import { Branch, User } from '../../models/accounts'
 import { PriceList } from '../../models/catalogue'
-import { PriceUpload, type PriceUploadRow } from '../../models/price-lists'
+import { QueryTypes } from 'sequelize'
+import { getDb } from '../../utils/db'
+import { PriceUpload } from '../../models/price-lists'
+import type { ChangesQuery } from '../../../shared/schemas/price-lists'
 import type { PriceChangeRow, PriceUploadDetail, PriceUploadSummary, PriceVersionSummary, UploadCounts } from '../../../shared/types/price-lists'
 import { checkMapping } from './mapping'
 import { activePriceListId, liveProgress } from './check'
+import { F, readFindings, type Finding } from './findings'
 
 const iso = (d: Date | null | undefined) => (d ? new Date(d).toISOString() : null)
 
@@ -104,11 +108,70 @@ export async function uploadDetail(up: PriceUpload): Promise<PriceUploadDetail> 
   }
 }
 
-export function changeRow(r: PriceUploadRow): PriceChangeRow {
-  return {
-    id: r.id, kind: r.kind, rowNumber: r.rowNumber, sku: r.sku, description: r.description, partType: r.partType,
-    oldListMinor: r.oldListMinor, newListMinor: r.newListMinor, oldTradeMinor: r.oldTradeMinor, newTradeMinor: r.newTradeMinor,
-    oldCoreMinor: r.oldCoreMinor, newCoreMinor: r.newCoreMinor, oldPack: r.oldPack, newPack: r.newPack,
-    changePct: r.changePct, large: !!r.large, stock: r.stock, columns: r.columns, reason: r.reason,
+type Indexed = { f: Finding; i: number }
+
+const SORTS: Record<ChangesQuery['sort'], (a: Finding, b: Finding) => number> = {
+  row: (a, b) => nullsLast(a[F.row], b[F.row]) || text(a[F.sku], b[F.sku]),
+  sku: (a, b) => text(a[F.sku], b[F.sku]),
+  change: (a, b) => nullsLast(a[F.pct], b[F.pct]),
+  old: (a, b) => nullsLast(a[F.oldList], b[F.oldList]),
+  new: (a, b) => nullsLast(a[F.newList], b[F.newList]),
+}
+function nullsLast(a: number | null, b: number | null): number {
+  if (a === b) return 0
+  if (a === null) return Number.POSITIVE_INFINITY
+  if (b === null) return Number.NEGATIVE_INFINITY
+  return a - b
+}
+function text(a: string | null, b: string | null): number {
+  return (a ?? '') < (b ?? '') ? -1 : (a ?? '') > (b ?? '') ? 1 : 0
+}
+
+/** One page of one kind of findings, filtered and sorted as asked (nulls last either way; ties by SKU, then file order). */
+export async function changesPage(uploadId: number, q: ChangesQuery): Promise<{ data: PriceChangeRow[]; meta: { page: number; pageSize: number; total: number; pages: number } }> {
+  const all = await readFindings(uploadId, q.kind)
+  let rows: Indexed[] = all.map((f, i) => ({ f, i }))
+  if (q.q) {
+    const needle = q.q.toLowerCase()
+    const like = `%${q.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`
+    const byDescription = new Set((await getDb().query<{ id: number }>(
+      `SELECT id FROM parts WHERE description LIKE $1 ESCAPE '\\'`, { bind: [like], type: QueryTypes.SELECT },
+    )).map((r) => r.id))
+    rows = rows.filter(({ f }) => (f[F.sku] ?? '').toLowerCase().includes(needle) || (f[F.description] ?? '').toLowerCase().includes(needle)
+      || (f[F.partId] != null && byDescription.has(f[F.partId]!)))
   }
+  if (q.large) rows = rows.filter(({ f }) => f[F.large] === 1)
+  if (q.direction === 'up') rows = rows.filter(({ f }) => f[F.newList] != null && f[F.oldList] != null && f[F.newList]! > f[F.oldList]!)
+  if (q.direction === 'down') rows = rows.filter(({ f }) => f[F.newList] != null && f[F.oldList] != null && f[F.newList]! < f[F.oldList]!)
+  const by = SORTS[q.sort]
+  const sign = q.dir === 'desc' ? -1 : 1
+  rows.sort((a, b) => {
+    const primary = by(a.f, b.f)
+    if (primary !== 0) {
+      // nulls stay last whichever way the rest is ordered
+      if (!Number.isFinite(primary)) return primary > 0 ? 1 : -1
+      return sign * primary
+    }
+    return text(a.f[F.sku], b.f[F.sku]) || a.i - b.i
+  })
+  const total = rows.length
+  const pageRows = rows.slice((q.page - 1) * q.pageSize, q.page * q.pageSize)
+  // descriptions and types of catalogue parts come from the catalogue (the file may leave them blank)
+  const ids = [...new Set(pageRows.map(({ f }) => f[F.partId]).filter((x): x is number => x != null))]
+  const parts = ids.length
+    ? new Map((await getDb().query<{ id: number; description: string; type: string }>(
+      'SELECT id, description, type FROM parts WHERE id IN (:ids)', { replacements: { ids }, type: QueryTypes.SELECT },
+    )).map((p) => [p.id, p]))
+    : new Map<number, { description: string; type: string }>()
+  const data: PriceChangeRow[] = pageRows.map(({ f, i }) => {
+    const part = f[F.partId] != null ? parts.get(f[F.partId]!) : undefined
+    return {
+      id: i + 1, kind: q.kind, rowNumber: f[F.row], sku: f[F.sku],
+      description: f[F.description] ?? part?.description ?? null, partType: f[F.type] ?? part?.type ?? null,
+      oldListMinor: f[F.oldList], newListMinor: f[F.newList], oldTradeMinor: f[F.oldTrade], newTradeMinor: f[F.newTrade],
+      oldCoreMinor: f[F.oldCore], newCoreMinor: f[F.newCore], oldPack: f[F.oldPack], newPack: f[F.newPack],
+      changePct: f[F.pct], large: f[F.large] === 1, stock: f[F.stock], columns: f[F.columns], reason: f[F.reason],
+    }
+  })
+  return { data, meta: { page: q.page, pageSize: q.pageSize, total, pages: Math.max(1, Math.ceil(total / q.pageSize)) } }
 }

@@ -2,17 +2,17 @@
  * Reading a price file without trusting it: what kind of file it is (from its bytes, never its name), whether
  * an XLSX is safe to inflate (zip entry count and sizes from the central directory, then proven while
  * inflating), whether CSV text is UTF-8 (and where it is not), which delimiter it uses, and the rows
- * themselves as streams of text cells (csv-parse / exceljs streaming readers), never the whole file in memory.
+ * themselves as streams of text cells (papaparse's parser fed chunk by chunk / exceljs streaming reader), never the whole file in memory.
  *
  * Plain Node (no Nitro auto-imports): unit-tested directly.
  */
 import { isUtf8 } from 'node:buffer'
 import { createReadStream } from 'node:fs'
 import { open, stat } from 'node:fs/promises'
+import { createInflateRaw } from 'node:zlib'
 import { Transform, type TransformCallback } from 'node:stream'
 import { pipeline } from 'node:stream/promises'
-import { createInflateRaw } from 'node:zlib'
-import { parse as parseCsv, type CsvError } from 'csv-parse'
+import Papa from 'papaparse'
 import { PRICE_FILE_LIMITS } from '../../../shared/types/price-lists'
 
 /** A problem with the file itself: shown to the person as it is. */
@@ -317,15 +317,8 @@ export interface RowSource {
   bytesRead: () => number
 }
 
-const CSV_ERRORS: Partial<Record<string, string>> = {
-  CSV_QUOTE_NOT_CLOSED: 'a quoted cell is never closed',
-  CSV_INVALID_CLOSING_QUOTE: 'a quote closes a cell but more text follows it',
-  CSV_NON_TRIMABLE_CHAR_AFTER_CLOSING_QUOTE: 'a quote closes a cell but more text follows it',
-  CSV_MAX_RECORD_SIZE: 'one row is longer than 64 KB',
-  INVALID_OPENING_QUOTE: 'a quote opens in the middle of a cell',
-}
-
 const BATCH_ROWS = 500
+const MAX_RECORD = 64 * 1024
 
 /** Where an unfinished UTF-8 sequence at the end of a chunk starts (the chunk length when there is none). */
 function utf8Tail(buf: Buffer): number {
@@ -340,56 +333,67 @@ function utf8Tail(buf: Buffer): number {
   return buf.length
 }
 
+/** The line ending of a file, from its first line ending outside quotes (as a spreadsheet program writes one throughout). */
+function lineEnding(text: string): '\r\n' | '\n' | '\r' {
+  const unquoted = text.slice(0, 1024 * 1024).replace(/"[^"]*"/g, '')
+  const n = unquoted.indexOf('\n')
+  const r = unquoted.indexOf('\r')
+  if (r === -1) return '\n'
+  if (n === -1) return '\r'
+  if (n === r + 1) return '\r\n'
+  return n < r ? '\n' : '\r'
+}
+
 /**
- * Rows of a CSV file as text cells (untrimmed). Every chunk is proven UTF-8 (`buffer.isUtf8`, native) before
- * csv-parse reads it, so csv-parse works on the bytes directly (it strips a BOM); a bad byte or bad quoting
- * ends the read with a message naming the line.
+ * Rows of a CSV file as text cells (untrimmed), parsed by papaparse's parser chunk by chunk. Every chunk is
+ * proven UTF-8 (`buffer.isUtf8`, native) before it is decoded; a bad byte, a quoted cell that never closes or
+ * text after a closing quote ends the read with a message naming the row. A quote inside an unquoted cell
+ * (12" disc) is text.
  */
 export function csvRows(path: string, delimiter: string): RowSource {
   let bytes = 0
-  let badEncoding = false
-  let carry: Buffer | null = null
-  const check = new Transform({
-    transform(chunk: Buffer, _enc, cb) {
-      bytes += chunk.length
-      const buf = carry ? Buffer.concat([carry, chunk]) : chunk
-      const tail = utf8Tail(buf)
-      const whole = buf.subarray(0, tail)
-      carry = tail < buf.length ? Buffer.from(buf.subarray(tail)) : null
-      if (!isUtf8(whole)) { badEncoding = true; cb(new PriceFileError('encoding', 'encoding')); return }
-      cb(null, whole)
-    },
-    flush(cb) {
-      if (carry) { badEncoding = true; cb(new PriceFileError('encoding', 'encoding')); return }
-      cb()
-    },
-  })
-  // relax_quotes: a quote inside an unquoted cell (12" disc) is read as text, not as a syntax error
-  const parser = parseCsv({ delimiter, bom: true, encoding: 'utf8', relax_column_count: true, relax_quotes: true, max_record_size: 64 * 1024, skip_empty_lines: false })
   const source = createReadStream(path, { highWaterMark: 256 * 1024 })
-  const done = pipeline(source, check, parser).catch(() => { /* reported through the iterator */ })
 
   async function* rows(): AsyncGenerator<FileRow[]> {
-    let n = 0
-    let batch: FileRow[] = []
+    let n = 0 // records so far: every record counts, blank lines too, so row numbers are the ones a spreadsheet shows
+    let carry: Buffer | null = null
+    let partial = ''
+    let parser: Papa.Parser | undefined
+    let first = true
+    const take = (text: string, last: boolean): FileRow[] => {
+      if (!parser) parser = new Papa.Parser({ delimiter, newline: lineEnding(text), quoteChar: '"' })
+      const input = partial + text
+      const res = parser.parse(input, 0, !last)
+      const quote = (res.errors as Papa.ParseError[]).find((e) => e.type === 'Quotes')
+      if (quote) {
+        const what = quote.code === 'MissingQuotes' ? 'a quoted cell is never closed' : 'a quote closes a cell but more text follows it'
+        throw new PriceFileError(`The file cannot be read as CSV at row ${n + (quote.row ?? 0) + 1}: ${what}. Check the quotes on that row; nothing has been changed.`, 'csv_syntax')
+      }
+      partial = last ? '' : input.slice(res.meta.cursor)
+      if (partial.length > MAX_RECORD) {
+        throw new PriceFileError(`The file cannot be read as CSV at row ${n + res.data.length + 1}: one row is longer than 64 KB (often a quote that is never closed). Check that row; nothing has been changed.`, 'csv_syntax')
+      }
+      const out: FileRow[] = new Array(res.data.length)
+      for (let i = 0; i < res.data.length; i++) out[i] = { rowNumber: ++n, cells: res.data[i] as string[] }
+      return out
+    }
     try {
-      // every record counts, blank lines too, so row numbers are the ones a spreadsheet shows
-      for await (const record of parser as AsyncIterable<string[]>) {
-        batch.push({ rowNumber: ++n, cells: record })
-        if (batch.length >= BATCH_ROWS) { yield batch; batch = [] }
+      for await (const chunk of source as AsyncIterable<Buffer>) {
+        bytes += chunk.length
+        const buf: Buffer = carry ? Buffer.concat([carry, chunk]) : chunk
+        const tail = utf8Tail(buf)
+        const whole = buf.subarray(0, tail)
+        carry = tail < buf.length ? Buffer.from(buf.subarray(tail)) : null
+        if (!isUtf8(whole)) throw await encodingError(path)
+        let text = whole.toString('utf8')
+        if (first) { first = false; if (text.charCodeAt(0) === 0xfeff) text = text.slice(1) }
+        const out = take(text, false)
+        for (let i = 0; i < out.length; i += BATCH_ROWS) yield out.slice(i, i + BATCH_ROWS)
       }
-      if (batch.length) yield batch
-    } catch (err) {
-      if (badEncoding) throw await encodingError(path)
-      const e = err as CsvError
-      if (e?.name === 'CsvError' || (e?.code && /^(CSV_|INVALID_)/.test(e.code))) {
-        const what = CSV_ERRORS[e.code] ?? e.message.replace(/\s+undefined$/, '').replace(/^[A-Za-z ]+: /, '').replace(/\.$/, '')
-        throw new PriceFileError(`The file cannot be read as CSV near line ${e.lines ?? '?'}: ${what}. Check the quotes on that line; nothing has been changed.`, 'csv_syntax')
-      }
-      throw err
+      if (carry) throw await encodingError(path)
+      if (partial) yield take('', true) // the last row, when the file does not end with a line break
     } finally {
       source.destroy()
-      await done
     }
   }
   return { rows: rows(), bytesRead: () => bytes }

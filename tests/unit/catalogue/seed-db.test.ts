@@ -16,7 +16,7 @@ function one<T>(sql: string): Promise<T> {
 const counts = () => one<Record<string, number>>(`SELECT (SELECT COUNT(*) FROM vehicles) AS vehicles, (SELECT COUNT(*) FROM vehicle_options) AS options,
   (SELECT COUNT(*) FROM vehicle_brakes) AS brakes, (SELECT COUNT(*) FROM parts) AS parts, (SELECT COUNT(*) FROM part_oe_numbers) AS oe,
   (SELECT COUNT(*) FROM supersessions) AS supersessions, (SELECT COUNT(*) FROM fitments) AS fitments, (SELECT COUNT(*) FROM stock_levels) AS stock,
-  (SELECT COUNT(*) FROM price_lists) AS lists, (SELECT COUNT(*) FROM prices) AS prices`)
+  (SELECT COUNT(*) FROM price_lists) AS lists, (SELECT COUNT(*) FROM part_prices) AS prices`)
 afterAll(() => rmSync(dir, { recursive: true, force: true }))
 
 describe('catalogue seed in a database', () => {

@@ -22,7 +22,7 @@ describe('catalogue:synthetic', () => {
     const [c] = await query<{ parts: number; vehicles: number; fitments: number; prices: number; stock: number; rev: number }>(`SELECT
       (SELECT COUNT(*) FROM parts WHERE sku LIKE 'SY-%') AS parts, (SELECT COUNT(*) FROM vehicles WHERE make NOT IN (SELECT make FROM vehicles WHERE id <= 75)) AS vehicles,
       (SELECT COUNT(*) FROM fitments f JOIN parts p ON p.id = f.part_id WHERE p.sku LIKE 'SY-%') AS fitments,
-      (SELECT COUNT(*) FROM prices pr JOIN parts p ON p.id = pr.part_id WHERE p.sku LIKE 'SY-%') AS prices,
+      (SELECT COUNT(*) FROM part_prices pr JOIN parts p ON p.id = pr.part_id WHERE p.sku LIKE 'SY-%') AS prices,
       (SELECT COUNT(*) FROM stock_levels s JOIN parts p ON p.id = s.part_id WHERE p.sku LIKE 'SY-%') AS stock,
       (SELECT catalogue FROM catalogue_revisions) AS rev`)
     expect(c).toMatchObject({ parts: 2000, vehicles: 200, fitments: 5000, prices: 2000, stock: 4000 })

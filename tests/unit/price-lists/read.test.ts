@@ -118,9 +118,9 @@ describe('CSV reading', () => {
     expect(rows.map((r) => r.rowNumber)).toEqual([1, 2, 3])
   })
 
-  it('reports an unclosed quote with its line, and keeps a quote inside an unquoted cell as text', async () => {
-    await expect(all(file('sku,list_price\nA-1,"12.50\nA-2,3.00\n'))).rejects.toThrow(/near line \d: a quoted cell is never closed/)
-    // text after a closing quote stays in the cell (relax_quotes); the price check then refuses that row
+  it('reports an unclosed quote with its row, and keeps a quote inside an unquoted cell as text', async () => {
+    await expect(all(file('sku,list_price\nA-1,"12.50\nA-2,3.00\n'))).rejects.toThrow(/at row 2: a quoted cell is never closed/)
+    // a quote inside an unquoted cell is text (RFC 4180 only gives quotes meaning at the start of a cell); the price check then refuses that row
     const rows = await all(file('sku,list_price\nA-1,12" disc,\n'))
     expect(rows[1]!.cells).toEqual(['A-1', '12" disc', ''])
   })

@@ -5,9 +5,9 @@
  * `escape_formulas: true`, so a formula that came in with the file cannot run when the list is opened.
  */
 import { stringify } from 'csv-stringify'
-import { Op } from 'sequelize'
 import { UploadIdParamsSchema } from '#shared/schemas/price-lists'
-import { PriceUpload, PriceUploadRow } from '../../../models/price-lists'
+import { PriceUpload } from '../../../models/price-lists'
+import { F, readFindings } from '../../../services/price-lists/findings'
 
 export default defineEventHandler(async (event) => {
   requireAbility(event, 'priceLists.manage')
@@ -24,22 +24,14 @@ export default defineEventHandler(async (event) => {
     'x-content-type-options': 'nosniff',
     'cache-control': 'no-store',
   })
+  const refused = await readFindings(id, 'rejected')
   ;(async () => {
     try {
-      let after = 0
-      for (;;) {
-        const rows = await PriceUploadRow.findAll({
-          where: { uploadId: id, kind: 'rejected', id: { [Op.gt]: after } },
-          order: [['id', 'ASC']], limit: 2000,
-        })
-        if (!rows.length) break
-        for (const r of rows) {
-          const raw = r.raw ?? {}
-          if (!csv.write([r.rowNumber, r.columns ?? '', r.reason ?? '', ...cellColumns.map((h) => raw[h] ?? (h === up.mapping?.sku ? r.sku ?? '' : ''))])) {
-            await new Promise((res) => csv.once('drain', res))
-          }
+      for (const f of refused) {
+        const raw = f[F.raw] ?? {}
+        if (!csv.write([f[F.row], f[F.columns] ?? '', f[F.reason] ?? '', ...cellColumns.map((h) => raw[h] ?? (h === up.mapping?.sku ? f[F.sku] ?? '' : ''))])) {
+          await new Promise((res) => csv.once('drain', res))
         }
-        after = rows[rows.length - 1]!.id
       }
     } finally {
       csv.end()
