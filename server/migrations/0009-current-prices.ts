@@ -7,11 +7,10 @@ import type { QueryInterface } from 'sequelize'
  * one row per file row in `price_upload_rows`. Now:
  * - `part_prices` holds the prices in use: one row per part, with the version that last set it. Applying a file
  *   updates only the parts whose values move; every price read is one lookup by part.
- * - `price_upload_findings` holds the check's findings (new, changed, unchanged, missing, rejected) with what the apply
- *   will write (prices, stock, revive), what an apply
- *   did to part statuses (created, discontinued, reactivated) and, written by the apply inside its transaction
- *   from the rows it is about to change, the values they had before (`before`). A version is therefore its file's
- *   findings over the version before it; rolling back writes `before` back, exactly.
+ * - `price_upload_findings` holds the check's findings (new, changed, unchanged, missing, rejected), what the apply
+ *   will write (prices with the values they replace, stock, parts back in use) and what an apply did to part
+ *   statuses (created, discontinued, reactivated). A version is therefore its file's findings over the version
+ *   before it; rolling back writes back the values the changed parts had, exactly.
  * `prices` keeps the complete copies written before this migration, read by nothing.
  */
 export async function up(qi: QueryInterface): Promise<void> {
@@ -47,8 +46,9 @@ export async function up(qi: QueryInterface): Promise<void> {
              FROM (SELECT * FROM price_upload_rows ORDER BY id) GROUP BY upload_id, kind`)
   // and what the apply reads: new prices of changed parts, stock counts, discontinued parts the file prices again
   await q(`INSERT INTO price_upload_findings (upload_id, kind, seq, size, rows)
-           SELECT upload_id, 'prices', 0, COUNT(*), json_group_array(json_array(part_id, new_list_minor, new_trade_minor, new_core_minor, new_pack))
-             FROM price_upload_rows WHERE kind = 'changed' GROUP BY upload_id`)
+           SELECT r.upload_id, 'prices', 0, COUNT(*), json_group_array(json_array(r.part_id, r.new_list_minor, r.new_trade_minor, r.new_core_minor, r.new_pack,
+                  r.old_list_minor, r.old_trade_minor, r.old_core_minor, r.old_pack, CASE WHEN r.old_list_minor IS NULL THEN NULL ELSE u.base_price_list_id END))
+             FROM price_upload_rows r JOIN price_uploads u ON u.id = r.upload_id WHERE r.kind = 'changed' GROUP BY r.upload_id`)
   await q(`INSERT INTO price_upload_findings (upload_id, kind, seq, size, rows)
            SELECT upload_id, 'stock', 0, COUNT(*), json_group_array(json_array(part_id, json(stock)))
              FROM price_upload_rows WHERE kind IN ('changed', 'unchanged') AND stock IS NOT NULL GROUP BY upload_id`)
@@ -59,15 +59,6 @@ export async function up(qi: QueryInterface): Promise<void> {
   await q(`INSERT INTO price_upload_findings (upload_id, kind, seq, size, rows)
            SELECT upload_id, part_status_change, 0, COUNT(*), json_group_array(part_id)
              FROM price_upload_rows WHERE part_status_change IS NOT NULL GROUP BY upload_id, part_status_change`)
-  // an applied file can still be rolled back: its version was a complete copy, so "before" is the previous copy
-  await q(`INSERT INTO price_upload_findings (upload_id, kind, seq, size, rows)
-           SELECT u.id, 'before', 0, COUNT(*), json_group_array(CASE WHEN old.part_id IS NULL THEN json_array(cur.part_id)
-                  ELSE json_array(cur.part_id, old.list_price_minor, old.trade_cost_minor, COALESCE(old.core_deposit_minor, 0), COALESCE(old.pack_quantity, 1), old.price_list_id) END)
-             FROM price_uploads u
-             JOIN prices cur ON cur.price_list_id = u.price_list_id
-             LEFT JOIN prices old ON old.price_list_id = u.previous_price_list_id AND old.part_id = cur.part_id
-            WHERE u.status = 'applied' AND u.previous_price_list_id IS NOT NULL
-            GROUP BY u.id`)
   await q('DROP TABLE price_upload_rows')
 }
 

@@ -432,10 +432,13 @@ describe('apply and roll back', () => {
       const setByNow = new Map((await setBy()).map((r) => [r.part_id, r.price_list_id]))
       for (const p of parts) expect(setByNow.get(p.id)).toBe(now.id)
       // what the apply replaced is on record, one entry per changed part, as it was before
-      const replaced = await one<{ size: number; rows: string }>(`SELECT size, rows FROM price_upload_findings WHERE upload_id = ? AND kind = 'before'`, [d.id])
+      const replaced = await one<{ size: number; rows: string }>(`SELECT size, rows FROM price_upload_findings WHERE upload_id = ? AND kind = 'prices'`, [d.id])
       expect(replaced.size).toBe(40)
       const oldOf = new Map(before.map((r) => [r.part_id, r]))
-      for (const [partId, list] of JSON.parse(replaced.rows) as number[][]) expect(list).toBe(oldOf.get(partId!)!.list_price_minor)
+      const wasSetBy = new Map(setByBefore.map((r) => [r.part_id, r.price_list_id]))
+      for (const [partId, , , , , oldList, oldTrade, , , oldVersion] of JSON.parse(replaced.rows) as (number | null)[][]) {
+        expect([oldList, oldTrade, oldVersion]).toEqual([oldOf.get(partId!)!.list_price_minor, oldOf.get(partId!)!.trade_cost_minor, wasSetBy.get(partId!)])
+      }
       // audit and the admins' summary
       const entry = await one<{ action: string; changes: string }>(`SELECT action, changes FROM audit_log WHERE action = 'priceList.apply' AND entity_id = ? `, [String(now.id)])
       expect(JSON.parse(entry.changes)).toMatchObject({ uploadId: d.id, version: now.version, changed: 40, new: 1 })

@@ -2,9 +2,10 @@
  * Applying a checked price file and rolling it back, each in ONE write transaction (all rows or none).
  *
  * The prices in use live in `part_prices`, one row per part. A new version is the file's findings over the
- * version before it: the apply first records, from the rows it is about to change, the values they hold
- * (`before`), then writes the file's values for the parts that are new or whose prices move, and records the part
- * statuses it changes. Rolling back writes `before` back and undoes those statuses, so the previous version's
+ * version before it: the apply writes the file's values for the parts that are new or whose prices move (the
+ * check's `prices` list, which also holds the values they replace) and records the part statuses it changes.
+ * An apply is refused unless the version the check compared with is still in use, and only price files change
+ * prices, so rolling back can write those replaced values back and undo the statuses: the previous version's
  * prices return exactly. Parts, prices, stock and version status change in the same transaction; if anything
  * throws, the previous version stays active and untouched. Bulk work is a handful of set-based statements reading
  * the findings inside SQLite (`json_each`), so even 200,000 rows hold the write lock briefly.
@@ -141,12 +142,6 @@ async function buildVersion(t: Transaction, up: PriceUpload, list: PriceList, op
   )
   if (clash) throw refuse(409, `A part with SKU ${clash.sku} was added to the catalogue after this file was checked. Check the file again before applying it.`)
 
-  // the prices about to be replaced, as they are now (not as the check saw them): rolling back writes these back
-  await q(`INSERT INTO price_upload_findings (upload_id, kind, seq, size, rows)
-           SELECT $1, 'before', 0, COUNT(*), COALESCE(json_group_array(CASE WHEN pp.part_id IS NULL THEN json_array(x.id)
-                  ELSE json_array(x.id, pp.list_price_minor, pp.trade_cost_minor, pp.core_deposit_minor, pp.pack_quantity, pp.price_list_id) END), '[]')
-             FROM (SELECT f.v->>0 AS id FROM ${findingsOf(['prices'])} f) x LEFT JOIN part_prices pp ON pp.part_id = x.id`, [u])
-
   await q(`INSERT INTO parts (sku, type, product_line, description, specs, status, created_at, updated_at)
            SELECT ${col('sku')}, ${col('type')}, '', ${col('description')}, '{}', 'active', $2, $2 FROM ${findingsOf(['new'])} f`, [u, now])
   await record(t, u, 'created', `SELECT p.id FROM ${findingsOf(['new'])} f JOIN parts p ON p.sku = ${col('sku')}`)
@@ -187,7 +182,7 @@ async function buildVersion(t: Transaction, up: PriceUpload, list: PriceList, op
 }
 
 /** What an apply records for its roll back. */
-const APPLY_RECORDS = ['before', 'created', 'discontinued', 'reactivated']
+const APPLY_RECORDS = ['created', 'discontinued', 'reactivated']
 
 /** Records the part ids `select` returns under `kind` (one chunk). */
 async function record(t: Transaction, uploadId: number, kind: string, select: string): Promise<void> {
@@ -314,12 +309,12 @@ export async function rollbackUpload(uploadId: number, userId: number, opts: { f
     await q(`UPDATE price_lists SET status = 'retired', updated_at = $2 WHERE id = $1`, [list.id, now])
     if (opts.failMidway) throw new Error('test hook: rollback stopped midway')
     await q(`UPDATE price_lists SET status = 'active', activated_at = $2, updated_at = $2 WHERE id = $1`, [prev.id, now])
-    // the prices this file replaced, exactly as they were; parts it priced for the first time lose that price
-    const before = `(SELECT r.value AS v FROM price_upload_findings f, json_each(f.rows) r WHERE f.upload_id = $1 AND f.kind = 'before')`
-    await q(`UPDATE part_prices SET list_price_minor = b.v->>1, trade_cost_minor = b.v->>2, core_deposit_minor = b.v->>3,
-                    pack_quantity = b.v->>4, price_list_id = b.v->>5
-               FROM ${before} b WHERE part_prices.part_id = b.v->>0 AND json_array_length(b.v) > 1`, [up.id])
-    await q(`DELETE FROM part_prices WHERE part_id IN (SELECT b.v->>0 FROM ${before} b WHERE json_array_length(b.v) = 1)
+    // the prices this file replaced, exactly as they were ('prices': [part, new list, trade, core, pack, old list,
+    // trade, core, pack, old version]); parts it priced for the first time lose that price
+    await q(`UPDATE part_prices SET list_price_minor = b.v->>5, trade_cost_minor = b.v->>6, core_deposit_minor = COALESCE(b.v->>7, 0),
+                    pack_quantity = COALESCE(b.v->>8, 1), price_list_id = b.v->>9
+               FROM ${findingsOf(['prices'])} b WHERE part_prices.part_id = b.v->>0 AND b.v->>5 IS NOT NULL AND b.v->>9 IS NOT NULL`, [up.id])
+    await q(`DELETE FROM part_prices WHERE part_id IN (SELECT b.v->>0 FROM ${findingsOf(['prices'])} b WHERE b.v->>5 IS NULL OR b.v->>9 IS NULL)
                 OR part_id IN (${recorded('created')})`, [up.id])
     await q(`UPDATE parts SET status = 'active', updated_at = $2 WHERE id IN (${recorded('discontinued')})`, [up.id, now])
     // parts this file created or brought back have no price in the earlier version: out of use again

@@ -109,6 +109,7 @@ class CatalogueSnapshot {
   private money = new Float64Array(3 * 1024) // list, trade, core per part; NaN = none
   private packs = new Int32Array(1024) // 0 = none
   private flags = new Uint8Array(1024) // 1 = discontinued
+  private setBy = new Int32Array(1024) // the version that set the price in use (0 = none)
   private stock: Int32Array // per part, one count per branch (-1 = no row)
   /** first file row that named each part (0 = not yet) */
   firstRow = new Int32Array(1024)
@@ -118,7 +119,7 @@ class CatalogueSnapshot {
     this.stock = new Int32Array(1024 * Math.max(1, branchCodes.length))
   }
 
-  add(sku: string, id: number, status: string, l: number | null, t: number | null, c: number | null, k: number | null, stock: (number | null)[]): void {
+  add(sku: string, id: number, status: string, l: number | null, t: number | null, c: number | null, k: number | null, by: number | null, stock: (number | null)[]): void {
     if (this.size === this.ids.length) this.grow()
     const i = this.size++
     this.index.set(sku.toUpperCase(), i)
@@ -129,6 +130,7 @@ class CatalogueSnapshot {
     this.money[3 * i + 2] = c ?? NaN
     this.packs[i] = k ?? 0
     this.flags[i] = status === 'discontinued' ? 1 : 0
+    this.setBy[i] = by ?? 0
     const w = this.branchCodes.length
     for (let b = 0; b < w; b++) this.stock[i * w + b] = stock[b] ?? -1
   }
@@ -137,7 +139,7 @@ class CatalogueSnapshot {
     const n = this.ids.length * 2
     const g = <T extends Int32Array | Float64Array | Uint8Array>(a: T, len: number): T => { const b = new (a.constructor as new (n: number) => T)(len); b.set(a); return b }
     this.ids = g(this.ids, n); this.money = g(this.money, 3 * n); this.packs = g(this.packs, n)
-    this.flags = g(this.flags, n); this.firstRow = g(this.firstRow, n)
+    this.flags = g(this.flags, n); this.firstRow = g(this.firstRow, n); this.setBy = g(this.setBy, n)
     this.stock = g(this.stock, n * Math.max(1, this.branchCodes.length))
   }
 
@@ -145,6 +147,8 @@ class CatalogueSnapshot {
   id(i: number): number { return this.ids[i]! }
   sku(i: number): string { return this.skus[i]! }
   discontinued(i: number): boolean { return this.flags[i] === 1 }
+  /** the version that set the part's price in use (null: no price) */
+  pricedBy(i: number): number | null { return this.setBy[i] || null }
 
   /** The counts of `stock` that differ from what the part holds now (null when none moves). */
   movedStock(i: number, stock: Record<string, number> | null): Record<string, number> | null {
@@ -172,7 +176,7 @@ class CatalogueSnapshot {
     const [{ top }] = await getDb().query<{ top: number | null }>('SELECT MAX(id) AS top FROM parts', { type: QueryTypes.SELECT }) as [{ top: number | null }]
     // slices by id range, so the next slice's query runs on SQLite's thread while this one is unpacked here
     const slice = (from: number) => getDb().query<{ rows: string | null }>(
-      `SELECT json_group_array(json_array(p.id, p.sku, p.status, pr.list_price_minor, pr.trade_cost_minor, pr.core_deposit_minor, pr.pack_quantity${stockCols ? `, ${stockCols}` : ''})) AS rows
+      `SELECT json_group_array(json_array(p.id, p.sku, p.status, pr.list_price_minor, pr.trade_cost_minor, pr.core_deposit_minor, pr.pack_quantity, pr.price_list_id${stockCols ? `, ${stockCols}` : ''})) AS rows
          FROM parts p LEFT JOIN part_prices pr ON pr.part_id = p.id WHERE p.id > $1 AND p.id <= $2`,
       { bind: [from, from + SLICE], type: QueryTypes.SELECT, raw: true },
     )
@@ -180,8 +184,8 @@ class CatalogueSnapshot {
     for (let from = 0; next; from += SLICE) {
       const [got] = await next
       next = from + SLICE < top! ? slice(from + SLICE) : null
-      for (const r of JSON.parse(got?.rows ?? '[]') as [number, string, string, number | null, number | null, number | null, number | null, ...(number | null)[]][]) {
-        snap.add(r[1], r[0], r[2], r[3], r[4], r[5], r[6], r.slice(7) as (number | null)[])
+      for (const r of JSON.parse(got?.rows ?? '[]') as [number, string, string, number | null, number | null, number | null, number | null, number | null, ...(number | null)[]][]) {
+        snap.add(r[1], r[0], r[2], r[3], r[4], r[5], r[6], r[7], r.slice(8) as (number | null)[])
       }
       await yieldToLoop()
     }
@@ -346,7 +350,9 @@ export async function runCheck(id: number): Promise<void> {
         c.changePct, c.large ? 1 : 0, v.stock ?? null, null, note, null,
       ])
       if (c.kind === 'changed') {
-        prices.push([cur!.id, c.list, c.trade, c.core, c.pack])
+        // with the values they replace: the apply checks that the version compared with is still in use, and only
+        // price files change prices, so these are exactly what a roll back must write back
+        prices.push([cur!.id, c.list, c.trade, c.core, c.pack, cur!.list, cur!.trade, cur!.core, cur!.pack, snap.pricedBy(slot!)])
         if (c.large) large++
       }
     }

@@ -1,14 +1,15 @@
 /**
  * What a price file's check found, stored as a few JSON chunks per kind in `price_upload_findings` instead of one
- * table row per file row: writing 200,000 findings is then a handful of statements (measured: ~30x cheaper than
- * staging them row by row), and the apply reads them back inside SQLite (`json_each`) with set-based statements.
+ * table row per file row: writing 200,000 findings is then a handful of statements (measured on this machine:
+ * 1.9 s to stage 200,000 table rows, about 0.2 s for the same findings as chunks, commit included), and the apply
+ * reads them back inside SQLite (`json_each`) with set-based statements.
  *
  * One finding is a positional tuple (see `Finding`); the same positions are used by the apply's SQL (`col()`).
  * Besides the check's kinds (new, changed, unchanged, missing, rejected) the check writes compact lists for the
- * apply: `prices` (`[partId, list, trade, core, pack]` of changed parts), `stock` (`[partId, { branch: count }]`,
- * only counts that differ from the catalogue's) and `revive` (ids of discontinued parts the file prices). The apply
- * records what it did, for an exact roll back: `created`, `discontinued`, `reactivated` (part ids) and `before` (the prices it replaced:
- * `[partId, list, trade, core, pack, setByPriceListId]`, or `[partId]` for a part that had no price).
+ * apply: `prices` (`[partId, list, trade, core, pack, old list, old trade, old core, old pack, old version]` for each
+ * changed part: what the apply writes and what a roll back writes back), `stock` (`[partId, { branch: count }]`, only
+ * counts that differ from the catalogue's) and `revive` (ids of discontinued parts the file prices). The apply records
+ * the part statuses it changed, for the roll back: `created`, `discontinued`, `reactivated` (part ids).
  *
  * Reading for the preview loads one kind of one upload into memory (a few MB even for 200,000 rows) and keeps
  * the last few in a small cache; chunk ids only grow, so a new check of the same upload is never served stale.
