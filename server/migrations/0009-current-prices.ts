@@ -23,6 +23,11 @@ export async function up(qi: QueryInterface): Promise<void> {
     pack_quantity INTEGER NOT NULL DEFAULT 1,
     price_list_id INTEGER NOT NULL REFERENCES price_lists (id)
   )`)
+  // a revision counter for prices, bumped by triggers whoever writes (the price-file check keeps a snapshot of them)
+  await q('ALTER TABLE catalogue_revisions ADD COLUMN prices INTEGER NOT NULL DEFAULT 0')
+  for (const op of ['INSERT', 'UPDATE', 'DELETE']) {
+    await q(`CREATE TRIGGER part_prices_bump_${op.toLowerCase()} AFTER ${op} ON part_prices BEGIN UPDATE catalogue_revisions SET prices = prices + 1 WHERE id = 1; END`)
+  }
   await q(`INSERT INTO part_prices (part_id, list_price_minor, trade_cost_minor, core_deposit_minor, pack_quantity, price_list_id)
            SELECT part_id, list_price_minor, trade_cost_minor, COALESCE(core_deposit_minor, 0), COALESCE(pack_quantity, 1), price_list_id
              FROM prices WHERE price_list_id = (SELECT id FROM price_lists WHERE status = 'active' ORDER BY id DESC LIMIT 1)`)
@@ -79,5 +84,7 @@ export async function down(qi: QueryInterface): Promise<void> {
                   j.value->>17, j.value->'$[18]'
              FROM price_upload_findings f, json_each(f.rows) j WHERE f.kind IN ('new', 'changed', 'unchanged', 'missing', 'rejected')`)
   await q('DROP TABLE price_upload_findings')
+  for (const op of ['insert', 'update', 'delete']) await q(`DROP TRIGGER IF EXISTS part_prices_bump_${op}`)
   await q('DROP TABLE part_prices')
+  await q('ALTER TABLE catalogue_revisions DROP COLUMN prices')
 }

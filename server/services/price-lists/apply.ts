@@ -23,7 +23,7 @@ import { User } from '../../models/accounts'
 import { PriceList } from '../../models/catalogue'
 import { PriceUpload } from '../../models/price-lists'
 import type { MissingAction } from '../../../shared/types/price-lists'
-import { activePriceListId, storedPath } from './check'
+import { activePriceListId, storedPath, warmSnapshot } from './check'
 import { F, col, deleteFindings, findingsOf } from './findings'
 
 /** SQLite text for a date in the form Sequelize writes (so models read raw-SQL rows back alike). */
@@ -156,11 +156,11 @@ async function buildVersion(t: Transaction, up: PriceUpload, list: PriceList, op
              core_deposit_minor = excluded.core_deposit_minor, pack_quantity = excluded.pack_quantity, price_list_id = excluded.price_list_id`, [u, list.id])
 
   if (opts.missingParts === 'discontinue') {
-    await record(t, u, 'discontinued', `SELECT p.id FROM parts p WHERE p.status = 'active' AND p.id IN (SELECT ${col('partId')} FROM ${findingsOf(['missing'])} f)`)
+    await record(t, u, 'discontinued', `SELECT p.id FROM ${findingsOf(['missing'])} f JOIN parts p ON p.id = ${col('partId')} WHERE p.status = 'active'`)
     await q(`UPDATE parts SET status = 'discontinued', updated_at = $2 WHERE id IN (${recorded('discontinued')})`, [u, now])
   }
   // discontinued parts that the file prices again are back in use
-  await record(t, u, 'reactivated', `SELECT p.id FROM parts p WHERE p.status = 'discontinued' AND p.id IN (SELECT f.v FROM ${findingsOf(['revive'])} f)`)
+  await record(t, u, 'reactivated', `SELECT p.id FROM ${findingsOf(['revive'])} f JOIN parts p ON p.id = f.v WHERE p.status = 'discontinued'`)
   await q(`UPDATE parts SET status = 'active', updated_at = $2 WHERE id IN (${recorded('reactivated')})`, [u, now])
   // stock per branch: the counts the check found moving ('stock': [partId, { branch: count }]) and the new parts' counts
   await q(`INSERT INTO stock_levels (part_id, branch_id, quantity, updated_at)
@@ -244,6 +244,7 @@ export async function applyUpload(req: ApplyRequest): Promise<ApplyOutcome> {
     })
     // the stored file goes and the admins' summary is sent after the answer: neither can undo the apply
     afterApply(req.uploadId).catch((e) => console.error('[boreline] after-apply work failed:', e))
+    void warmSnapshot()
     return outcome
   } catch (err) {
     const message = (err as { statusCode?: number }).statusCode
@@ -326,6 +327,7 @@ export async function rollbackUpload(uploadId: number, userId: number, opts: { f
     })
     return { status: 'rolled_back' as const, version: list.version, activeVersion: prev.version, up }
   })
+  void warmSnapshot()
   const by = (await User.findByPk(userId))?.name ?? 'someone'
   await mailAdmins(
     `Price list version ${result.version} rolled back: version ${result.activeVersion} is in use again`,
@@ -389,6 +391,7 @@ export async function activateDue(now = new Date()): Promise<number> {
     }
     if (applied) {
       done++
+      void warmSnapshot()
       await afterApply(up.id).catch((e) => console.error('[boreline] after-apply work failed:', e))
     }
   }

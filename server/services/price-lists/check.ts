@@ -98,9 +98,11 @@ export async function activePriceListId(): Promise<number | null> {
 
 /**
  * The parts with their prices in use and stock per branch, held compactly (typed arrays indexed through one SKU
- * map: a few MB for 200,000 parts instead of 200,000 objects). Loaded in slices of 5,000 parts, each slice one
- * JSON text built by SQLite (`json_group_array`) and parsed at once (much cheaper than 5,000 driver row objects),
- * the next slice's query running while this one is unpacked; neither the event loop nor the connection is held long.
+ * map: a few MB for 200,000 parts instead of 200,000 objects). Parts and prices are loaded in slices of 5,000
+ * parts, each slice one JSON text built by SQLite (`json_group_array`) and parsed at once (much cheaper than 5,000
+ * driver row objects), the next slice's query running while this one is unpacked. They are kept between checks
+ * and built again in the background when the catalogue or the prices move (revision counters bumped by triggers,
+ * whoever writes); stock moves with every order, so it is read afresh for each check.
  */
 class CatalogueSnapshot {
   private readonly index = new Map<string, number>()
@@ -110,16 +112,13 @@ class CatalogueSnapshot {
   private packs = new Int32Array(1024) // 0 = none
   private flags = new Uint8Array(1024) // 1 = discontinued
   private setBy = new Int32Array(1024) // the version that set the price in use (0 = none)
-  private stock: Int32Array // per part, one count per branch (-1 = no row)
+  private stock = new Int32Array(0) // per part, one count per branch of `branchCodes` (-1 = no row)
+  private branchCodes: string[] = []
   /** first file row that named each part (0 = not yet) */
   firstRow = new Int32Array(1024)
   size = 0
 
-  constructor(readonly branchCodes: string[]) {
-    this.stock = new Int32Array(1024 * Math.max(1, branchCodes.length))
-  }
-
-  add(sku: string, id: number, status: string, l: number | null, t: number | null, c: number | null, k: number | null, by: number | null, stock: (number | null)[]): void {
+  add(sku: string, id: number, status: string, l: number | null, t: number | null, c: number | null, k: number | null, by: number | null): void {
     if (this.size === this.ids.length) this.grow()
     const i = this.size++
     this.index.set(sku.toUpperCase(), i)
@@ -131,8 +130,6 @@ class CatalogueSnapshot {
     this.packs[i] = k ?? 0
     this.flags[i] = status === 'discontinued' ? 1 : 0
     this.setBy[i] = by ?? 0
-    const w = this.branchCodes.length
-    for (let b = 0; b < w; b++) this.stock[i * w + b] = stock[b] ?? -1
   }
 
   private grow(): void {
@@ -140,7 +137,6 @@ class CatalogueSnapshot {
     const g = <T extends Int32Array | Float64Array | Uint8Array>(a: T, len: number): T => { const b = new (a.constructor as new (n: number) => T)(len); b.set(a); return b }
     this.ids = g(this.ids, n); this.money = g(this.money, 3 * n); this.packs = g(this.packs, n)
     this.flags = g(this.flags, n); this.firstRow = g(this.firstRow, n); this.setBy = g(this.setBy, n)
-    this.stock = g(this.stock, n * Math.max(1, this.branchCodes.length))
   }
 
   slot(sku: string): number | undefined { return this.index.get(sku) }
@@ -149,6 +145,18 @@ class CatalogueSnapshot {
   discontinued(i: number): boolean { return this.flags[i] === 1 }
   /** the version that set the part's price in use (null: no price) */
   pricedBy(i: number): number | null { return this.setBy[i] || null }
+
+  /** The slot of a part id (ids are loaded in ascending order). */
+  private slotOfId(id: number): number {
+    let lo = 0, hi = this.size - 1
+    while (lo <= hi) {
+      const mid = (lo + hi) >> 1
+      const v = this.ids[mid]!
+      if (v === id) return mid
+      if (v < id) lo = mid + 1; else hi = mid - 1
+    }
+    return -1
+  }
 
   /** The counts of `stock` that differ from what the part holds now (null when none moves). */
   movedStock(i: number, stock: Record<string, number> | null): Record<string, number> | null {
@@ -170,27 +178,91 @@ class CatalogueSnapshot {
     }
   }
 
-  static async load(branches: { id: number; code: string }[]): Promise<CatalogueSnapshot> {
-    const snap = new CatalogueSnapshot(branches.map((b) => b.code))
-    const stockCols = branches.map((b) => `(SELECT quantity FROM stock_levels s WHERE s.part_id = p.id AND s.branch_id = ${Number(b.id)})`).join(', ')
-    const [{ top }] = await getDb().query<{ top: number | null }>('SELECT MAX(id) AS top FROM parts', { type: QueryTypes.SELECT }) as [{ top: number | null }]
-    // slices by id range, so the next slice's query runs on SQLite's thread while this one is unpacked here
-    const slice = (from: number) => getDb().query<{ rows: string | null }>(
-      `SELECT json_group_array(json_array(p.id, p.sku, p.status, pr.list_price_minor, pr.trade_cost_minor, pr.core_deposit_minor, pr.pack_quantity, pr.price_list_id${stockCols ? `, ${stockCols}` : ''})) AS rows
+  /** Parts and their prices in use. */
+  static async load(): Promise<CatalogueSnapshot> {
+    const snap = new CatalogueSnapshot()
+    await inSlices(
+      `SELECT json_group_array(json_array(p.id, p.sku, p.status, pr.list_price_minor, pr.trade_cost_minor, pr.core_deposit_minor, pr.pack_quantity, pr.price_list_id)) AS rows
          FROM parts p LEFT JOIN part_prices pr ON pr.part_id = p.id WHERE p.id > $1 AND p.id <= $2`,
-      { bind: [from, from + SLICE], type: QueryTypes.SELECT, raw: true },
+      (rows) => {
+        for (const r of rows as [number, string, string, number | null, number | null, number | null, number | null, number | null][]) {
+          snap.add(r[1], r[0], r[2], r[3], r[4], r[5], r[6], r[7])
+        }
+      },
     )
-    let next = top ? slice(0) : null
-    for (let from = 0; next; from += SLICE) {
-      const [got] = await next
-      next = from + SLICE < top! ? slice(from + SLICE) : null
-      for (const r of JSON.parse(got?.rows ?? '[]') as [number, string, string, number | null, number | null, number | null, number | null, number | null, ...(number | null)[]][]) {
-        snap.add(r[1], r[0], r[2], r[3], r[4], r[5], r[6], r[7], r.slice(8) as (number | null)[])
-      }
-      await yieldToLoop()
-    }
     return snap
   }
+
+  /** Stock per branch as it is now, for this check. */
+  async loadStock(branches: { id: number; code: string }[]): Promise<void> {
+    this.branchCodes = branches.map((b) => b.code)
+    const w = branches.length
+    const column = new Map(branches.map((b, i) => [b.id, i]))
+    this.stock = new Int32Array(this.size * w).fill(-1)
+    await inSlices(
+      'SELECT json_group_array(json_array(part_id, branch_id, quantity)) AS rows FROM stock_levels WHERE part_id > $1 AND part_id <= $2',
+      (rows) => {
+        for (const [partId, branchId, quantity] of rows as [number, number, number][]) {
+          const i = this.slotOfId(partId)
+          const b = column.get(branchId)
+          if (i >= 0 && b !== undefined) this.stock[i * w + b] = quantity
+        }
+      },
+    )
+  }
+}
+
+/** Runs a `json_group_array` query over part id ranges of 5,000, the next range's query running while one is unpacked. */
+async function inSlices(sql: string, take: (rows: unknown[]) => void): Promise<void> {
+  const [{ top }] = await getDb().query<{ top: number | null }>('SELECT MAX(id) AS top FROM parts', { type: QueryTypes.SELECT }) as [{ top: number | null }]
+  const slice = (from: number) => getDb().query<{ rows: string | null }>(sql, { bind: [from, from + SLICE], type: QueryTypes.SELECT, raw: true })
+  let next = top ? slice(0) : null
+  for (let from = 0; next; from += SLICE) {
+    const [got] = await next
+    next = from + SLICE < top! ? slice(from + SLICE) : null
+    take(JSON.parse(got?.rows ?? '[]') as unknown[])
+    await yieldToLoop()
+  }
+}
+
+let kept: { key: string; snap: CatalogueSnapshot } | null = null
+let warming: Promise<void> | null = null
+
+/** What the kept snapshot depends on: the catalogue and price revisions (triggers) and the version in use. */
+async function snapshotKey(): Promise<string> {
+  const [r] = await getDb().query<{ c: number; p: number; v: number | null }>(
+    `SELECT catalogue AS c, prices AS p, (SELECT id FROM price_lists WHERE status = 'active' ORDER BY id DESC LIMIT 1) AS v FROM catalogue_revisions WHERE id = 1`,
+    { type: QueryTypes.SELECT },
+  )
+  return `${r?.c}:${r?.p}:${r?.v}`
+}
+
+/**
+ * Builds the kept snapshot in the background if the catalogue or prices moved since it was built (at start, after
+ * an apply or a roll back). `BORELINE_PRICE_SNAPSHOT=0` keeps none (each check then loads its own).
+ */
+export function warmSnapshot(): Promise<void> {
+  if (process.env.BORELINE_PRICE_SNAPSHOT === '0') return Promise.resolve()
+  warming ??= (async () => {
+    const key = await snapshotKey() // read before the load: a change during it leaves the key stale, never the data
+    if (kept?.key === key) return
+    kept = { key, snap: await CatalogueSnapshot.load() }
+  })().catch((err) => console.error('[boreline] price snapshot:', err?.message ?? err)).finally(() => { warming = null })
+  return warming
+}
+
+/** The snapshot for a check: the kept one when nothing moved since it was built, with stock read now. */
+async function snapshotForCheck(branches: { id: number; code: string }[]): Promise<CatalogueSnapshot> {
+  if (warming) await warming
+  const key = await snapshotKey()
+  let snap = kept?.key === key ? kept.snap : null
+  if (!snap) {
+    snap = await CatalogueSnapshot.load()
+    if (process.env.BORELINE_PRICE_SNAPSHOT !== '0') kept = { key, snap }
+  }
+  snap.firstRow.fill(0)
+  await snap.loadStock(branches)
+  return snap
 }
 
 const SLICE = 5_000
@@ -279,7 +351,7 @@ export async function runCheck(id: number): Promise<void> {
     // rows wait in `early` and are compared, in file order, once it is there.
     let current: CatalogueSnapshot | undefined
     let snapshotError: unknown
-    const loading = CatalogueSnapshot.load(branches).then((snap) => { current = snap; mark('snapshot') }, (err) => { snapshotError = err })
+    const loading = snapshotForCheck(branches).then((snap) => { current = snap; mark('snapshot') }, (err) => { snapshotError = err })
     let early: ([FileRow, RowResult] | undefined)[] = []
     let earlyAt = 0
 
