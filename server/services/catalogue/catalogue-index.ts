@@ -84,7 +84,9 @@ export function partIndexStats(): { ready: boolean; parts: number; builtInMs: nu
 
 /** Re-reads these parts from the database into the index (removes those that are gone). */
 export async function refreshIndexedParts(partIds: number[]): Promise<void> {
-  if (!index && building) await building.catch(() => {}) // a build that read the rows before the change
+  // a rebuild under way may have read these rows before the change, and replaces the index when it ends: wait for
+  // it, then update the index it leaves (updating the old one would be lost)
+  if (building) await building.catch(() => {})
   if (!index || !partIds.length) return
   const inputs = await loadInputs(partIds)
   const found = new Set(inputs.map((i) => i.id))

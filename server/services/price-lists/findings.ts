@@ -156,11 +156,3 @@ export async function readFindings(uploadId: number, kind: ChangeKind, t?: Trans
   while (cache.size > CACHE_ENTRIES) cache.delete(cache.keys().next().value!)
   return rows
 }
-
-/** Part ids an apply recorded under `kind` (created, discontinued, reactivated). */
-export async function recordedIds(uploadId: number, kind: 'created' | 'discontinued' | 'reactivated', t: Transaction): Promise<number[]> {
-  const rows = await getDb().query<{ rows: string }>('SELECT rows FROM price_upload_findings WHERE upload_id = $1 AND kind = $2', {
-    bind: [uploadId, kind], type: QueryTypes.SELECT, transaction: t,
-  })
-  return rows.flatMap((r) => JSON.parse(r.rows) as number[])
-}
