@@ -1,5 +1,7 @@
 // Boreline: Nuxt 4 application config. Runtime values come from NUXT_* environment variables
 // (see .env.example); nothing here fetches anything from outside the machine at run time.
+import { join } from 'node:path'
+import { fileURLToPath } from 'node:url'
 import { SCRYPT_OPTIONS } from './server/services/password'
 
 const buildDir = process.env.BORELINE_BUILD_DIR // lets parallel work trees build side by side
@@ -58,6 +60,21 @@ export default defineNuxtConfig({
       traceOptions: { conditions: ['node', 'module-sync'] },
     },
     ...(buildDir ? { output: { dir: `${buildDir}/.output` } } : {}),
+  },
+  hooks: {
+    // the price-file rows worker (server/services/price-lists/rows-worker.ts) runs in its own thread, so it is
+    // bundled on its own, beside the server's entry, once the server is built (dev builds too)
+    'nitro:init'(nitro) {
+      nitro.hooks.hook('compiled', async () => {
+        const { build } = await import('esbuild')
+        await build({
+          entryPoints: [fileURLToPath(new URL('./server/services/price-lists/rows-worker.ts', import.meta.url))],
+          outfile: join(nitro.options.output.serverDir, 'price-rows-worker.cjs'),
+          bundle: true, platform: 'node', format: 'cjs', target: 'node20', logLevel: 'warning',
+          external: ['exceljs'], // never used by the worker (CSV only)
+        })
+      })
+    },
   },
   auth: { hash: { scrypt: { ...SCRYPT_OPTIONS } } },
   typescript: { strict: true },

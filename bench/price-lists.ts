@@ -180,6 +180,8 @@ async function main() {
     let sampling = false
     let stop = false
     let samples: number[] = []
+    let phase = ''
+    let slowest: { ms: number; phase: string }[] = [] // the slowest health answers and when they came (upload, check, apply)
     let peakRss = 0
     let overallPeak = 0
     const sampler = (async () => {
@@ -187,7 +189,10 @@ async function main() {
         if (sampling) {
           const t = performance.now()
           await fetch(`${base}/api/health`).then((r) => r.arrayBuffer())
-          samples.push(performance.now() - t)
+          const ms = performance.now() - t
+          samples.push(ms)
+          slowest.push({ ms, phase })
+          slowest = slowest.sort((a, b) => b.ms - a.ms).slice(0, 3)
           peakRss = Math.max(peakRss, vmStatus(server.pid!).rss)
         }
         if (stop) return
@@ -199,6 +204,8 @@ async function main() {
       const size = statSync(path).size
       const content = readFileSync(path)
       samples = []
+      slowest = []
+      phase = 'upload'
       sampling = true
       const hwmBefore = vmStatus(server.pid!).hwm
       resetPeak(server.pid!)
@@ -208,6 +215,7 @@ async function main() {
       fd.append('file', new Blob([content]), `${label}.csv`)
       const up = await api('/api/price-lists', { method: 'POST', body: fd })
       const tUploaded = performance.now()
+      phase = 'check'
       let detail: any
       for (;;) {
         detail = await api(`/api/price-lists/${up.id}`)
@@ -217,6 +225,7 @@ async function main() {
       const tPreview = performance.now()
       if (detail.status !== 'ready') throw new Error(`check ended ${detail.status}: ${detail.errorMessage}`)
       const tA = performance.now()
+      phase = 'apply'
       await api(`/api/price-lists/${up.id}/apply`, {
         method: 'POST', headers: { 'content-type': 'application/json' },
         body: JSON.stringify({ confirmLargeChanges: true, excludeRejected: true }),
@@ -235,7 +244,7 @@ async function main() {
       return {
         label, sizeMb: size / 1024 / 1024, counts: detail.counts,
         uploadMs: tUploaded - t0, previewMs: tPreview - t0, applyMs: tApplied - tA, rollbackMs,
-        health: { n: during.length, p50: percentile(during, 50), p99: percentile(during, 99), max: during.at(-1) ?? NaN },
+        health: { n: during.length, p50: percentile(during, 50), p99: percentile(during, 99), max: during.at(-1) ?? NaN, slowest: slowest.map((x) => `${x.ms.toFixed(0)} ms (${x.phase})`).join(', ') },
         peakBytes,
       }
     }
@@ -262,6 +271,7 @@ async function main() {
     console.log(`\nroll back of run B: ${fmt(b.rollbackMs!)}`)
     const mb = (b: number) => `${(b / 1024 / 1024).toFixed(0)} MB`
     console.log(`server memory: ${mb(baseline.rss)} RSS signed in, before the price files; peak (VmHWM) over the whole run **${mb(hwm)}** (highest sampled RSS ${mb(peakRss)})`)
+    for (const r of rows) console.log(`slowest health answers, ${r.label}: ${r.health.slowest}`)
     console.log(`targets: ratio <= 6x -> ${rows.map((r) => (r.ratio <= 6 ? 'met' : 'NOT met')).join(' / ')}; memory < 500 MB -> ${hwm < 500 * 1024 * 1024 ? 'met' : 'NOT met'}; health p99 < 200 ms -> ${rows.map((r) => (r.health.p99 < 200 ? 'met' : 'NOT met')).join(' / ')}`)
   } catch (err) {
     console.error(err)

@@ -1,11 +1,11 @@
 /**
  * At start: refuse a weak session secret in production, create the uploads folder (generated, never in the
- * repository), then migrate and bind the models.
+ * repository), then migrate and bind the models. WAL checkpoints run in the background (server/utils/db.ts).
  */
 import { mkdirSync } from 'node:fs'
 import { resolve } from 'node:path'
 import { databaseReady } from '../utils/ready'
-import { getDb } from '../utils/db'
+import { checkpointInBackground, closeDb } from '../utils/db'
 
 export default defineNitroPlugin((nitro) => {
   const config = useRuntimeConfig()
@@ -18,6 +18,7 @@ export default defineNitroPlugin((nitro) => {
     }
   }
   mkdirSync(resolve(String(config.uploadsDir || './uploads')), { recursive: true })
+  checkpointInBackground() // before the first query opens a connection
   databaseReady().catch((err) => console.error('[boreline] database not ready:', err?.message ?? err))
-  nitro.hooks.hook('close', async () => { await getDb().close() })
+  nitro.hooks.hook('close', async () => { await closeDb() })
 })

@@ -23,7 +23,46 @@ class ConfiguredDatabase extends sqlite3.Database {
     this.run('PRAGMA journal_mode=WAL')
     this.run('PRAGMA synchronous=NORMAL')
     this.run('PRAGMA foreign_keys=ON')
+    if (checkpointsInBackground) this.run('PRAGMA wal_autocheckpoint=0')
   }
+}
+
+// ------------------------------------------------------------------------------------------------ checkpoints
+//
+// By default the connection that commits past 1,000 WAL pages copies the WAL back into the database file (a
+// checkpoint, with its fsyncs) before its COMMIT returns: a large write (a price list applied) then pays for it
+// while the person waits. The server instead turns that off and checkpoints on its own connection shortly after
+// writes (PASSIVE: never blocks readers or the next writer). Scripts keep SQLite's default.
+let checkpointsInBackground = false
+let checkpointDb: sqlite3.Database | undefined
+let checkpointTimer: NodeJS.Timeout | undefined
+const CHECKPOINT_DELAY_MS = 250
+
+/** The server calls this once at start, before its first query. */
+export function checkpointInBackground(): void {
+  checkpointsInBackground = true
+}
+
+function scheduleCheckpoint(): void {
+  if (!checkpointsInBackground || checkpointTimer) return
+  checkpointTimer = setTimeout(() => {
+    checkpointTimer = undefined
+    const storage = storageFromUrl(databaseUrl())
+    if (storage === ':memory:') return
+    checkpointDb ??= new sqlite3.Database(storage)
+    checkpointDb.run('PRAGMA wal_checkpoint(PASSIVE)', (err) => { if (err) console.error('[boreline] checkpoint:', err.message) })
+  }, CHECKPOINT_DELAY_MS)
+  checkpointTimer.unref?.()
+}
+
+/** Runs a checkpoint now and closes the checkpoint connection (shutdown). */
+async function finalCheckpoint(): Promise<void> {
+  clearTimeout(checkpointTimer)
+  checkpointTimer = undefined
+  const db = checkpointDb
+  checkpointDb = undefined
+  if (!db) return
+  await new Promise<void>((res) => db.run('PRAGMA wal_checkpoint(PASSIVE)', () => db.close(() => res())))
 }
 const dialectModule = { ...sqlite3, Database: ConfiguredDatabase }
 
@@ -61,6 +100,7 @@ export function getDb(): Sequelize {
 }
 
 export async function closeDb(): Promise<void> {
+  await finalCheckpoint()
   if (instance) await instance.close()
   instance = undefined
 }
@@ -80,6 +120,7 @@ export async function withWrite<T>(fn: (t: Transaction) => Promise<T>): Promise<
     try {
       return await getDb().transaction({ type: Transaction.TYPES.IMMEDIATE }, (t) => currentTx.run(t, () => fn(t)))
     } finally {
+      scheduleCheckpoint()
       for (const listener of afterWriteListeners) listener()
     }
   })

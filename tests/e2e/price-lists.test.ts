@@ -9,7 +9,7 @@ import ExcelJS from 'exceljs'
 import { parse as parseCsvSync } from 'csv-parse/sync'
 import { netPriceMinor } from '#shared/utils/money'
 import { existsSync, readdirSync } from 'node:fs'
-import { join } from 'node:path'
+import { join, resolve } from 'node:path'
 import { Client, as, env, people, waitForMail, type Res } from '../support/api'
 import { buildZip } from '../unit/price-lists/zip-fixture'
 
@@ -338,8 +338,23 @@ describe('the preview matches the file', () => {
     expect(refused[0].reason).toMatch(/appears more than once.*rows 2, 35/)
     expect(refused[1].reason).toMatch(/needs a part type and a description/)
     expect((await changes(counter, d.id, 'missing', '&pageSize=1')).meta.total).toBe(activeCount - 30)
+    // refusals found while comparing carry the row's cells as the file wrote them (the reading thread keeps no cells:
+    // those rows are read again), here with the price typed without its second decimal
+    const refusedCsv = parseCsvSync((await counter.get(`/api/price-lists/${d.id}/rejects.csv`)).text.replace(/^\ufeff/, ''), { columns: true }) as Record<string, string>[]
+    expect(refusedCsv.map((r) => [r.row, r.sku, r.list_price])).toEqual([
+      ['2', parts[0]!.sku, money(parts[0]!.list + 100)], ['34', 'PLT-PV-3', '9.00'], ['35', parts[0]!.sku, '1.00'],
+    ])
+    // unchanged parts (stored short) read back with old and new values alike
+    const same = (await changes(counter, d.id, 'unchanged', '&pageSize=100')).data
+    expect(same).toHaveLength(expected.unchanged)
+    for (const r of same) expect([r.newListMinor, r.newTradeMinor, r.newCoreMinor, r.changePct, r.large]).toEqual([r.oldListMinor, r.oldTradeMinor, r.oldCoreMinor, 0, false])
     // nothing changed yet
     expect((await one<{ n: number }>(`SELECT COUNT(*) AS n FROM parts WHERE sku LIKE 'PLT-PV-%'`)).n).toBe(0)
+  })
+
+  it('reads CSV files with the worker thread bundled beside the built server (not the slower in-thread fallback)', () => {
+    const out = process.env.BORELINE_BUILD_DIR ? join(resolve(process.env.BORELINE_BUILD_DIR), '.output') : join(process.cwd(), '.output')
+    expect(existsSync(join(out, 'server', 'price-rows-worker.cjs'))).toBe(true)
   })
 
   it('reads semicolon files with decimal commas when told, and says so when the mark is wrong', async () => {

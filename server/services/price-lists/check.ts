@@ -10,11 +10,13 @@ import { QueryTypes } from 'sequelize'
 import { getDb, withWrite } from '../../utils/db'
 import { Branch } from '../../models/accounts'
 import { PriceColumnMapping, PriceUpload } from '../../models/price-lists'
-import { PRICE_FILE_LIMITS, type ColumnMapping } from '../../../shared/types/price-lists'
+import type { ColumnMapping } from '../../../shared/types/price-lists'
 import { PriceFileError, csvRows, detectDelimiter, inspectZip, proveZipSizes, readFirstLine, xlsxRows, type FileRow, type RowSource } from './read'
-import { autoMapping, checkMapping, columnIndex, displayHeaders, savedMappingFits } from './mapping'
-import { classify, rowValidator, type CurrentPart, type RowResult } from './rows'
-import { ChunkedList, F, deleteFindings, serialise, writeChunks, type Finding } from './findings'
+import { BatchReader, blankRow, packRows, rawCells, type RowBatch, type RowJob } from './row-batches'
+import { rowsWorkerPath, workerBatches } from './row-thread'
+import { autoMapping, checkMapping, displayHeaders, savedMappingFits } from './mapping'
+import { classify, type CurrentPart } from './rows'
+import { ChunkedList, F, deleteFindings, expandFinding, serialise, storedFinding, writeChunks, type Finding } from './findings'
 
 // ------------------------------------------------------------------------------------------- where files live
 
@@ -116,6 +118,8 @@ class CatalogueSnapshot {
   private branchCodes: string[] = []
   /** first file row that named each part (0 = not yet) */
   firstRow = new Int32Array(1024)
+  /** the stock revision and branches the counts were read at (null = not read) */
+  stockKey: string | null = null
   size = 0
 
   add(sku: string, id: number, status: string, l: number | null, t: number | null, c: number | null, k: number | null, by: number | null): void {
@@ -237,22 +241,38 @@ async function snapshotKey(): Promise<string> {
   return `${r?.c}:${r?.p}:${r?.v}`
 }
 
+/** The stock revision (triggers on stock_levels) and the branches: what the snapshot's counts depend on. */
+async function stockKeyNow(): Promise<{ key: string; branches: { id: number; code: string }[] }> {
+  const branches = (await Branch.findAll({ attributes: ['id', 'code'], order: [['id', 'ASC']] })).map((b) => ({ id: b.id, code: b.code }))
+  const [r] = await getDb().query<{ s: number }>('SELECT stock AS s FROM catalogue_revisions WHERE id = 1', { type: QueryTypes.SELECT })
+  return { key: `${r?.s}:${branches.map((b) => `${b.id}=${b.code}`).join(',')}`, branches }
+}
+
+/** Reads the stock counts again if they moved since the snapshot last read them (an order, a credit, an apply). */
+async function freshStock(snap: CatalogueSnapshot): Promise<void> {
+  const { key, branches } = await stockKeyNow() // read before the load: a change during it leaves the key stale, never the data
+  if (snap.stockKey === key) return
+  snap.stockKey = null
+  await snap.loadStock(branches)
+  snap.stockKey = key
+}
+
 /**
- * Builds the kept snapshot in the background if the catalogue or prices moved since it was built (at start, after
- * an apply or a roll back). `BORELINE_PRICE_SNAPSHOT=0` keeps none (each check then loads its own).
+ * Builds the kept snapshot in the background if the catalogue, prices or stock moved since it was built (at start,
+ * after an apply or a roll back). `BORELINE_PRICE_SNAPSHOT=0` keeps none (each check then loads its own).
  */
 export function warmSnapshot(): Promise<void> {
   if (process.env.BORELINE_PRICE_SNAPSHOT === '0') return Promise.resolve()
   warming ??= (async () => {
     const key = await snapshotKey() // read before the load: a change during it leaves the key stale, never the data
-    if (kept?.key === key) return
-    kept = { key, snap: await CatalogueSnapshot.load() }
+    if (kept?.key !== key) kept = { key, snap: await CatalogueSnapshot.load() }
+    await freshStock(kept.snap)
   })().catch((err) => console.error('[boreline] price snapshot:', err?.message ?? err)).finally(() => { warming = null })
   return warming
 }
 
-/** The snapshot for a check: the kept one when nothing moved since it was built, with stock read now. */
-async function snapshotForCheck(branches: { id: number; code: string }[]): Promise<CatalogueSnapshot> {
+/** The snapshot for a check: the kept one when nothing moved since it was built, stock read again if it moved. */
+async function snapshotForCheck(): Promise<CatalogueSnapshot> {
   if (warming) await warming
   const key = await snapshotKey()
   let snap = kept?.key === key ? kept.snap : null
@@ -261,7 +281,7 @@ async function snapshotForCheck(branches: { id: number; code: string }[]): Promi
     if (process.env.BORELINE_PRICE_SNAPSHOT !== '0') kept = { key, snap }
   }
   snap.firstRow.fill(0)
-  await snap.loadStock(branches)
+  await freshStock(snap)
   return snap
 }
 
@@ -277,7 +297,7 @@ const CHECK_KINDS = ['new', 'changed', 'unchanged', 'missing', 'rejected'] as co
 type CheckKind = typeof CHECK_KINDS[number]
 const KIND_CODE: Record<CheckKind, number> = { new: 0, changed: 1, unchanged: 2, missing: 3, rejected: 4 }
 
-function refusedFinding(row: number, sku: string | null, partId: number | null, columns: string | null, reason: string, raw: Record<string, string>): Finding {
+function refusedFinding(row: number, sku: string | null, partId: number | null, columns: string | null, reason: string, raw: Record<string, string> | null): Finding {
   return [row, sku, partId, null, null, null, null, null, null, null, null, null, null, null, 0, null, (columns ?? "").slice(0, 300), reason, raw]
 }
 
@@ -295,6 +315,7 @@ export async function runCheck(id: number): Promise<void> {
   const decimal = upload.decimalMark === ',' ? ',' : '.'
   let delimiter = upload.delimiter
   let source: RowSource | undefined
+  let packing: AsyncGenerator<RowBatch> | undefined
   try {
     if (upload.fileFormat === 'xlsx') {
       const entries = await inspectZip(path)
@@ -305,20 +326,13 @@ export async function runCheck(id: number): Promise<void> {
       source = csvRows(path, delimiter)
     }
     const batches = source.rows
-    // a blank row (an empty line gives ['']); most rows are told apart by their first cell alone
-    const blank = (cells: string[]) => {
-      const first = cells[0] ?? ''
-      if (first !== '' && first.trim() !== '') return false
-      return cells.every((c) => c.trim() === '')
-    }
-
     // the header: the first row that is not blank
     let pending: FileRow[] = []
     let header: FileRow | undefined
     while (!header) {
       const next = await batches.next()
       if (next.done) break
-      const at = next.value.findIndex((r) => !blank(r.cells))
+      const at = next.value.findIndex((r) => !blankRow(r.cells))
       if (at >= 0) { header = next.value[at]; pending = next.value.slice(at + 1) }
     }
     if (!header) throw new PriceFileError('The file is empty: it has no header row and no data rows.', 'empty')
@@ -346,18 +360,29 @@ export async function runCheck(id: number): Promise<void> {
 
     const baseId = await activePriceListId()
     mark('header')
-    const validator = rowValidator(mapping, columnIndex(mapping, headers), decimal)
-    // The snapshot loads (its SQL on SQLite's thread) while the first rows are read and validated here; those
-    // rows wait in `early` and are compared, in file order, once it is there.
+    // CSV rows are read and validated by a worker thread while this one compares them (row-thread.ts); XLSX rows,
+    // or every file where the worker bundle is missing, are packed here, batch by batch, the same way
+    const job: RowJob = { path, delimiter: delimiter ?? ',', afterRow: header.rowNumber, mapping, headers, decimal }
+    const workerFile = upload.fileFormat === 'csv' ? rowsWorkerPath() : null
+    let packed: AsyncGenerator<RowBatch>
+    if (workerFile) {
+      await batches.return(undefined)
+      packed = workerBatches(workerFile, job)
+    } else {
+      const rest = batches
+      packed = packRows((async function* () { yield pending; yield* rest })(), source.bytesRead, job)
+    }
+    packing = packed
+    // The snapshot loads (its SQL on SQLite's thread) while the first rows are read and validated; those
+    // batches wait in `early` and are compared, in file order, once it is there.
     let current: CatalogueSnapshot | undefined
     let snapshotError: unknown
-    const loading = snapshotForCheck(branches).then((snap) => { current = snap; mark('snapshot') }, (err) => { snapshotError = err })
-    let early: ([FileRow, RowResult] | undefined)[] = []
-    let earlyAt = 0
+    const loading = snapshotForCheck().then((snap) => { current = snap; mark('snapshot') }, (err) => { snapshotError = err })
+    const early: RowBatch[] = []
 
     // findings per kind, in file order, kept as JSON chunks (refused rows as objects: they are sorted at the end);
     // a repeated SKU's first row is moved to the refused ones at the end
-    const found = { new: new ChunkedList<Finding>(), changed: new ChunkedList<Finding>(), unchanged: new ChunkedList<Finding>(), missing: new ChunkedList<Finding>() }
+    const found = { new: new ChunkedList<unknown[]>(), changed: new ChunkedList<unknown[]>(), unchanged: new ChunkedList<unknown[]>(), missing: new ChunkedList<unknown[]>() }
     const rejected: Finding[] = []
     const prices = new ChunkedList<unknown[]>() // for the apply, beside `found.changed` (same indexes)
     let large = 0
@@ -374,90 +399,83 @@ export async function runCheck(id: number): Promise<void> {
     const fileSize = Math.max(1, upload.fileSize)
     const skuHeader = mapping.sku
 
-    const compare = (row: FileRow, r: RowResult, snap: CatalogueSnapshot) => {
+    const compareBatch = (batch: RowBatch, snap: CatalogueSnapshot) => {
       if (kindOfSlot.length !== snap.size) {
         kindOfSlot = new Uint8Array(snap.size); indexOfSlot = new Int32Array(snap.size); mentioned = new Uint8Array(snap.size)
       }
-      if (!r.ok) {
-        const slot = r.sku ? snap.slot(r.sku) : undefined
-        if (slot !== undefined) mentioned[slot] = 1
-        rejected.push(refusedFinding(row.rowNumber, r.sku, slot === undefined ? null : snap.id(slot),
-          [...new Set(r.issues.map((i) => i.column))].join(', '), r.issues.map((i) => i.reason).join(' '), r.raw))
-        return
-      }
-      const v = r.values
-      const slot = snap.slot(v.sku)
-      const earlier = slot === undefined ? firstOfNew.get(v.sku)?.row : (snap.firstRow[slot] || undefined)
-      if (earlier !== undefined) {
-        repeats.set(v.sku, [...(repeats.get(v.sku) ?? [earlier]), row.rowNumber])
-        rejected.push(refusedFinding(row.rowNumber, v.sku, slot === undefined ? null : snap.id(slot), skuHeader,
-          `SKU ${v.sku} appears more than once in the file (first on row ${earlier}): keep one row per SKU.`, rawOf(mapping!, row.cells, headers)))
-        return
-      }
-      const cur = slot === undefined ? undefined : snap.part(slot)
-      const c = classify(v, cur, mapping!)
-      if (c.kind === 'rejected') {
-        if (slot !== undefined) mentioned[slot] = 1
-        rejected.push([row.rowNumber, v.sku, cur?.id ?? null, cur ? null : v.type ?? null, cur ? null : v.description ?? null,
+      const rd = new BatchReader(batch)
+      for (let i = 0; i < batch.n; i++) {
+        const rowNumber = rd.row(i)
+        if (!rd.ok(i)) {
+          const r = rd.refused(i)
+          const slot = r.sku ? snap.slot(r.sku) : undefined
+          if (slot !== undefined) mentioned[slot] = 1
+          rejected.push(refusedFinding(rowNumber, r.sku, slot === undefined ? null : snap.id(slot),
+            [...new Set(r.issues.map((x) => x.column))].join(', '), r.issues.map((x) => x.reason).join(' '), r.raw))
+          continue
+        }
+        const v = rd.values(i)
+        const slot = snap.slot(v.sku)
+        const earlier = slot === undefined ? firstOfNew.get(v.sku)?.row : (snap.firstRow[slot] || undefined)
+        if (earlier !== undefined) {
+          repeats.set(v.sku, [...(repeats.get(v.sku) ?? [earlier]), rowNumber])
+          rejected.push(refusedFinding(rowNumber, v.sku, slot === undefined ? null : snap.id(slot), skuHeader,
+            `SKU ${v.sku} appears more than once in the file (first on row ${earlier}): keep one row per SKU.`, null))
+          continue
+        }
+        const cur = slot === undefined ? undefined : snap.part(slot)
+        const c = classify(v, cur, mapping!)
+        if (c.kind === 'rejected') {
+          if (slot !== undefined) mentioned[slot] = 1
+          rejected.push([rowNumber, v.sku, cur?.id ?? null, cur ? null : v.type ?? null, cur ? null : v.description ?? null,
+            cur?.list ?? null, c.list, cur?.trade ?? null, c.trade, cur ? cur.core ?? 0 : null, c.core, cur?.pack ?? null, c.pack,
+            null, 0, v.stock ?? null, c.issue?.column ?? null, c.issue?.reason ?? null, null])
+          continue
+        }
+        const list = found[c.kind]
+        if (slot === undefined) {
+          firstOfNew.set(v.sku, { row: rowNumber, index: list.length })
+        } else {
+          snap.firstRow[slot] = rowNumber
+          mentioned[slot] = 1
+          kindOfSlot[slot] = KIND_CODE[c.kind]
+          indexOfSlot[slot] = list.length
+          const moved = snap.movedStock(slot, v.stock ?? null)
+          if (moved) stockMoves.push([cur!.id, moved])
+          if (cur!.status === 'discontinued') revive.push(cur!.id)
+        }
+        const note = cur && cur.status === 'discontinued' ? 'Discontinued now: back in use when this list is applied.' : null
+        list.push(storedFinding(c.kind, [
+          rowNumber, v.sku, cur?.id ?? null, cur ? null : v.type ?? null, cur ? null : v.description ?? null,
           cur?.list ?? null, c.list, cur?.trade ?? null, c.trade, cur ? cur.core ?? 0 : null, c.core, cur?.pack ?? null, c.pack,
-          null, 0, v.stock ?? null, c.issue?.column ?? null, c.issue?.reason ?? null, rawOf(mapping!, row.cells, headers)])
-        return
+          c.changePct, c.large ? 1 : 0, v.stock ?? null, null, note, null,
+        ]))
+        if (c.kind === 'changed') {
+          // with the values they replace: the apply checks that the version compared with is still in use, and only
+          // price files change prices, so these are exactly what a roll back must write back
+          prices.push([cur!.id, c.list, c.trade, c.core, c.pack, cur!.list, cur!.trade, cur!.core, cur!.pack, snap.pricedBy(slot!)])
+          if (c.large) large++
+        }
       }
-      const list = found[c.kind]
-      if (slot === undefined) {
-        firstOfNew.set(v.sku, { row: row.rowNumber, index: list.length })
-      } else {
-        snap.firstRow[slot] = row.rowNumber
-        mentioned[slot] = 1
-        kindOfSlot[slot] = KIND_CODE[c.kind]
-        indexOfSlot[slot] = list.length
-        const moved = snap.movedStock(slot, v.stock ?? null)
-        if (moved) stockMoves.push([cur!.id, moved])
-        if (cur!.status === 'discontinued') revive.push(cur!.id)
-      }
-      const note = cur && cur.status === 'discontinued' ? 'Discontinued now: back in use when this list is applied.' : null
-      list.push([
-        row.rowNumber, v.sku, cur?.id ?? null, cur ? null : v.type ?? null, cur ? null : v.description ?? null,
-        cur?.list ?? null, c.list, cur?.trade ?? null, c.trade, cur ? cur.core ?? 0 : null, c.core, cur?.pack ?? null, c.pack,
-        c.changePct, c.large ? 1 : 0, v.stock ?? null, null, note, null,
-      ])
-      if (c.kind === 'changed') {
-        // with the values they replace: the apply checks that the version compared with is still in use, and only
-        // price files change prices, so these are exactly what a roll back must write back
-        prices.push([cur!.id, c.list, c.trade, c.core, c.pack, cur!.list, cur!.trade, cur!.core, cur!.pack, snap.pricedBy(slot!)])
-        if (c.large) large++
-      }
-    }
-    const take = (row: FileRow) => {
-      if (blank(row.cells)) return
-      count++
-      if (count > PRICE_FILE_LIMITS.maxRows) {
-        throw new PriceFileError(`The file has more than ${PRICE_FILE_LIMITS.maxRows.toLocaleString('en-GB')} data rows. Split it into smaller files.`, 'too_many_rows')
-      }
-      const r = validator.validate(row.cells)
-      if (current && earlyAt === early.length) compare(row, r, current)
-      else early.push([row, r])
-    }
-    /** Compares up to `max` of the rows that arrived before the snapshot, in order. */
-    const catchUp = (max: number) => {
-      if (!current) return
-      const end = Math.min(early.length, earlyAt + max)
-      for (; earlyAt < end; earlyAt++) { const [row, r] = early[earlyAt]!; early[earlyAt] = undefined; compare(row, r, current) }
-      if (earlyAt === early.length) { early = []; earlyAt = 0 }
     }
 
-    for (const row of pending) take(row)
     let sinceProgress = 0
-    for await (const rows of batches) {
-      for (const row of rows) take(row)
+    for await (const batch of packed) {
+      count = batch.count
       if (snapshotError) throw snapshotError
-      catchUp(1000)
-      if (++sinceProgress >= 20) { sinceProgress = 0; setLive(id, 'reading', (source.bytesRead() / fileSize) * 90) }
+      if (current) {
+        if (early.length) compareBatch(early.shift()!, current) // catching up, one batch behind the file
+        if (early.length) early.push(batch)
+        else compareBatch(batch, current)
+      } else {
+        early.push(batch)
+      }
+      if (++sinceProgress >= 5) { sinceProgress = 0; setLive(id, 'reading', (batch.bytesRead / Math.max(fileSize, batch.bytesRead)) * 90) }
       await yieldToLoop() // between batches of rows, whatever else is waiting runs
     }
     await loading
     if (snapshotError || !current) throw snapshotError ?? new Error('catalogue snapshot missing')
-    while (early.length) { catchUp(2000); await yieldToLoop() }
+    while (early.length) { compareBatch(early.shift()!, current); await yieldToLoop() }
     if (count === 0) throw new PriceFileError('The file has a header row but no data rows.', 'empty')
     mark('rows read and checked')
     setLive(id, 'comparing', 92)
@@ -476,13 +494,14 @@ export async function runCheck(id: number): Promise<void> {
         index = indexOfSlot[slot]!
       }
       if (kind !== 'new' && kind !== 'changed' && kind !== 'unchanged') continue
-      const first = found[kind].get(index)
-      if (!first) continue
+      const stored = found[kind].get(index)
+      if (!stored) continue
+      const first = expandFinding(kind, stored)
       removed[kind].push(index)
       if (first[F.partId] != null) removedIds.add(first[F.partId]!)
       if (kind === 'changed' && first[F.large]) large--
       rejected.push(refusedFinding(first[F.row]!, sku, first[F.partId], skuHeader,
-        `SKU ${sku} appears more than once in the file (rows ${rowsOf.join(', ')}): keep one row per SKU.`, rawFromFinding(mapping, first, decimal)))
+        `SKU ${sku} appears more than once in the file (rows ${rowsOf.join(', ')}): keep one row per SKU.`, null))
     }
     for (const k of ['new', 'changed', 'unchanged'] as const) if (removed[k].length) found[k].remove(removed[k])
     if (removed.changed.length) prices.remove(removed.changed)
@@ -491,10 +510,17 @@ export async function runCheck(id: number): Promise<void> {
     for (let i = 0; i < current.size; i++) {
       if (mentioned[i] || current.discontinued(i)) continue
       const p = current.part(i)
-      found.missing.push([null, current.sku(i), p.id, null, null, p.list, null, p.trade, null, p.core ?? 0, null, p.pack, null, null, 0, null, null, null, null])
+      found.missing.push(storedFinding('missing', [null, current.sku(i), p.id, null, null, p.list, null, p.trade, null, p.core ?? 0, null, p.pack, null, null, 0, null, null, null, null]))
       if ((i & 4095) === 0) await yieldToLoop()
     }
     rejected.sort((a, b) => a[F.row]! - b[F.row]!)
+    // refusals found while comparing (a repeated SKU, a new part without type or description) show the row's cells
+    // as the file has them: the reading thread does not keep cells, so those few rows are read again
+    const noRaw = rejected.filter((f) => f[F.raw] === null)
+    if (noRaw.length) {
+      const cells = await cellsOfRows(upload.fileFormat === 'xlsx' ? xlsxRows(path, decimal) : csvRows(path, job.delimiter), new Set(noRaw.map((f) => f[F.row]!)), mapping, headers)
+      for (const f of noRaw) f[F.raw] = cells.get(f[F.row]!) ?? rawFromFinding(mapping, f, decimal)
+    }
     for (const list of [...Object.values(found), prices]) list.flush()
     const counts = {
       new: found.new.length, changed: found.changed.length, unchanged: found.unchanged.length,
@@ -526,6 +552,7 @@ export async function runCheck(id: number): Promise<void> {
     mark('written')
     if (marks.length) console.log(`[boreline] price file ${id} checked: ${marks.join(', ')}`)
   } catch (err) {
+    if (packing) await packing.return(undefined).catch(() => {})
     if (source) await source.rows.return(undefined).catch(() => {})
     if (err instanceof PriceFileError) {
       await failCheck(id, err.message, { delimiter })
@@ -553,11 +580,19 @@ function rawFromFinding(mapping: ColumnMapping, f: Finding, decimal: '.' | ','):
   return raw
 }
 
-function rawOf(mapping: ColumnMapping, cells: string[], headers: string[]): Record<string, string> {
-  const raw: Record<string, string> = {}
-  const names = [mapping.sku, mapping.description, mapping.type, mapping.listPrice, mapping.tradeCost, mapping.coreDeposit, mapping.packQuantity, ...Object.values(mapping.stock)]
-  for (const h of names) if (h && headers.includes(h)) raw[h] = (cells[headers.indexOf(h)] ?? '').slice(0, 200)
-  return raw
+/** The mapped cells of the given rows, read again from the file (for the few refusals found while comparing). */
+async function cellsOfRows(source: RowSource, wanted: Set<number>, mapping: ColumnMapping, headers: string[]): Promise<Map<number, Record<string, string>>> {
+  const out = new Map<number, Record<string, string>>()
+  try {
+    for await (const rows of source.rows) {
+      for (const r of rows) if (wanted.has(r.rowNumber)) out.set(r.rowNumber, rawCells(mapping, r.cells, headers))
+      if (out.size === wanted.size) break
+      await yieldToLoop()
+    }
+  } finally {
+    await source.rows.return(undefined)
+  }
+  return out
 }
 
 /** Remembers a supplier's column mapping (one per supplier name, case-insensitive) for their next file. */

@@ -32,6 +32,35 @@ export const F = {
   oldCore: 9, newCore: 10, oldPack: 11, newPack: 12, pct: 13, large: 14, stock: 15, columns: 16, reason: 17, raw: 18,
 } as const
 
+/**
+ * Findings are stored short: trailing nulls are left off (reading `v->>18` of a shorter array gives NULL in SQL,
+ * and `expandFinding` pads it again), and an unchanged part, whose old and new values are the same, is
+ * `[row, sku, partId, list, trade, core, oldPack, newPack, stock, note]`. A 200,000-row file's findings are then
+ * about half the text to write and to parse.
+ */
+export function storedFinding(kind: string, f: Finding): unknown[] {
+  if (kind === 'unchanged') {
+    const short = [f[F.row], f[F.sku], f[F.partId], f[F.newList], f[F.newTrade], f[F.newCore], f[F.oldPack], f[F.newPack], f[F.stock], f[F.reason]]
+    while (short.length && short[short.length - 1] === null) short.pop()
+    return short
+  }
+  const out: unknown[] = f
+  let n = out.length
+  while (n && out[n - 1] === null) n--
+  return n === out.length ? out : out.slice(0, n)
+}
+
+/** A stored finding as the full tuple (see `storedFinding`; findings written before it are full already). */
+export function expandFinding(kind: string, v: unknown[]): Finding {
+  if (kind === 'unchanged' && v.length <= 10) {
+    const at = (i: number) => (v[i] ?? null) as never
+    return [at(0), at(1), at(2), null, null, at(3), at(3), at(4), at(4), at(5), at(5), at(6), at(7), at(3) ? 0 : null, 0, at(8), null, at(9), null]
+  }
+  const f = v as Finding
+  while (f.length < 19) (f as unknown[]).push(null)
+  return f
+}
+
 /** SQL for one position of a finding held in `alias.v` (a row of `findingsOf`). */
 export function col(name: keyof typeof F, alias = 'f'): string {
   return `${alias}.v->>${F[name]}`
@@ -150,7 +179,7 @@ export async function readFindings(uploadId: number, kind: ChangeKind, t?: Trans
       'SELECT rows FROM price_upload_findings WHERE upload_id = $1 AND kind = $2 ORDER BY seq',
       { bind: [uploadId, kind], type: QueryTypes.SELECT, transaction: t },
     )
-    for (const c of chunks) for (const f of JSON.parse(c.rows) as Finding[]) rows.push(f)
+    for (const c of chunks) for (const f of JSON.parse(c.rows) as unknown[][]) rows.push(expandFinding(kind, f))
   }
   cache.set(key, { stamp, rows })
   while (cache.size > CACHE_ENTRIES) cache.delete(cache.keys().next().value!)

@@ -352,7 +352,7 @@ function lineEnding(text: string): '\r\n' | '\n' | '\r' {
  */
 export function csvRows(path: string, delimiter: string): RowSource {
   let bytes = 0
-  const source = createReadStream(path, { highWaterMark: 256 * 1024 })
+  const source = createReadStream(path, { highWaterMark: 64 * 1024 })
 
   async function* rows(): AsyncGenerator<FileRow[]> {
     let n = 0 // records so far: every record counts, blank lines too, so row numbers are the ones a spreadsheet shows

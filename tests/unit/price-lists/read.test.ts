@@ -81,7 +81,7 @@ describe('UTF-8 validation', () => {
     expect(await locateInvalidUtf8(file(good))).toBeNull()
   })
 
-  it('reads a character split across two read chunks (256 KB) as one', async () => {
+  it('reads a character split across two read chunks (at 256 KB, a multiple of the 64 KB read size) as one', async () => {
     const lines = ['sku,description']
     while (Buffer.byteLength(lines.join('\n')) < 256 * 1024 - 200) lines.push(`KF-${lines.length},${'A'.repeat(60)}`)
     const before = Buffer.byteLength(lines.join('\n') + '\n')
