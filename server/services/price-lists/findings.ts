@@ -93,28 +93,44 @@ export async function writeChunks(t: Transaction, uploadId: number, kind: string
  */
 export class ChunkedList<T> {
   private pending: T[] = []
+  /** JSON of the current chunk's earlier items, a few hundred at a time (without the brackets) */
+  private pieces: string[] = []
+  private inChunk = 0
   readonly chunks: { size: number; json: string }[] = []
   length = 0
-  constructor(private readonly chunkSize = 5000) {}
+  constructor(private readonly chunkSize = 5000, private readonly pieceSize = 500) {}
 
   /** Adds an item; returns its index. */
   push(item: T): number {
     this.pending.push(item)
-    if (this.pending.length >= this.chunkSize) this.flush()
+    // items become text a few hundred at a time, so they die young (the collector never promotes them)
+    if (this.pending.length >= this.pieceSize) this.toText()
+    if (this.inChunk + this.pending.length >= this.chunkSize) this.flush()
     return this.length++
   }
 
-  flush(): void {
+  private toText(): void {
     if (!this.pending.length) return
-    this.chunks.push({ size: this.pending.length, json: JSON.stringify(this.pending) })
+    this.pieces.push(JSON.stringify(this.pending).slice(1, -1))
+    this.inChunk += this.pending.length
     this.pending = []
+  }
+
+  flush(): void {
+    this.toText()
+    if (!this.inChunk) return
+    this.chunks.push({ size: this.inChunk, json: `[${this.pieces.join(',')}]` })
+    this.pieces = []
+    this.inChunk = 0
   }
 
   /** The item at `index` (parses its chunk: for the rare repeated SKU only). */
   get(index: number): T | undefined {
     const k = Math.floor(index / this.chunkSize)
     if (k < this.chunks.length) return (JSON.parse(this.chunks[k]!.json) as T[])[index % this.chunkSize]
-    return this.pending[index - this.chunks.length * this.chunkSize]
+    this.toText()
+    if (!this.inChunk) return undefined
+    return (JSON.parse(`[${this.pieces.join(',')}]`) as T[])[index - this.chunks.length * this.chunkSize]
   }
 
   /** Drops the items at these indexes (call once, at the end). */

@@ -5,7 +5,7 @@ import { afterAll, describe, expect, it } from 'vitest'
 import { emptyMapping, columnIndex } from '../../../server/services/price-lists/mapping'
 import { rowValidator, type RowResult } from '../../../server/services/price-lists/rows'
 import { BatchReader, RowPacker, packedCsv, type RowBatch } from '../../../server/services/price-lists/row-batches'
-import { expandFinding, storedFinding, type Finding } from '../../../server/services/price-lists/findings'
+import { ChunkedList, expandFinding, storedFinding, type Finding } from '../../../server/services/price-lists/findings'
 import { PRICE_FILE_LIMITS, type ColumnMapping } from '#shared/types/price-lists'
 
 const headers = ['sku', 'description', 'type', 'list_price', 'trade_cost', 'core_deposit', 'pack_quantity', 'stock_NGT', 'stock_RVS']
@@ -102,5 +102,17 @@ describe('stored findings', () => {
     expect(roundTrip('changed', changed)).toEqual(changed)
     const fresh: Finding = [3, 'KF-NEW', null, 'disc', 'Front disc 280 mm', null, 5200, null, null, null, 0, null, 1, null, 0, null, null, null, null]
     expect(roundTrip('new', fresh)).toEqual(fresh)
+  })
+
+  it('a chunked list gives back every item by index, and drops the ones asked for', () => {
+    const list = new ChunkedList<number[]>(50, 7)
+    for (let i = 0; i < 173; i++) list.push([i])
+    expect([list.get(0), list.get(49), list.get(50), list.get(120), list.get(172), list.get(173)]).toEqual([[0], [49], [50], [120], [172], undefined])
+    list.remove([3, 60, 172])
+    const items = list.chunks.flatMap((c) => JSON.parse(c.json) as number[][])
+    // the reference: the same items in a plain array, filtered
+    expect(items).toEqual(Array.from({ length: 173 }, (_, i) => [i]).filter(([i]) => ![3, 60, 172].includes(i!)))
+    expect(list.length).toBe(170)
+    expect(list.chunks.reduce((n, c) => n + c.size, 0)).toBe(170)
   })
 })
