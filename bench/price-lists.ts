@@ -7,7 +7,7 @@
  *
  * One run: a throw-away database with the synthetic catalogue (scripts/catalogue-synthetic.ts: 200,000 parts with
  * prices and stock in both branches, the demo people), then
- *   B. the supplier's file for those 200,000 SKUs: 40 % of the list prices move (1 in 500 by more than 30 %), every
+ *   B. (three times, median reported) the supplier's file for those 200,000 SKUs: 40 % of the list prices move (1 in 500 by more than 30 %), every
  *      row with trade cost, core deposit, pack quantity and stock for both branches (1 in 10 counts changed) —
  *      upload to preview, apply, roll back;
  *   A. a second file of 200,000 SKUs that are not in the catalogue (type and description given) — upload to
@@ -249,19 +249,25 @@ async function main() {
 
     // the floor is measured just before each file, with the server idle, so both see the machine in the same state
     // (measured once before the server started, right after the synthetic catalogue was written, it moved 0.26-0.46 s)
-    const importUpdate = sqliteImportMs(updateCsv)
-    const b = await run(updateCsv, 'B: 200k SKUs of the catalogue', { rollback: true })
-    await new Promise((r) => setTimeout(r, 1500)) // the snapshot rebuilt after the roll back
+    // B three times (each rolled back, so the next sees the same catalogue), each beside its own floor; the median
+    // ratio is reported: on this shared 2-core machine one measurement of either side moves by a third
+    const REPEAT = Math.max(1, Number(process.env.BENCH_REPEAT ?? 3))
+    const bRuns: (Awaited<ReturnType<typeof run>> & { importMs: number; ratio: number })[] = []
+    for (let k = 0; k < REPEAT; k++) {
+      const importMs = sqliteImportMs(updateCsv)
+      const r = await run(updateCsv, 'B: 200k SKUs of the catalogue', { rollback: true })
+      bRuns.push({ ...r, importMs, ratio: (r.previewMs + r.applyMs) / importMs })
+      await new Promise((res) => setTimeout(res, 1500)) // the snapshot rebuilt after the roll back
+    }
+    const byRatio = [...bRuns].sort((x, y) => x.ratio - y.ratio)
+    const b = byRatio[Math.floor((byRatio.length - 1) / 2)]!
     const importCreate = sqliteImportMs(createCsv)
     const a = await run(createCsv, 'A: 200k new parts', { rollback: false })
     stop = true
     await sampler
     const hwm = Math.max(overallPeak, vmStatus(server.pid!).hwm)
 
-    const rows = [b, a].map((r, i) => {
-      const imp = i === 0 ? importUpdate : importCreate
-      return { ...r, importMs: imp, ratio: (r.previewMs + r.applyMs) / imp }
-    })
+    const rows = [{ ...b, label: `${b.label} (median of ${REPEAT})` }, { ...a, importMs: importCreate, ratio: (a.previewMs + a.applyMs) / importCreate }]
     const fmt = (ms: number) => `${(ms / 1000).toFixed(2)} s`
     console.log(`\nmachine: ${cpus().length} cores (${cpus()[0]?.model ?? '?'}), Node ${process.version}, sqlite3 CLI ${spawnSync('sqlite3', ['-version'], { encoding: 'utf8' }).stdout.split(' ')[0]}`)
     console.log(`rows per file: ${ROWS.toLocaleString('en-GB')}\n`)
@@ -271,7 +277,8 @@ async function main() {
       const c = r.counts
       console.log(`| ${r.label} | ${r.sizeMb.toFixed(1)} MB | new ${c.new}, changed ${c.changed} (${c.large} > 30 %), unchanged ${c.unchanged}, refused ${c.rejected} | ${fmt(r.uploadMs)} | ${fmt(r.previewMs)} | ${fmt(r.applyMs)} | ${fmt(r.previewMs + r.applyMs)} | ${fmt(r.importMs)} | **${r.ratio.toFixed(1)}x** | ${r.health.p50.toFixed(0)} / **${r.health.p99.toFixed(0)}** / ${r.health.max.toFixed(0)} ms (${r.health.n}) | ${(r.peakBytes / 1024 / 1024).toFixed(0)} MB |`)
     }
-    console.log(`\nroll back of run B: ${fmt(b.rollbackMs!)}`)
+    console.log(`\nB, each run: ${bRuns.map((r) => `${fmt(r.previewMs + r.applyMs)} / ${fmt(r.importMs)} = ${r.ratio.toFixed(1)}x`).join('; ')}`)
+    console.log(`roll back of run B: ${fmt(b.rollbackMs!)}`)
     const mb = (b: number) => `${(b / 1024 / 1024).toFixed(0)} MB`
     console.log(`server memory: ${mb(baseline.rss)} RSS signed in, before the price files; peak (VmHWM) over the whole run **${mb(hwm)}** (highest sampled RSS ${mb(peakRss)})`)
     for (const r of rows) console.log(`slowest health answers, ${r.label}: ${r.health.slowest}`)

@@ -231,6 +231,7 @@ async function inSlices(sql: string, take: (rows: unknown[]) => void): Promise<v
 
 let kept: { key: string; snap: CatalogueSnapshot } | null = null
 let warming: Promise<void> | null = null
+let warmAgain = false
 
 /** What the kept snapshot depends on: the catalogue and price revisions (triggers) and the version in use. */
 async function snapshotKey(): Promise<string> {
@@ -263,10 +264,16 @@ async function freshStock(snap: CatalogueSnapshot): Promise<void> {
  */
 export function warmSnapshot(): Promise<void> {
   if (process.env.BORELINE_PRICE_SNAPSHOT === '0') return Promise.resolve()
-  warming ??= (async () => {
-    const key = await snapshotKey() // read before the load: a change during it leaves the key stale, never the data
-    if (kept?.key !== key) kept = { key, snap: await CatalogueSnapshot.load() }
-    await freshStock(kept.snap)
+  // asked again while building (a roll back right after an apply): build once more when this one ends, or the
+  // next check would find the kept snapshot stale and wait for its own
+  if (warming) { warmAgain = true; return warming }
+  warming = (async () => {
+    do {
+      warmAgain = false
+      const key = await snapshotKey() // read before the load: a change during it leaves the key stale, never the data
+      if (kept?.key !== key) kept = { key, snap: await CatalogueSnapshot.load() }
+      await freshStock(kept.snap)
+    } while (warmAgain)
   })().catch((err) => console.error('[boreline] price snapshot:', err?.message ?? err)).finally(() => { warming = null })
   return warming
 }
