@@ -1,9 +1,11 @@
 /**
  * The check of an uploaded price file, run in the background one file at a time (a second upload waits its
- * turn: never two checks interleaved). It reads the file as a stream, validates and compares each row with
- * the prices in use (a compact in-memory snapshot), keeps the findings in memory and writes them at the end as a
- * few JSON chunks per kind, with the counts, in one short write transaction (findings.ts). The event loop is
- * given back between batches of rows, so the server stays responsive. Nothing in parts, prices or stock changes here.
+ * turn: never two checks interleaved). It reads the header and decides the columns here; the rows are read and
+ * validated as a stream by a worker thread (CSV; row-thread.ts) or here (XLSX), arriving as packed batches
+ * (row-batches.ts) that this thread compares with the prices in use (a compact in-memory snapshot, kept warm). The
+ * findings stay in memory and are written at the end as a few JSON chunks per kind, with the counts, in one short
+ * write transaction (findings.ts). The event loop is given back between batches, so the server stays responsive.
+ * Nothing in parts, prices or stock changes here.
  */
 import { join } from 'node:path'
 import { QueryTypes } from 'sequelize'
