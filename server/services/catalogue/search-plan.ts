@@ -133,7 +133,15 @@ const isIdentifierLike = (t: string) => (/\d/.test(t) && /[a-z]/.test(t)) || /^\
 /** Splits, classifies and normalises a query. `q` is at most a couple of hundred characters (schema-checked). */
 export function planQuery(q: string): SearchPlan {
   const plan: SearchPlan = { types: null, axle: null, attributes: [], numbers: [], identifiers: [], terms: [], ignored: [] }
-  let text = q.toLowerCase().normalize('NFKC').replace(/[,;()]+/g, ' ').replace(/(\d)\s*[x×]\s*(\d)/g, '$1 $2').trim()
+  let text = q.toLowerCase().normalize('NFKC').replace(/[,;()]+/g, ' ')
+  // "300x25", "300 × 25 × 12": an x between whole numbers separates sizes; an x inside an identifier
+  // ("ZQ 66MU9X 01", an OE number) is a letter of it
+  for (let pass = 0; pass < 4; pass++) {
+    const split = text.replace(/(?<=(?:^|\s)\d+(?:\.\d+)?)\s*[x×]\s*(?=\d)/g, ' ')
+    if (split === text) break
+    text = split
+  }
+  text = text.trim()
   if (!text) return plan
   const addTypes = (ts: PartType[]) => { plan.types = [...new Set([...(plan.types ?? []), ...ts])] }
 
