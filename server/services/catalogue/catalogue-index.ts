@@ -87,11 +87,12 @@ export async function refreshIndexedParts(partIds: number[]): Promise<void> {
   // a rebuild under way may have read these rows before the change, and replaces the index when it ends: wait for
   // it, then update the index it leaves (updating the old one would be lost)
   if (building) await building.catch(() => {})
-  if (!index || !partIds.length) return
+  const target = index // dropped or rebuilt while the rows are read: the next search reads the database anyway
+  if (!target || !partIds.length) return
   const inputs = await loadInputs(partIds)
   const found = new Set(inputs.map((i) => i.id))
-  for (const id of partIds) if (!found.has(id)) index.remove(id)
-  for (const input of inputs) index.upsert(input)
+  for (const id of partIds) if (!found.has(id)) target.remove(id)
+  for (const input of inputs) target.upsert(input)
 }
 
 /** Drops the index; the next search rebuilds it (after bulk changes). */
