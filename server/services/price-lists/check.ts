@@ -527,7 +527,9 @@ export async function runCheck(id: number): Promise<void> {
     // as the file has them: the reading thread does not keep cells, so those few rows are read again
     const noRaw = rejected.filter((f) => f[F.raw] === null)
     if (noRaw.length) {
+      // the file was read once already; should it not read again, the refusal shows the values as understood
       const cells = await cellsOfRows(upload.fileFormat === 'xlsx' ? xlsxRows(path, decimal) : csvRows(path, job.delimiter), new Set(noRaw.map((f) => f[F.row]!)), mapping, headers)
+        .catch(() => new Map<number, Record<string, string>>())
       for (const f of noRaw) f[F.raw] = cells.get(f[F.row]!) ?? rawFromFinding(mapping, f, decimal)
     }
     for (const list of [...Object.values(found), prices]) list.flush()

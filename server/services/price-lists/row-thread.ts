@@ -4,6 +4,7 @@
  * of a 200,000-row check then run side by side. Where the bundle is not there (`nuxi dev`) or
  * `BORELINE_PRICE_WORKER=0`, the caller packs the rows on its own thread instead (same batches, same results).
  */
+import { on } from 'node:events'
 import { existsSync } from 'node:fs'
 import { dirname, join } from 'node:path'
 import { fileURLToPath } from 'node:url'
@@ -32,24 +33,17 @@ export function rowsWorkerPath(): string | null {
 /** The packed batches of a CSV file, read and validated by a worker thread; stopping early ends the worker. */
 export async function* workerBatches(file: string, job: RowJob): AsyncGenerator<RowBatch> {
   const worker = new Worker(file, { workerData: job })
-  const queue: WorkerMessage[] = []
-  let wake: (() => void) | null = null
-  let failure: Error | null = null
-  let exited = false
-  const poke = () => { const w = wake; wake = null; w?.() }
-  worker.on('message', (m: WorkerMessage) => { queue.push(m); poke() })
-  worker.on('error', (e: Error) => { failure = e; poke() })
-  worker.on('exit', (code) => { exited = true; if (code !== 0) failure ??= new Error(`the price rows worker stopped (exit code ${code})`); poke() })
+  let exitCode = 0
+  worker.once('exit', (code) => { exitCode = code })
   try {
-    for (;;) {
-      while (!queue.length && !failure && !exited) await new Promise<void>((r) => { wake = r })
-      const m = queue.shift()
-      if (!m) throw failure ?? new Error('the price rows worker stopped before the end of the file')
+    // messages in order; an 'error' event (the worker threw) rejects, 'exit' ends the loop
+    for await (const [m] of on(worker, 'message', { close: ['exit'] }) as AsyncIterable<[WorkerMessage]>) {
       if (m.type === 'batch') yield m.batch
       else if (m.type === 'done') return
       else if (m.type === 'refused') throw new PriceFileError(m.message, m.code)
       else throw new Error(`the price rows worker failed: ${m.message}`)
     }
+    throw new Error(exitCode ? `the price rows worker stopped (exit code ${exitCode})` : 'the price rows worker stopped before the end of the file')
   } finally {
     void worker.terminate()
   }
