@@ -10,7 +10,7 @@ export default defineNuxtConfig({
   compatibilityDate: '2026-11-01',
   devtools: { enabled: false },
   telemetry: false,
-  modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', 'nuxt-auth-utils', '@vueuse/nuxt'],
+  modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', 'nuxt-auth-utils', '@vueuse/nuxt', '@nuxt/eslint'],
   css: ['~/assets/css/main.css'],
   // components are named by file (app/components/quotes/QuoteCard.vue -> <QuoteCard>), folders show the domain
   components: [{ path: '~/components', pathPrefix: false }],
@@ -48,6 +48,8 @@ export default defineNuxtConfig({
     public: {
       currency: 'GBP',
       locale: 'en-GB',
+      // the one zone for dates on screens, documents, statements and e-mails
+      timeZone: 'Europe/London',
     },
   },
   nitro: {
@@ -62,13 +64,18 @@ export default defineNuxtConfig({
     ...(buildDir ? { output: { dir: `${buildDir}/.output` } } : {}),
   },
   hooks: {
-    // the price-file rows worker (server/services/price-lists/rows-worker.ts) runs in its own thread, so it is
+    // domain errors become HTTP answers in one place (server/error-handler.ts), ahead of Nuxt's own handler
+    'nitro:config'(config) {
+      const after = [config.errorHandler ?? []].flat()
+      config.errorHandler = [fileURLToPath(new URL('./server/error-handler.ts', import.meta.url)), ...after]
+    },
+    // the price-file rows worker (server/services/price-files/rows-worker.ts) runs in its own thread, so it is
     // bundled on its own, beside the server's entry, once the server is built (dev builds too)
     'nitro:init'(nitro) {
       nitro.hooks.hook('compiled', async () => {
         const { build } = await import('esbuild')
         await build({
-          entryPoints: [fileURLToPath(new URL('./server/services/price-lists/rows-worker.ts', import.meta.url))],
+          entryPoints: [fileURLToPath(new URL('./server/services/price-files/rows-worker.ts', import.meta.url))],
           outfile: join(nitro.options.output.serverDir, 'price-rows-worker.cjs'),
           bundle: true, platform: 'node', format: 'cjs', target: 'node20', logLevel: 'warning',
           external: ['exceljs'], // never used by the worker (CSV only)

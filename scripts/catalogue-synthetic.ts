@@ -3,7 +3,7 @@
  *
  * Writes a large invented catalogue into a database for benchmarks: vehicles with OE brakes and option questions,
  * parts of every type with valid specs, OE numbers, supersessions, fitment (some with qualifiers), stock in every
- * branch and prices in the active price list. The database is migrated first; when it has no people yet the demo
+ * branch and prices in the active price version. The database is migrated first; when it has no people yet the demo
  * seed runs too (so the benchmark can sign in). Rows go in with raw multi-row INSERTs in a few big transactions,
  * with the revision triggers off during the load. Deterministic for a given --seed. Refuses a database that already
  * holds synthetic rows (SKUs starting "SY-").
@@ -123,10 +123,10 @@ async function main() {
   const [existing] = await all<{ n: number }>(db, "SELECT COUNT(*) AS n FROM parts WHERE sku LIKE 'SY-%'")
   if (existing!.n > 0) throw new Error(`This database already holds ${existing!.n} synthetic parts. Use a fresh database.`)
   const branches = await all<{ id: number }>(db, 'SELECT id FROM branches ORDER BY id')
-  let [list] = await all<{ id: number }>(db, "SELECT id FROM price_lists WHERE status = 'active' ORDER BY version DESC LIMIT 1")
+  let [list] = await all<{ id: number }>(db, "SELECT id FROM price_versions WHERE status = 'active' ORDER BY version DESC LIMIT 1")
   if (!list) {
-    await run(db, `INSERT INTO price_lists (version, label, status, effective_at, activated_at, created_at, updated_at) VALUES ((SELECT COALESCE(MAX(version), 0) + 1 FROM price_lists), 'Synthetic', 'active', datetime('now'), datetime('now'), datetime('now'), datetime('now'))`)
-    ;[list] = await all<{ id: number }>(db, "SELECT id FROM price_lists WHERE status = 'active' ORDER BY version DESC LIMIT 1")
+    await run(db, `INSERT INTO price_versions (version, label, status, effective_at, activated_at, created_at, updated_at) VALUES ((SELECT COALESCE(MAX(version), 0) + 1 FROM price_versions), 'Synthetic', 'active', datetime('now'), datetime('now'), datetime('now'), datetime('now'))`)
+    ;[list] = await all<{ id: number }>(db, "SELECT id FROM price_versions WHERE status = 'active' ORDER BY version DESC LIMIT 1")
   }
   const triggers = [...CATALOGUE_TABLES, 'stock_levels'].flatMap((t) => ['insert', 'update', 'delete'].map((op) => `${t}_rev_${op}`))
   const triggerSql = await all<{ sql: string }>(db, `SELECT sql FROM sqlite_master WHERE type = 'trigger' AND name IN (${triggers.map(esc).join(',')})`)
@@ -234,7 +234,7 @@ async function main() {
   function list_id() { return list!.id }
   await insertAll(db, 'parts', ['id', 'sku', 'type', 'product_line', 'description', 'specs', 'status', 'created_at', 'updated_at'], partRows, 500)
   await insertAll(db, 'part_oe_numbers', ['part_id', 'oe_number', 'oe_normalised', 'maker'], oeRows)
-  await insertAll(db, 'part_prices', ['price_list_id', 'part_id', 'list_price_minor', 'trade_cost_minor', 'core_deposit_minor', 'pack_quantity'], priceRows)
+  await insertAll(db, 'part_prices', ['price_version_id', 'part_id', 'list_price_minor', 'trade_cost_minor', 'core_deposit_minor', 'pack_quantity'], priceRows)
   await insertAll(db, 'stock_levels', ['part_id', 'branch_id', 'quantity', 'updated_at'], stockRows)
   await insertAll(db, 'supersessions', ['old_sku', 'new_part_id', 'note', 'created_at'], supRows)
   console.log(`parts: ${partRows.length}, OE numbers: ${oeRows.length}, supersessions: ${supRows.length} in ${((Date.now() - t0) / 1000).toFixed(1)} s`)

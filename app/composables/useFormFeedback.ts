@@ -2,6 +2,8 @@
  * Field messages for a form: from the shared zod schema before sending, and from the server's 422/413/415
  * answer (`data.fields`) after. Pages show `fields[name]` next to each input and `problem` above the button.
  */
+import { fieldMessages, type ValidationIssue } from '#shared/utils/field-messages'
+
 export function useFormFeedback() {
   const fields = ref<Record<string, string>>({})
   const problem = ref('')
@@ -16,11 +18,9 @@ export function useFormFeedback() {
     problem.value = ''
   }
 
-  /** zod issues -> one message per field (the first). Returns false when there were issues. */
-  function fromIssues(issues: { path: PropertyKey[]; message: string }[]): false {
-    const out: Record<string, string> = {}
-    for (const i of issues) out[i.path.map(String).join('.') || '_'] ??= i.message
-    fields.value = out
+  /** Validation issues -> one message per field (the first, as the server answers). Returns false. */
+  function fromIssues(issues: readonly ValidationIssue[]): false {
+    fields.value = fieldMessages(issues)
     problem.value = 'Please check the fields marked below.'
     return false
   }

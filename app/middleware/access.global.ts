@@ -6,7 +6,7 @@
  */
 import { can, type Ability } from '#shared/utils/abilities'
 
-const OPEN = [/^\/sign-in/, /^\/forgot-password/, /^\/reset\//, /^\/invite\//, /^\/apply/, /^\/account\/status/]
+const OPEN = [/^\/sign-in/, /^\/forgot-password/, /^\/reset\//, /^\/invite\//, /^\/apply/, /^\/trade-application$/]
 
 declare module '#app' {
   interface PageMeta {
@@ -27,7 +27,7 @@ export default defineNuxtRouteMiddleware(async (to) => {
   }
   if (user.value?.organisationKind === 'garage') {
     const status = await standing.refresh()
-    if (status && status !== 'approved' && !OPEN.some((r) => r.test(to.path))) return navigateTo('/account/status')
+    if (status && status !== 'approved' && !OPEN.some((r) => r.test(to.path))) return navigateTo('/trade-application')
   } else {
     standing.status.value = null
   }

@@ -1,5 +1,5 @@
 import { parseMoneyToMinor } from '#shared/utils/money'
-import type { TermsDraft } from '~/components/accounts/AccountTermsFields.vue'
+import type { TermsDraft } from '~/components/accounts/TradeTermsFields.vue'
 
 /**
  * The terms form's text inputs -> the API's numbers (credit limit in minor units). Returns field messages

@@ -3,6 +3,7 @@
  * SI numbers (null = blank); the body drops blanks so the shared schema names what is missing.
  */
 import type { HydraulicsInputRaw } from '#shared/utils/brake'
+import type { AxleName } from '#shared/types/axles'
 
 export interface AxleForm {
   kind: 'disc' | 'drum'
@@ -26,7 +27,6 @@ export interface MasterCylinderForm {
   ports: number | null
 }
 
-export type AxleName = 'front' | 'rear'
 
 export interface BoreCheckForm {
   pedalForceN: number | null

@@ -5,8 +5,8 @@
  */
 import type { WearInputRaw } from '#shared/utils/brake'
 import type { OeWearLimits } from '#shared/types/prefill'
+import type { AxleName } from '#shared/types/axles'
 
-export type WearAxleName = 'front' | 'rear'
 export type Side = 'left' | 'right'
 export const READINGS_PER_DISC = 4
 
@@ -30,7 +30,7 @@ export interface AxleWearForm {
 export interface InspectionForm {
   registration: string
   odometer: string
-  axles: Record<WearAxleName, AxleWearForm>
+  axles: Record<AxleName, AxleWearForm>
   waterPercent: number | null
   gradeInSystem: string
   gradeToAdd: string

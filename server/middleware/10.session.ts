@@ -22,7 +22,7 @@ export default defineEventHandler(async (event) => {
     const site = getRequestHeader(event, 'sec-fetch-site')
     const own = getRequestURL(event).origin
     if ((origin && origin !== 'null' && origin !== own) || origin === 'null' || site === 'cross-site') {
-      throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: 'Cross-site request refused.' })
+      throw forbidden('Cross-site request refused.')
     }
   }
 

@@ -22,8 +22,8 @@ export default defineEventHandler(async (event) => {
     const { quote } = await loadLinkedQuote(event, decodeURIComponent(m[1]!))
     event.context.quoteLink = { view: await ownerView(quote, quoteCurrency()) }
   } catch (err) {
-    const e = err as { statusCode?: number; message?: string }
-    if (e.statusCode !== 404 && e.statusCode !== 429) throw err
-    event.context.quoteLink = { statusCode: e.statusCode, message: e.message ?? 'This link is not valid.' }
+    const answer = httpAnswerOf(err)
+    if (answer?.statusCode !== 404 && answer?.statusCode !== 429) throw err
+    event.context.quoteLink = { statusCode: answer.statusCode, message: answer.message || 'This link is not valid.' }
   }
 })

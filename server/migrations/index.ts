@@ -12,6 +12,7 @@ import * as m0006 from './0006-quotes'
 import * as m0007 from './0007-price-lists'
 import * as m0008 from './0008-orders'
 import * as m0009 from './0009-current-prices'
+import * as m0010 from './0010-one-vocabulary'
 
 export interface Migration { name: string; up: (qi: QueryInterface) => Promise<void>; down: (qi: QueryInterface) => Promise<void> }
 
@@ -25,4 +26,5 @@ export const migrations: Migration[] = [
   { name: '0007-price-lists', ...m0007 },
   { name: '0008-orders', ...m0008 },
   { name: '0009-current-prices', ...m0009 },
+  { name: '0010-one-vocabulary', ...m0010 },
 ]

@@ -3,6 +3,7 @@
  * exposed parsed through getters/setters, validated by the zod schemas in shared/schemas before writing.
  */
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
+import type { AxleName } from '../../shared/types/axles'
 
 const json = (field: string, fallback: unknown) => ({
   type: DataTypes.TEXT,
@@ -15,7 +16,6 @@ const json = (field: string, fallback: unknown) => ({
   },
 })
 
-export type Axle = 'front' | 'rear'
 export type Qualifiers = Record<string, string>
 
 export class Vehicle extends Model<InferAttributes<Vehicle>, InferCreationAttributes<Vehicle>> {
@@ -59,7 +59,7 @@ export class VehicleOption extends Model<InferAttributes<VehicleOption>, InferCr
 export class VehicleBrake extends Model<InferAttributes<VehicleBrake>, InferCreationAttributes<VehicleBrake>> {
   declare id: CreationOptional<number>
   declare vehicleId: number
-  declare axle: Axle
+  declare axle: AxleName
   declare qualifiers: CreationOptional<Qualifiers>
   declare kind: 'disc' | 'drum'
   declare discDiameterMm: CreationOptional<number | null>
@@ -125,7 +125,7 @@ export class StockLevel extends Model<InferAttributes<StockLevel>, InferCreation
   declare updatedAt: CreationOptional<Date>
 }
 
-export class PriceList extends Model<InferAttributes<PriceList>, InferCreationAttributes<PriceList>> {
+export class PriceVersion extends Model<InferAttributes<PriceVersion>, InferCreationAttributes<PriceVersion>> {
   declare id: CreationOptional<number>
   declare version: number
   declare label: CreationOptional<string>
@@ -138,13 +138,13 @@ export class PriceList extends Model<InferAttributes<PriceList>, InferCreationAt
 }
 
 /** The price of a part in use now (one row per part), with the version that last set it. */
-export class CurrentPrice extends Model<InferAttributes<CurrentPrice>, InferCreationAttributes<CurrentPrice>> {
+export class PartPrice extends Model<InferAttributes<PartPrice>, InferCreationAttributes<PartPrice>> {
   declare partId: number
   declare listPriceMinor: number
   declare tradeCostMinor: CreationOptional<number | null>
   declare coreDepositMinor: CreationOptional<number>
   declare packQuantity: CreationOptional<number>
-  declare priceListId: number
+  declare priceVersionId: number
 }
 
 const id = { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true }
@@ -180,12 +180,12 @@ export function initCatalogueModels(sequelize: Sequelize): void {
   StockLevel.init({
     partId: { type: INTEGER, primaryKey: true }, branchId: { type: INTEGER, primaryKey: true }, quantity: INTEGER, updatedAt: DATE,
   }, { sequelize, tableName: 'stock_levels', createdAt: false })
-  PriceList.init({
+  PriceVersion.init({
     id, version: INTEGER, label: STRING, status: STRING, effectiveAt: DATE, activatedAt: DATE, createdByUserId: INTEGER, ...stamps,
-  }, { sequelize, tableName: 'price_lists' })
-  CurrentPrice.init({
+  }, { sequelize, tableName: 'price_versions' })
+  PartPrice.init({
     partId: { type: INTEGER, primaryKey: true },
-    listPriceMinor: INTEGER, tradeCostMinor: INTEGER, coreDepositMinor: INTEGER, packQuantity: INTEGER, priceListId: INTEGER,
+    listPriceMinor: INTEGER, tradeCostMinor: INTEGER, coreDepositMinor: INTEGER, packQuantity: INTEGER, priceVersionId: INTEGER,
   }, { sequelize, tableName: 'part_prices', timestamps: false })
 
   Vehicle.hasMany(VehicleOption, { as: 'options', foreignKey: 'vehicleId' })
@@ -196,7 +196,7 @@ export function initCatalogueModels(sequelize: Sequelize): void {
   Part.hasMany(Fitment, { as: 'fitments', foreignKey: 'partId' })
   Part.hasMany(PartOeNumber, { as: 'oeNumbers', foreignKey: 'partId' })
   Part.hasMany(StockLevel, { as: 'stock', foreignKey: 'partId' })
-  Part.hasOne(CurrentPrice, { as: 'price', foreignKey: 'partId' })
+  Part.hasOne(PartPrice, { as: 'price', foreignKey: 'partId' })
   Supersession.belongsTo(Part, { as: 'newPart', foreignKey: 'newPartId' })
-  CurrentPrice.belongsTo(PriceList, { as: 'priceList', foreignKey: 'priceListId' })
+  PartPrice.belongsTo(PriceVersion, { as: 'priceVersion', foreignKey: 'priceVersionId' })
 }

@@ -10,7 +10,7 @@ import { initAccountExtraModels } from './accounts-extra'
 import { initCatalogueModels } from './catalogue'
 import { initInspectionModels } from './inspections'
 import { initQuoteModels } from './quotes'
-import { initPriceListModels } from './price-lists'
+import { initPriceFileModels } from './price-files'
 import { initOrderModels } from './orders'
 
 export * from './accounts'
@@ -18,7 +18,7 @@ export * from './accounts-extra'
 export * from './catalogue'
 export * from './inspections'
 export * from './quotes'
-export * from './price-lists'
+export * from './price-files'
 export * from './orders'
 
 let initialised: Sequelize | undefined
@@ -30,7 +30,7 @@ export function initModels(sequelize: Sequelize = getDb()): Sequelize {
   initCatalogueModels(sequelize)
   initInspectionModels(sequelize)
   initQuoteModels(sequelize)
-  initPriceListModels(sequelize)
+  initPriceFileModels(sequelize)
   initOrderModels(sequelize)
   initialised = sequelize
   return sequelize

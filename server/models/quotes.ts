@@ -7,7 +7,7 @@ import { DataTypes, Model, type CreationOptional, type InferAttributes, type Inf
 import type { QuoteStatus } from '../../shared/utils/quote-states'
 import type { QuoteLineKind } from '../../shared/utils/quote-totals'
 import type { MarkupRules } from '../../shared/utils/quote-markup'
-import type { OwnerDecision, QuoteFinding, Recommendation } from '../../shared/types/quotes'
+import type { OwnerDecision, InspectionFinding, Recommendation } from '../../shared/types/quotes'
 import { Organisation, User } from './accounts'
 import { Part, Vehicle } from './catalogue'
 
@@ -52,7 +52,7 @@ export class Quote extends Model<InferAttributes<Quote>, InferCreationAttributes
   declare ownerEmail: string
   declare ownerPhone: CreationOptional<string>
   declare inspectionId: CreationOptional<number | null>
-  declare findings: CreationOptional<QuoteFinding[]>
+  declare findings: CreationOptional<InspectionFinding[]>
   declare messageToOwner: CreationOptional<string>
   declare tokenHash: CreationOptional<string | null>
   declare sentAt: CreationOptional<Date | null>

@@ -14,6 +14,7 @@
  * Parts of the same fitting dimensions share one "component": one SKU per product line, one set of OE numbers.
  */
 import { normaliseIdentifier, type PartType } from '../../shared/schemas/parts'
+import type { AxleName, FitmentAxle } from '../../shared/types/axles'
 
 /** mulberry32: a small, well-known 32-bit PRNG; deterministic for a given seed. */
 export function prng(seed: number): () => number {
@@ -29,7 +30,7 @@ export function prng(seed: number): () => number {
 
 export interface SeedOption { key: string; label: string; question: string; values: { value: string; label: string }[] }
 export interface SeedBrake {
-  axle: 'front' | 'rear'
+  axle: AxleName
   qualifiers: Record<string, string>
   kind: 'disc' | 'drum'
   discDiameterMm?: number; discThicknessMm?: number; discMinThicknessMm?: number; discVented?: boolean
@@ -55,7 +56,7 @@ export interface SeedPart {
   stock: { NGT: number; RVS: number }
 }
 export interface SeedFitment {
-  vehicleKey: string; sku: string; axle: 'front' | 'rear' | 'all'; side: 'left' | 'right' | 'pair'
+  vehicleKey: string; sku: string; axle: FitmentAxle; side: 'left' | 'right' | 'pair'
   quantity: number; qualifiers: Record<string, string>; note: string
 }
 export interface SeedSupersession { oldSku: string; newSku: string; note: string }

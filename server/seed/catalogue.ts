@@ -1,13 +1,13 @@
 /**
- * Writes the invented demo catalogue ({@link buildCatalogue}) with stock in both branches and price list version 1.
+ * Writes the invented demo catalogue ({@link buildCatalogue}) with stock in both branches and price version 1.
  * Idempotent: rows are found by their natural keys (vehicle make/model/generation/engine code, option key, SKU,
- * OE number, old SKU, fitment vehicle/part/axle/side/qualifiers, stock part/branch, price list version) and only
+ * OE number, old SKU, fitment vehicle/part/axle/side/qualifiers, stock part/branch, price version) and only
  * missing rows are inserted, in bulk, so a second run changes nothing.
  */
 import type { Transaction } from 'sequelize'
 import { Branch, Organisation } from '../models/accounts'
 import {
-  Fitment, Part, PartOeNumber, CurrentPrice, PriceList, StockLevel, Supersession, Vehicle, VehicleBrake, VehicleOption,
+  Fitment, Part, PartOeNumber, PartPrice, PriceVersion, StockLevel, Supersession, Vehicle, VehicleBrake, VehicleOption,
 } from '../models/catalogue'
 import { normaliseIdentifier, parseSpecs } from '../../shared/schemas/parts'
 import { buildCatalogue, BORE_MISMATCH } from './catalogue-data'
@@ -103,23 +103,23 @@ export async function seedCatalogue(t: Transaction, log: (s: string) => void): P
   }
   for (let i = 0; i < newStock.length; i += 500) await StockLevel.bulkCreate(newStock.slice(i, i + 500), opts)
 
-  // price list version 1, active unless another list already is
-  let list = await PriceList.findOne({ where: { version: 1 }, ...opts })
+  // price version 1, active unless another version already is
+  let list = await PriceVersion.findOne({ where: { version: 1 }, ...opts })
   if (!list) {
-    const active = await PriceList.findOne({ where: { status: 'active' }, ...opts })
-    list = await PriceList.create({
-      version: 1, label: 'Trade price list 2026 (opening)', status: active ? 'retired' : 'active',
+    const active = await PriceVersion.findOne({ where: { status: 'active' }, ...opts })
+    list = await PriceVersion.create({
+      version: 1, label: 'Trade prices 2026 (opening)', status: active ? 'retired' : 'active',
       effectiveAt: new Date('2026-10-01T00:00:00Z'), activatedAt: new Date('2026-10-01T00:00:00Z'),
     }, opts)
   }
   // prices in use: one row per part, set by the version that is active (demo parts not priced yet get one)
-  const activeList = await PriceList.findOne({ where: { status: 'active' }, ...opts })
+  const activeList = await PriceVersion.findOne({ where: { status: 'active' }, ...opts })
   const setBy = (activeList ?? list).id
-  const havePrice = new Set((await CurrentPrice.findAll({ attributes: ['partId'], ...opts })).map((p) => p.partId))
+  const havePrice = new Set((await PartPrice.findAll({ attributes: ['partId'], ...opts })).map((p) => p.partId))
   const newPrices = data.parts.filter((p) => !havePrice.has(partIds.get(p.sku)!)).map((p) => ({
-    partId: partIds.get(p.sku)!, listPriceMinor: p.listPriceMinor, tradeCostMinor: p.tradeCostMinor, coreDepositMinor: p.coreDepositMinor, packQuantity: 1, priceListId: setBy,
+    partId: partIds.get(p.sku)!, listPriceMinor: p.listPriceMinor, tradeCostMinor: p.tradeCostMinor, coreDepositMinor: p.coreDepositMinor, packQuantity: 1, priceVersionId: setBy,
   }))
-  for (let i = 0; i < newPrices.length; i += 500) await CurrentPrice.bulkCreate(newPrices.slice(i, i + 500), opts)
+  for (let i = 0; i < newPrices.length; i += 500) await PartPrice.bulkCreate(newPrices.slice(i, i + 500), opts)
 
   // one demo garage lets its technicians see trade prices
   await Organisation.update({ techniciansSeePrices: true }, { where: { name: DEMO_GARAGE_TECHNICIANS_SEE_PRICES, kind: 'garage', techniciansSeePrices: false }, ...opts })

@@ -15,7 +15,7 @@ import { bookOrderCharges, placeOrder, releaseStock } from '../services/orders'
 import { getDb } from '../utils/db'
 import { orderReference } from '../../shared/types/orders'
 
-type Stage = 'queued' | 'picking' | 'dispatched' | 'delivered' | 'cancelled' | 'awaiting_payment'
+type Stage = 'confirmed' | 'picking' | 'dispatched' | 'delivered' | 'cancelled' | 'awaiting_payment'
 
 interface DemoOrder {
   ref: string
@@ -34,7 +34,7 @@ const DEMO: DemoOrder[] = [
   { ref: 'DEMO-JOB-4471', garage: 'Millbrook Motor Works', payment: 'account', stage: 'delivered', daysAgo: 9, exchange: 1, plain: 1, bookCore: true },
   { ref: 'DEMO-JOB-4502', garage: 'Millbrook Motor Works', payment: 'account', stage: 'dispatched', daysAgo: 2, exchange: 1, plain: 0 },
   { ref: 'DEMO-JOB-4510', garage: 'Millbrook Motor Works', payment: 'account', stage: 'picking', daysAgo: 1, exchange: 0, plain: 2 },
-  { ref: 'DEMO-JOB-4513', garage: 'Millbrook Motor Works', payment: 'account', stage: 'queued', daysAgo: 0, exchange: 0, plain: 1 },
+  { ref: 'DEMO-JOB-4513', garage: 'Millbrook Motor Works', payment: 'account', stage: 'confirmed', daysAgo: 0, exchange: 0, plain: 1 },
   { ref: 'DEMO-JOB-4460', garage: 'Millbrook Motor Works', payment: 'account', stage: 'cancelled', daysAgo: 12, exchange: 0, plain: 1 },
   { ref: 'DEMO-TY-0192', garage: 'Tannery Yard Autos', payment: 'card', stage: 'delivered', daysAgo: 6, exchange: 0, plain: 2 },
   {
@@ -78,7 +78,7 @@ export async function seedOrders(t: Transaction, log: (s: string) => void): Prom
     const ledgerAt = at(0)
     if (d.payment === 'card' && d.stage !== 'awaiting_payment') {
       // paid by card before this demo began: its payment is history, so no payment-service id to refund against
-      order.status = 'queued'
+      order.status = 'confirmed'
       order.paymentState = 'paid'
       order.paidAt = at(0.1)
       await order.save({ transaction: t })
@@ -90,7 +90,7 @@ export async function seedOrders(t: Transaction, log: (s: string) => void): Prom
       order.declinedAt = at(0.05)
     }
     const steps: [Stage, keyof Order, number][] = [['picking', 'pickingAt', 2], ['dispatched', 'dispatchedAt', 5], ['delivered', 'deliveredAt', 26]]
-    const reach = ['queued', 'picking', 'dispatched', 'delivered'].indexOf(d.stage)
+    const reach = ['confirmed', 'picking', 'dispatched', 'delivered'].indexOf(d.stage)
     steps.forEach(([stage, field, h], i) => {
       if (reach >= i + 1) {
         order.status = stage

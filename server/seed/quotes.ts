@@ -11,7 +11,7 @@ import { Fitment, Vehicle } from '../models/catalogue'
 import { GarageSettings, Quote, QuoteLine } from '../models/quotes'
 import { addLine, changeLine, isDecidable, linesOf, newQuoteToken, reviseQuote, type NewLine } from '../services/quotes'
 import { vehicleLabel } from '../services/inspections'
-import type { QuoteFinding } from '../../shared/types/quotes'
+import type { InspectionFinding } from '../../shared/types/quotes'
 import type { QuoteStatus } from '../../shared/utils/quote-states'
 
 const GARAGE = 'Millbrook Motor Works'
@@ -28,7 +28,7 @@ interface DemoQuote {
   registration: string
   odometer: string
   owner: { name: string; email: string; phone: string }
-  findings: QuoteFinding[]
+  findings: InspectionFinding[]
   lines: (NewLine & { told?: boolean; decision?: 'approved' | 'declined' })[]
   status: QuoteStatus
   /** days ago it was sent (none: a draft) */

@@ -6,7 +6,6 @@
  * arrangement), the same reference twice for one garage (409, enforced by the ledger's unique (kind, external id)
  * even under concurrent requests). Audited; the garage's managers get an e-mail after the commit. Plain Node.
  */
-import { createError } from 'h3'
 import { UniqueConstraintError } from 'sequelize'
 import { Organisation } from '../models/accounts'
 import { LedgerEntry } from '../models/orders'
@@ -15,6 +14,7 @@ import { audit } from '../utils/audit'
 import { formatMinor } from '../../shared/utils/money'
 import type { AccountPaymentInput } from '../../shared/schemas/orders'
 import { balanceOf, ORDER_CURRENCY } from './orders'
+import { DomainError, notFound, conflict } from './errors'
 
 export interface AccountPaymentOutcome {
   entryId: number
@@ -32,13 +32,13 @@ export async function recordAccountPayment(organisationId: number, input: Accoun
   try {
     return await withWrite(async (t) => {
       const org = await Organisation.findByPk(organisationId, { transaction: t })
-      if (!org || org.kind !== 'garage') throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'Trade account not found.' })
+      if (!org || org.kind !== 'garage') throw notFound('Trade account')
       const owed = await balanceOf(org.id, t)
       if (input.amountMinor > owed) {
         const message = owed > 0
           ? `${org.name} owes ${money(owed)}: a payment of ${money(input.amountMinor)} would put the account in credit. Book at most ${money(owed)}.`
           : `${org.name} owes nothing at the moment (balance ${money(owed)}), so there is nothing to book a payment against.`
-        throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message, data: { fields: { amountMinor: message }, balanceMinor: owed } })
+        throw new DomainError('invalid', message, { fields: { amountMinor: message }, details: { balanceMinor: owed } })
       }
       const entry = await LedgerEntry.create({
         organisationId: org.id, orderId: null, kind: 'account_payment', amountMinor: -input.amountMinor,
@@ -58,7 +58,7 @@ export async function recordAccountPayment(organisationId: number, input: Accoun
   } catch (err) {
     if (err instanceof UniqueConstraintError) {
       const message = `A payment with reference ${input.reference} is already booked for this garage. Check the statement before booking it again.`
-      throw createError({ statusCode: 409, statusMessage: 'Conflict', message, data: { fields: { reference: message } } })
+      throw new DomainError('conflict', message, { fields: { reference: message } })
     }
     throw err
   }

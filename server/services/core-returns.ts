@@ -3,14 +3,13 @@
  * (The counter's decision lives in payments.ts because accepting one may refund through the payment service.)
  * Plain Node.
  */
-import { createError } from 'h3'
 import { Op, type Transaction, type WhereOptions } from 'sequelize'
 import { Organisation, type User } from '../models/accounts'
 import { CoreReturn, Order, OrderLine } from '../models/orders'
-import { invalidInput, notFound } from '../utils/validate'
 import { audit } from '../utils/audit'
 import { coreReturnView } from './orders'
 import type { CoreReturnStatus, CoreReturnView } from '../../shared/types/orders'
+import { invalidInput, notFound, conflict } from './errors'
 
 /** Orders whose parts have left the branch: only then can the old units come back. */
 const BOOKABLE_ORDER_STATUSES = ['dispatched', 'delivered']
@@ -40,13 +39,10 @@ export async function bookCoreReturn(t: Transaction, organisationId: number, use
   const cr = await CoreReturn.findOne({ where, include: [{ model: Order, as: 'order' }, { model: OrderLine, as: 'line' }], transaction: t })
   if (!cr || !cr.order) throw notFound('Core return')
   if (cr.status !== 'expected') {
-    throw createError({
-      statusCode: 409, statusMessage: 'Conflict',
-      message: cr.status === 'booked' ? 'This old unit is already booked to come back.' : 'This core return is closed.',
-    })
+    throw conflict(cr.status === 'booked' ? 'This old unit is already booked to come back.' : 'This core return is closed.')
   }
   if (!BOOKABLE_ORDER_STATUSES.includes(cr.order.status)) {
-    throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'Book the old unit back once the order has been dispatched.' })
+    throw conflict('Book the old unit back once the order has been dispatched.')
   }
   const quantity = input.quantity ?? cr.quantityExpected
   if (quantity > cr.quantityExpected) throw invalidInput({ quantity: `At most ${cr.quantityExpected} can come back on this line.` })

@@ -16,13 +16,15 @@ import type { IncomingMessage } from 'node:http'
 import formidable, { errors as formidableErrors, multipart, type File } from 'formidable'
 import { fileTypeFromFile } from 'file-type'
 import { LOGO_LIMITS } from '../../shared/schemas/quotes'
+import { DomainError } from './errors'
 
 export const LOGO_FIELD = 'logo'
 const INCOMING = join(tmpdir(), 'boreline-incoming')
 const EXT: Record<string, string> = { 'image/png': 'png', 'image/jpeg': 'jpg', 'image/svg+xml': 'svg' }
 
-export class LogoError extends Error {
-  constructor(public statusCode: 413 | 415 | 422, message: string) { super(message) }
+/** A refusal of the upload, named on the `logo` field. */
+function logoError(statusCode: 413 | 415 | 422, message: string): DomainError {
+  return new DomainError(statusCode === 413 ? 'too_large' : statusCode === 415 ? 'unsupported' : 'invalid', message, { fields: { [LOGO_FIELD]: message } })
 }
 
 /** Parses the multipart body; every temporary file is removed on every path (the caller calls cleanup too). */
@@ -53,13 +55,13 @@ export async function parseLogoUpload(req: IncomingMessage): Promise<{ file: Fil
     setTimeout(() => { void cleanup() }, 50)
     const code = (err as { code?: number }).code
     if (code === formidableErrors.biggerThanMaxFileSize || code === formidableErrors.biggerThanTotalMaxFileSize) {
-      throw new LogoError(413, 'The logo must be smaller than 2 MB.')
+      throw logoError(413, 'The logo must be smaller than 2 MB.')
     }
-    if (code === formidableErrors.maxFilesExceeded) throw new LogoError(422, 'Choose one logo file.')
+    if (code === formidableErrors.maxFilesExceeded) throw logoError(422, 'Choose one logo file.')
     if (code === formidableErrors.noParser || code === formidableErrors.missingContentType || code === formidableErrors.missingMultipartBoundary) {
-      throw new LogoError(415, 'Send the logo as multipart/form-data.')
+      throw logoError(415, 'Send the logo as multipart/form-data.')
     }
-    throw new LogoError(422, 'The upload arrived incomplete. Please try again.')
+    throw logoError(422, 'The upload arrived incomplete. Please try again.')
   }
 }
 
@@ -84,21 +86,21 @@ export function svgProblem(text: string): string | null {
 
 /** Checks the uploaded file by its bytes; returns the type to store it as. */
 export async function checkLogoFile(file: File | null): Promise<{ mime: string; ext: string; size: number }> {
-  if (!file) throw new LogoError(422, 'Choose a logo file (PNG, JPEG or SVG).')
+  if (!file) throw logoError(422, 'Choose a logo file (PNG, JPEG or SVG).')
   const size = file.size ?? (await stat(file.filepath)).size
-  if (size === 0) throw new LogoError(415, 'The file is empty. Choose the logo again.')
-  if (size > LOGO_LIMITS.maxBytes) throw new LogoError(413, 'The logo must be smaller than 2 MB.')
+  if (size === 0) throw logoError(415, 'The file is empty. Choose the logo again.')
+  if (size > LOGO_LIMITS.maxBytes) throw logoError(413, 'The logo must be smaller than 2 MB.')
   const detected = await fileTypeFromFile(file.filepath)
   if (detected && (detected.mime === 'image/png' || detected.mime === 'image/jpeg')) {
     return { mime: detected.mime, ext: EXT[detected.mime]!, size }
   }
   // an SVG that starts with an XML declaration is recognised as XML; it is checked as an SVG below
   if (detected && detected.mime !== 'application/xml' && detected.mime !== 'image/svg+xml') {
-    throw new LogoError(415, `The logo must be PNG, JPEG or SVG (this file is ${detected.ext.toUpperCase()}).`)
+    throw logoError(415, `The logo must be PNG, JPEG or SVG (this file is ${detected.ext.toUpperCase()}).`)
   }
   const text = await readFile(file.filepath, 'utf8')
   const problem = svgProblem(text)
-  if (problem) throw new LogoError(415, problem === 'This is not an SVG image.' ? 'The logo must be PNG, JPEG or SVG.' : problem)
+  if (problem) throw logoError(415, problem === 'This is not an SVG image.' ? 'The logo must be PNG, JPEG or SVG.' : problem)
   return { mime: 'image/svg+xml', ext: 'svg', size }
 }
 

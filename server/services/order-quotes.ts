@@ -2,12 +2,11 @@
  * From an owner-approved quote to order lines: the approved part lines of the caller's own quote, with the
  * unit net price the quote captured so the order can show what changed when it is re-priced. Plain Node.
  */
-import { createError } from 'h3'
 import { Op, type Transaction } from 'sequelize'
 import { Quote, QuoteLine } from '../models/quotes'
 import { Order } from '../models/orders'
-import { notFound } from '../utils/validate'
 import { orderReference } from '../../shared/types/orders'
+import { DomainError, notFound, conflict } from './errors'
 
 export interface QuoteOrderLine { sku: string; quantity: number; quoteLineId: number; quotedUnitNetMinor: number | null }
 
@@ -17,16 +16,13 @@ export async function linesFromQuote(organisationId: number, quoteId: number, t?
   const quote = await Quote.findOne({ where: { id: quoteId, organisationId }, transaction: t })
   if (!quote) throw notFound('Quote')
   if (!ORDERABLE.includes(quote.status ?? '')) {
-    throw createError({
-      statusCode: 409, statusMessage: 'Conflict',
-      message: `Only a quote the owner has approved (in full or in part) can be ordered; this one is ${String(quote.status).replace('_', ' ')}.`,
-    })
+    throw conflict(`Only a quote the owner has approved (in full or in part) can be ordered; this one is ${String(quote.status).replace('_', ' ')}.`)
   }
   const already = await Order.findOne({
     where: { organisationId, quoteId, status: { [Op.notIn]: ['cancelled', 'lapsed'] } }, transaction: t,
   })
   if (already) {
-    throw createError({ statusCode: 409, statusMessage: 'Conflict', message: `This quote was already ordered as ${orderReference(already.id)}.`, data: { orderId: already.id } })
+    throw new DomainError('conflict', `This quote was already ordered as ${orderReference(already.id)}.`, { details: { orderId: already.id } })
   }
   const rows = await QuoteLine.findAll({ where: { quoteId: quote.id, kind: 'part' }, order: [['position', 'ASC'], ['id', 'ASC']], transaction: t })
   const skipped: { sku: string; reason: string }[] = []

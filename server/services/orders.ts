@@ -6,13 +6,11 @@
  * Stock: an order holds its units from the moment it is created (`stock_held`); they go back to the shelf
  * when an unpaid card checkout lapses, or when the order is cancelled before dispatch.
  */
-import { createError } from 'h3'
 import { Op, QueryTypes, type Transaction } from 'sequelize'
 import { Branch, Organisation, User } from '../models/accounts'
 import { Part, StockLevel } from '../models/catalogue'
 import { CoreReturn, LedgerEntry, Order, OrderLine } from '../models/orders'
 import { getDb } from '../utils/db'
-import { invalidInput, notFound } from '../utils/validate'
 import { garagePrices } from './pricing'
 import { linesFromQuote, type QuoteOrderLine } from './order-quotes'
 import { formatMinor } from '../../shared/utils/money'
@@ -21,6 +19,7 @@ import {
   COUNTER_MOVES, CORE_RETURN_LABELS, ORDER_STATUS_LABELS, PAYMENT_STATE_LABELS, orderReference,
   type BranchView, type CoreReturnView, type OrderDetail, type OrderPreview, type OrderSummary, type PaymentMethod, type PricedLine,
 } from '../../shared/types/orders'
+import { DomainError, invalidInput, notFound, conflict, forbidden } from './errors'
 
 export const ORDER_CURRENCY = 'GBP'
 
@@ -182,18 +181,10 @@ export async function creditCheck(org: Organisation, totalMinor: number, t?: Tra
 
 function refuseAccount(org: Organisation, totalMinor: number, c?: CreditCheck): never {
   if (!c) {
-    throw createError({
-      statusCode: 422, statusMessage: 'Unprocessable Entity',
-      message: `${org.name} pays by card: ordering on trade account is not set up. Choose card payment.`,
-      data: { fields: { payment: 'This garage pays by card; trade-account terms are not set up.' } },
-    })
+    throw new DomainError('invalid', `${org.name} pays by card: ordering on trade account is not set up. Choose card payment.`, { fields: { payment: 'This garage pays by card; trade-account terms are not set up.' } })
   }
   const f = (m: number) => formatMinor(m, ORDER_CURRENCY)
-  throw createError({
-    statusCode: 402, statusMessage: 'Payment Required',
-    message: `Not enough trade credit: this order is ${f(totalMinor)}, the account balance is ${f(c.balanceMinor)} and the credit limit is ${f(c.creditLimitMinor)} (${f(Math.max(0, c.availableMinor))} available). Pay by card, or settle the account first.`,
-    data: { creditLimitMinor: c.creditLimitMinor, balanceMinor: c.balanceMinor, availableMinor: c.availableMinor, orderTotalMinor: totalMinor, fields: { payment: 'Over the trade-account credit limit.' } },
-  })
+  throw new DomainError('payment_required', `Not enough trade credit: this order is ${f(totalMinor)}, the account balance is ${f(c.balanceMinor)} and the credit limit is ${f(c.creditLimitMinor)} (${f(Math.max(0, c.availableMinor))} available). Pay by card, or settle the account first.`, { fields: { payment: 'Over the trade-account credit limit.' }, details: { creditLimitMinor: c.creditLimitMinor, balanceMinor: c.balanceMinor, availableMinor: c.availableMinor, orderTotalMinor: totalMinor } })
 }
 
 // ---------------------------------------------------------------------------------------------------------
@@ -224,7 +215,7 @@ export async function reserveStock(t: Transaction, branch: Branch, lines: readon
   }
   if (shortages.length) {
     const text = shortages.map((s) => `Only ${s.available} left of ${s.sku} at ${branch.name} (you asked for ${s.wanted}).`).join(' ')
-    throw createError({ statusCode: 409, statusMessage: 'Conflict', message: text, data: { shortages } })
+    throw new DomainError('conflict', text, { details: { shortages } })
   }
 }
 
@@ -265,7 +256,7 @@ export async function placeOrder(
   const org = await Organisation.findByPk(orgId, { transaction: t })
   if (!org || org.kind !== 'garage') throw notFound('Garage')
   if (org.status !== 'approved') {
-    throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: 'This trade account is not active, so it cannot order. Please contact the distributor.' })
+    throw forbidden('This trade account is not active, so it cannot order. Please contact the distributor.')
   }
   const priced = await priceOrder(org, input, t)
   if (input.payment === 'account') {
@@ -280,7 +271,7 @@ export async function placeOrder(
     branchId: priced.branch.id,
     placedByUserId: user.id,
     quoteId: input.quoteId ?? null,
-    status: card ? 'awaiting_payment' : 'queued',
+    status: card ? 'awaiting_payment' : 'confirmed',
     paymentMethod: input.payment,
     paymentState: card ? 'unpaid' : 'on_account',
     subtotalMinor: priced.subtotalMinor,
@@ -415,7 +406,7 @@ export function orderSummary(o: Order, lineCount?: number): OrderSummary {
 
 /** Who may do what next, from the order's state (the routes enforce the same rules). */
 export function garageMayCancel(o: Order): boolean {
-  return ['awaiting_payment', 'lapsed', 'queued'].includes(o.status)
+  return ['awaiting_payment', 'lapsed', 'confirmed'].includes(o.status)
 }
 export function mayPay(o: Order): boolean {
   return o.paymentMethod === 'card' && o.paymentState === 'unpaid' && (o.status === 'awaiting_payment' || o.status === 'lapsed')

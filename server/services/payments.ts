@@ -9,7 +9,6 @@
  * `refund_pending` and the sweep sends it later, under the same idempotency key.
  */
 import Stripe from 'stripe'
-import { createError } from 'h3'
 import { Op, UniqueConstraintError, type Transaction } from 'sequelize'
 import type { User } from '../models/accounts'
 import { StockLevel } from '../models/catalogue'
@@ -22,6 +21,7 @@ import { bookOrderCharges, findGarageOrder, mayPay, orderIncludes, releaseStock,
 import { mailCoreReturn, mailOrder } from './order-mail'
 import { deliveryNotePdf } from './order-pdf'
 import { COUNTER_MOVES, ORDER_STATUS_LABELS, orderReference, type OrderStatus } from '../../shared/types/orders'
+import { DomainError, notFound, conflict } from './errors'
 
 export type After = (() => Promise<unknown>)[]
 
@@ -38,10 +38,7 @@ export async function runAfter(tasks: After): Promise<void> {
 
 function paymentServiceDown(err: unknown): Error {
   console.error('[boreline] payment service error:', stripeProblem(err))
-  return createError({
-    statusCode: 502, statusMessage: 'Bad Gateway',
-    message: 'The card payment service did not answer properly, so nothing was charged. Please try again in a moment.',
-  })
+  return new DomainError('upstream', 'The card payment service did not answer properly, so nothing was charged. Please try again in a moment.')
 }
 
 const orderKey = (o: Pick<Order, 'id' | 'createdAt'>) => `boreline-order-${o.id}-${o.createdAt.getTime()}`
@@ -134,16 +131,16 @@ export async function startCheckout(orgId: number, orderId: number, user: Pick<U
   })
   if (!stored) {
     await stripe.checkout.sessions.expire(session.id).catch(() => {})
-    throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'This order changed while the checkout was being opened. Reload the order.' })
+    throw conflict('This order changed while the checkout was being opened. Reload the order.')
   }
   if (!session.url) throw paymentServiceDown(new Error('checkout session without a url'))
   return { url: session.url, alreadyPaid: false }
 }
 
 function assertPayable(o: Order): void {
-  if (o.paymentMethod !== 'card') throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'This order is on the trade account: there is nothing to pay by card.' })
-  if (o.paymentState !== 'unpaid') throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'This order is already paid.' })
-  if (!mayPay(o)) throw createError({ statusCode: 409, statusMessage: 'Conflict', message: `This order can no longer be paid (${ORDER_STATUS_LABELS[o.status].toLowerCase()}).` })
+  if (o.paymentMethod !== 'card') throw conflict('This order is on the trade account: there is nothing to pay by card.')
+  if (o.paymentState !== 'unpaid') throw conflict('This order is already paid.')
+  if (!mayPay(o)) throw conflict(`This order can no longer be paid (${ORDER_STATUS_LABELS[o.status].toLowerCase()}).`)
 }
 
 // ---------------------------------------------------------------------------------------------------------
@@ -221,7 +218,7 @@ async function applyPaid(t: Transaction, order: Order | null, s: Stripe.Checkout
         return paidButCancelled(t, order, pi, 'The parts were no longer in stock when the payment arrived.')
       }
     }
-    order.status = 'queued'
+    order.status = 'confirmed'
     order.paymentState = 'paid'
     order.paidAt = new Date()
     order.paymentIntentId = pi
@@ -453,13 +450,10 @@ export async function moveOrder(orderId: number, to: OrderStatus, actor: Pick<Us
   const after: After = []
   const order = await withWrite(async (t) => {
     const o = await Order.findByPk(orderId, { include: orderIncludes(), transaction: t })
-    if (!o) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'Order not found.' })
+    if (!o) throw notFound('Order')
     const allowed = COUNTER_MOVES[o.status] ?? []
     if (!allowed.includes(to)) {
-      throw createError({
-        statusCode: 409, statusMessage: 'Conflict',
-        message: `This order is "${ORDER_STATUS_LABELS[o.status]}", so it cannot move to "${ORDER_STATUS_LABELS[to]}".${allowed.length ? ` It can move to: ${allowed.map((s) => `"${ORDER_STATUS_LABELS[s]}"`).join(' or ')}.` : ''}`,
-      })
+      throw conflict(`This order is "${ORDER_STATUS_LABELS[o.status]}", so it cannot move to "${ORDER_STATUS_LABELS[to]}".${allowed.length ? ` It can move to: ${allowed.map((s) => `"${ORDER_STATUS_LABELS[s]}"`).join(' or ')}.` : ''}`)
     }
     if (to === 'cancelled') {
       after.push(...await cancelOrder(t, o, actor, reason))
@@ -492,9 +486,9 @@ export async function decideCoreReturn(id: number, status: 'accepted' | 'rejecte
   const after: After = []
   const cr = await withWrite(async (t) => {
     const row = await CoreReturn.findByPk(id, { include: [{ model: Order, as: 'order' }, { model: OrderLine, as: 'line' }], transaction: t })
-    if (!row || !row.order) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'Core return not found.' })
+    if (!row || !row.order) throw notFound('Core return')
     if (row.status !== 'booked') {
-      throw createError({ statusCode: 409, statusMessage: 'Conflict', message: row.status === 'expected' ? 'The garage has not booked this old unit back yet.' : 'This core return has already been decided.' })
+      throw conflict(row.status === 'expected' ? 'The garage has not booked this old unit back yet.' : 'This core return has already been decided.')
     }
     row.status = status
     row.decidedAt = new Date()

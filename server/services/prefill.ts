@@ -13,6 +13,7 @@ import { SPEC_SCHEMAS, axleOfSpecs, type CaliperSpecs, type MasterCylinderSpecs,
 import { canonicalAnswers, matchQualifiers, type Answers } from '../../shared/utils/catalogue/qualifiers'
 import { qualifierCondition, vehicleLabel } from './inspections'
 import type { OeWearLimits, PartRole, PrefillResult } from '../../shared/types/prefill'
+import type { AxleName } from '../../shared/types/axles'
 
 export type { OeWearLimits, PartRole, PrefillResult }
 
@@ -32,7 +33,6 @@ export const PREFILL_DEFAULTS = {
 
 const ROLE_OF: Partial<Record<string, PartRole>> = { master_cylinder: 'master-cylinder', caliper: 'caliper', wheel_cylinder: 'wheel-cylinder' }
 
-type AxleName = 'front' | 'rear'
 /** An axle or master cylinder as far as the data goes: numbers may be missing (the form asks for them). */
 type Draft = Record<string, unknown>
 

@@ -1,13 +1,14 @@
 /**
- * The garage's current prices: list price from the active price list, less the garage's tier discount
+ * The garage's current prices: list price from the active price version, less the garage's tier discount
  * (netPriceMinor, rounded once), plus the core deposit held against the old unit. Server-only, no HTTP.
  */
 import { Op, type Transaction } from 'sequelize'
 import { DiscountTier, type Organisation } from '../models/accounts'
-import { CurrentPrice, Part, PriceList } from '../models/catalogue'
+import { PartPrice, Part, PriceVersion } from '../models/catalogue'
 import { netPriceMinor } from '../../shared/utils/money'
 
-export interface PartPrice {
+/** A part's price for one garage. */
+export interface GaragePrice {
   part: Part
   listPriceMinor: number
   coreDepositMinor: number
@@ -15,9 +16,9 @@ export interface PartPrice {
   unitNetMinor: number
 }
 
-/** The one active price list, or null before any has been loaded. */
-export function activePriceList(t?: Transaction): Promise<PriceList | null> {
-  return PriceList.findOne({ where: { status: 'active' }, order: [['activatedAt', 'DESC'], ['id', 'DESC']], transaction: t })
+/** The one active price version, or null before any has been loaded. */
+export function activePriceVersion(t?: Transaction): Promise<PriceVersion | null> {
+  return PriceVersion.findOne({ where: { status: 'active' }, order: [['activatedAt', 'DESC'], ['id', 'DESC']], transaction: t })
 }
 
 /** The garage's discount in basis points (0 without a tier). */
@@ -31,15 +32,15 @@ export async function tierBpOf(org: Pick<Organisation, 'tierId'>, t?: Transactio
  * Current prices of the given SKUs for a garage, keyed by SKU as stored. SKUs with no part, or no price on
  * the active list, are simply absent from the map (the caller says why).
  */
-export async function garagePrices(org: Pick<Organisation, 'tierId'>, skus: string[], t?: Transaction): Promise<Map<string, PartPrice>> {
-  const out = new Map<string, PartPrice>()
+export async function garagePrices(org: Pick<Organisation, 'tierId'>, skus: string[], t?: Transaction): Promise<Map<string, GaragePrice>> {
+  const out = new Map<string, GaragePrice>()
   if (!skus.length) return out
-  const list = await activePriceList(t)
+  const list = await activePriceVersion(t)
   if (!list) return out
   const bp = await tierBpOf(org, t)
   const parts = await Part.findAll({ where: { sku: { [Op.in]: [...new Set(skus)] } }, transaction: t })
   if (!parts.length) return out
-  const prices = await CurrentPrice.findAll({ where: { partId: { [Op.in]: parts.map((p) => p.id) } }, transaction: t })
+  const prices = await PartPrice.findAll({ where: { partId: { [Op.in]: parts.map((p) => p.id) } }, transaction: t })
   const byPart = new Map(prices.map((p) => [p.partId, p]))
   for (const part of parts) {
     const price = byPart.get(part.id)

@@ -7,12 +7,12 @@
  */
 import { mkdir, rm, stat } from 'node:fs/promises'
 import { extname, resolve } from 'node:path'
-import type { H3Event } from 'h3'
-import { createError } from 'h3'
+import type { IncomingMessage } from 'node:http'
 import formidable, { errors as formidableErrors, multipart, type File } from 'formidable'
 import { fileTypeFromFile } from 'file-type'
 import { PROOF_FIELD, PROOF_MAX_BYTES, PROOF_TYPES } from '../../shared/schemas/accounts'
 import { cleanFileName } from './proof-store'
+import { DomainError } from './errors'
 
 export { moveIntoStore, newStoredName, openProof, proofPath } from './proof-store'
 
@@ -24,8 +24,7 @@ export interface ParsedUpload {
 }
 
 function uploadError(statusCode: 413 | 415 | 422, field: string, message: string) {
-  const statusMessage = statusCode === 413 ? 'Payload Too Large' : statusCode === 415 ? 'Unsupported Media Type' : 'Unprocessable Entity'
-  return createError({ statusCode, statusMessage, message, data: { fields: { [field]: message } } })
+  return new DomainError(statusCode === 413 ? 'too_large' : statusCode === 415 ? 'unsupported' : 'invalid', message, { fields: { [field]: message } })
 }
 
 export const MISSING_PROOF = 'Attach a proof-of-trade document (PDF, JPEG or PNG).'
@@ -35,7 +34,7 @@ const TOO_BIG = `The document is larger than ${PROOF_MAX_BYTES / 1024 / 1024} MB
  * Parses the multipart body into `<uploads>/.incoming/` (same disk as the store, so the final move is a
  * rename; one folder per installation). On any error every temporary file is already gone when this throws.
  */
-export async function parseProofUpload(event: H3Event, uploadsDir: string): Promise<ParsedUpload> {
+export async function parseProofUpload(req: IncomingMessage, uploadsDir: string): Promise<ParsedUpload> {
   const incoming = resolve(uploadsDir, '.incoming')
   await mkdir(incoming, { recursive: true })
   const temporary = new Set<string>()
@@ -57,7 +56,6 @@ export async function parseProofUpload(event: H3Event, uploadsDir: string): Prom
     filter: (part) => part.name === PROOF_FIELD,
   })
   form.on('fileBegin', (_name, file) => { temporary.add(file.filepath) })
-  const req = event.node.req
   try {
     const [fields, files] = await form.parse(req)
     const flat: Record<string, string> = {}
@@ -93,7 +91,7 @@ function mapFormidableError(err: unknown) {
       return uploadError(422, '_', 'The form arrived incomplete. Please send it again.')
     default:
       console.error('[boreline] upload failed:', (err as Error)?.message ?? err)
-      return createError({ statusCode: 500, statusMessage: 'Internal Server Error', message: 'The upload could not be processed.' })
+      return new DomainError('failed', 'The upload could not be processed.')
   }
 }
 

@@ -3,51 +3,27 @@
  * caller so this stays plain Node): garage header and logo, vehicle, findings, lines, tax, totals, validity,
  * terms and the safety caution. Figures come from the same serialised view the owner's page uses.
  */
-import PDFDocument from 'pdfkit'
 import { formatMinor } from '../../shared/utils/money'
 import { formatBp } from '../../shared/utils/quote-totals'
 import { QUOTE_STATUS_LABELS } from '../../shared/utils/quote-states'
 import { FINDING_WORDS, QUOTE_SAFETY_CAUTION, RECOMMENDATION_WORDS } from '../../shared/utils/quote-wording'
 import type { OwnerQuoteView } from '../../shared/types/quotes'
 import { drawSvgLogo } from './svg-to-pdf'
+import { newPdf, PDF_COLOURS, type PdfFonts } from './pdf/document'
 
-export interface PdfFonts { regular: Buffer; bold: Buffer }
+export type { PdfFonts }
 export interface PdfGarage { name: string; address: string; phone: string; email: string; taxNumber: string }
 export interface PdfLogo { data: Buffer; mime: string }
 
-const INK = '#1b2430'
-const SOFT = '#5b6878'
-const LINE = '#d3cdc2'
-const ACCENT = '#9a5225'
-const FAIL = '#b42318'
+const { ink: INK, soft: SOFT, line: LINE, accent: ACCENT, fail: FAIL } = PDF_COLOURS
 
 /** Renders the quote; resolves with the PDF bytes. */
 export function renderQuotePdf(view: OwnerQuoteView, garage: PdfGarage, fonts: PdfFonts, logo: PdfLogo | null, locale = 'en-GB'): Promise<Buffer> {
   const money = (m: number) => formatMinor(m, view.currency, locale)
   const date = (d: string | null) => (d ? new Intl.DateTimeFormat(locale, { dateStyle: 'long' }).format(new Date(d)) : '')
-  const doc = new PDFDocument({
-    size: 'A4', margin: 48, bufferPages: true, font: fonts.regular as unknown as string,
-    info: { Title: `Quote ${view.reference} from ${garage.name}`, Author: garage.name, Subject: view.vehicle, Creator: 'Boreline' },
-  })
-  doc.registerFont('body', fonts.regular)
-  doc.registerFont('bold', fonts.bold)
-  const chunks: Buffer[] = []
-  doc.on('data', (c: Buffer) => chunks.push(c))
-  const done = new Promise<Buffer>((resolve, reject) => {
-    doc.on('end', () => resolve(Buffer.concat(chunks)))
-    doc.on('error', reject)
-  })
-
-  const left = doc.page.margins.left
-  const width = doc.page.width - doc.page.margins.left - doc.page.margins.right
+  const page = newPdf(fonts, { title: `Quote ${view.reference} from ${garage.name}`, author: garage.name, subject: view.vehicle })
+  const { doc, left, width, ensure, heading, totalRow } = page
   const bottom = () => doc.page.height - doc.page.margins.bottom - 24
-  const ensure = (h: number) => { if (doc.y + h > bottom()) doc.addPage() }
-  const heading = (text: string) => {
-    ensure(40)
-    doc.moveDown(0.8).font('bold').fontSize(11).fillColor(INK).text(text, left, doc.y, { width })
-    doc.moveTo(left, doc.y + 2).lineTo(left + width, doc.y + 2).lineWidth(0.5).strokeColor(LINE).stroke()
-    doc.moveDown(0.5)
-  }
 
   // header: logo and garage on the left, the quote on the right
   const top = doc.y
@@ -139,14 +115,6 @@ export function renderQuotePdf(view: OwnerQuoteView, garage: PdfGarage, fonts: P
   }
 
   // totals
-  const totalRow = (label: string, value: string, strong = false) => {
-    ensure(16)
-    const y = doc.y
-    doc.font(strong ? 'bold' : 'body').fontSize(strong ? 10.5 : 9.5).fillColor(INK)
-    doc.text(label, left + width - 260, y, { width: 170, align: 'right' })
-    doc.text(value, left + width - 90, y, { width: 90, align: 'right' })
-    doc.moveDown(0.25)
-  }
   doc.moveDown(0.6)
   totalRow('Total before tax', money(view.totals.netMinor))
   totalRow(view.taxLabel, money(view.totals.taxMinor))
@@ -168,14 +136,5 @@ export function renderQuotePdf(view: OwnerQuoteView, garage: PdfGarage, fonts: P
   heading('Safety caution')
   doc.font('body').fontSize(8.5).fillColor(INK).text(QUOTE_SAFETY_CAUTION, left, doc.y, { width })
 
-  // page numbers
-  const range = doc.bufferedPageRange()
-  for (let i = range.start; i < range.start + range.count; i++) {
-    doc.switchToPage(i)
-    const y = doc.page.height - doc.page.margins.bottom - 10
-    doc.font('body').fontSize(7.5).fillColor(SOFT)
-      .text(`${garage.name} · ${view.reference} · page ${i + 1} of ${range.count}`, left, y, { width, align: 'center', lineBreak: false })
-  }
-  doc.end()
-  return done
+  return page.finish(`${garage.name} · ${view.reference}`)
 }

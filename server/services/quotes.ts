@@ -1,6 +1,6 @@
 /**
  * Quotes without HTTP: the garage's settings with their defaults, numbering, line pricing (net price captured
- * from the active price list when a part is added, markup from the garage's rules, core deposits for
+ * from the active price version when a part is added, markup from the garage's rules, core deposits for
  * remanufactured units), revisions, expiry, and the shapes the routes answer (shared/types/quotes.ts).
  * Plain Node, so the seed can use it. Totals follow the one rounding rule in shared/utils/quote-totals.ts.
  */
@@ -20,9 +20,10 @@ import { hoursToHundredths, labourAmountMinor, quoteTotals, sellingUnitMinor, ty
 import { divRoundHalfUp } from '../../shared/utils/money'
 import { plainFinding } from '../../shared/utils/quote-wording'
 import type {
-  OwnerQuoteView, QuoteDetail, QuoteFinding, QuoteLineView, QuoteSummary, Recommendation, StockNote,
+  OwnerQuoteView, QuoteDetail, InspectionFinding, QuoteLineView, QuoteSummary, Recommendation, StockNote,
 } from '../../shared/types/quotes'
 import type { Role } from '../../shared/types/accounts'
+import { DomainError, invalidInput, conflict, isDomainError } from './errors'
 
 // ---------------------------------------------------------------------------------------------------------
 // settings
@@ -315,13 +316,10 @@ export async function ownerView(q: Quote, currency: string, t?: Transaction): Pr
 // ---------------------------------------------------------------------------------------------------------
 // writing (all inside the caller's withWrite transaction)
 
-export class QuoteInputError extends Error {
-  constructor(public fields: Record<string, string>, message?: string) {
-    super(message ?? Object.values(fields)[0] ?? 'Some fields need attention.')
-  }
+/** 422 whose summary is the first field's message (the quote page shows it above the lines). */
+function refusedInput(fields: Record<string, string>): DomainError {
+  return invalidInput(fields, Object.values(fields)[0])
 }
-
-export class QuoteStateError extends Error {}
 
 export async function nextQuoteNumber(t: Transaction, organisationId: number): Promise<number> {
   const max = await Quote.max<number, Quote>('number', { where: { organisationId }, transaction: t })
@@ -334,7 +332,7 @@ export async function vehicleSnapshot(vehicleId: number, t?: Transaction): Promi
 }
 
 /** The inspection's findings in plain words: every check that is not ok, worst first. */
-export function findingsOf(inspection: Pick<Inspection, 'result'>): QuoteFinding[] {
+export function findingsOf(inspection: Pick<Inspection, 'result'>): InspectionFinding[] {
   const items = inspection.result?.items ?? []
   return items.filter((i) => i.verdict !== 'ok')
     .map((i) => ({ verdict: i.verdict as 'advise' | 'fail', text: plainFinding(i) }))
@@ -386,11 +384,11 @@ export async function resolvePart(t: Transaction, org: Organisation, sku: string
       replacedSku = sup.oldSku
     }
   }
-  if (!part) throw new QuoteInputError({ sku: `No part with SKU "${wanted}" in the catalogue.` })
-  if (part.status === 'discontinued') throw new QuoteInputError({ sku: `${part.sku} is discontinued.` })
+  if (!part) throw refusedInput({ sku: `No part with SKU "${wanted}" in the catalogue.` })
+  if (part.status === 'discontinued') throw refusedInput({ sku: `${part.sku} is discontinued.` })
   const prices = await garagePrices(org, [part.sku], t)
   const price = prices.get(part.sku)
-  if (!price) throw new QuoteInputError({ sku: `${part.sku} has no price on the current price list.` })
+  if (!price) throw refusedInput({ sku: `${part.sku} has no price on the prices in use.` })
   return { part, unitNetMinor: price.unitNetMinor, coreDepositMinor: price.coreDepositMinor, replacedSku }
 }
 
@@ -468,7 +466,7 @@ export async function addLine(t: Transaction, q: Quote, org: Organisation, input
 export async function assertDiscountsFit(t: Transaction, quoteId: number): Promise<void> {
   const lines = await linesOf(quoteId, t)
   if (quoteTotals(totalsInput(lines, 'quoted')).discountCapped) {
-    throw new QuoteInputError({ amountMinor: 'The discounts would be larger than the rest of the quote.' })
+    throw refusedInput({ amountMinor: 'The discounts would be larger than the rest of the quote.' })
   }
 }
 
@@ -500,7 +498,7 @@ export async function changeLine(t: Transaction, line: QuoteLine, change: LineCh
   const allowed = FIELDS_BY_KIND[line.kind]
   const refused = Object.keys(change).filter((k) => change[k as keyof LineChange] !== undefined && !allowed.includes(k as keyof LineChange))
   if (refused.length) {
-    throw new QuoteInputError(Object.fromEntries(refused.map((k) => [k, `A ${line.kind.replace('_', ' ')} line has no ${k}.`])))
+    throw refusedInput(Object.fromEntries(refused.map((k) => [k, `A ${line.kind.replace('_', ' ')} line has no ${k}.`])))
   }
   if (change.quantity !== undefined) line.quantity = change.quantity
   if (change.description !== undefined) line.description = change.description
@@ -511,7 +509,7 @@ export async function changeLine(t: Transaction, line: QuoteLine, change: LineCh
   if (change.rateMinor !== undefined) line.rateMinor = change.rateMinor
   if (change.coreCharge !== undefined) line.coreCharge = change.coreCharge
   if (change.amountMinor !== undefined) line.unitPriceMinor = line.kind === 'discount' ? -change.amountMinor : change.amountMinor
-  if (line.kind === 'discount' && change.amountMinor === 0) throw new QuoteInputError({ amountMinor: 'A discount is more than 0.' })
+  if (line.kind === 'discount' && change.amountMinor === 0) throw refusedInput({ amountMinor: 'A discount is more than 0.' })
   if (change.markupBp !== undefined) {
     line.markupBp = change.markupBp
     line.unitPriceMinor = sellingUnitMinor(line.unitNetMinor ?? 0, change.markupBp)
@@ -546,12 +544,12 @@ export async function changeLine(t: Transaction, line: QuoteLine, change: LineCh
 export async function reviseQuote(t: Transaction, old: Quote, actorUserId: number): Promise<{ quote: Quote; lineIds: Map<number, number> }> {
   const status = effectiveQuoteStatus(old.status, old.expiresAt ?? null)
   if (nextQuoteStatus(status, 'supersede') !== 'superseded') {
-    throw new QuoteStateError(status === 'superseded'
+    throw conflict(status === 'superseded'
       ? 'This revision has been replaced: change the latest one.'
       : 'A draft is changed as it is; it needs no new revision.')
   }
   const [changed] = await Quote.update({ status: 'superseded' }, { where: { id: old.id, status: old.status }, transaction: t })
-  if (changed !== 1) throw new QuoteStateError('The quote changed meanwhile. Reload it and try again.')
+  if (changed !== 1) throw conflict('The quote changed meanwhile. Reload it and try again.')
   const quote = await Quote.create({
     organisationId: old.organisationId, number: old.number, revision: old.revision + 1, supersedesQuoteId: old.id,
     status: 'draft', vehicleId: old.vehicleId, vehicleLabel: old.vehicleLabel, registration: old.registration, odometer: old.odometer,
@@ -588,7 +586,7 @@ export async function editableQuote(t: Transaction, q: Quote, actorUserId: numbe
   }
   const mode = quoteEditMode(status)
   if (mode === 'in_place') return { quote: q, lineIds: null }
-  if (mode === 'locked') throw new QuoteStateError('This revision has been replaced by a newer one: change the latest revision.')
+  if (mode === 'locked') throw conflict('This revision has been replaced by a newer one: change the latest revision.')
   return reviseQuote(t, q, actorUserId)
 }
 
@@ -622,7 +620,7 @@ export async function addInspectionLines(
       })
       added.push(...lines)
     } catch (err) {
-      if (err instanceof QuoteInputError) { skipped.push({ index, what, why: Object.values(err.fields)[0] ?? err.message }); continue }
+      if (isDomainError(err) && err.kind === 'invalid') { skipped.push({ index, what, why: Object.values(err.fields)[0] ?? err.message }); continue }
       throw err
     }
   }

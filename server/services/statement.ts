@@ -7,7 +7,7 @@
 import { stringify } from 'csv-stringify/sync'
 import { Organisation } from '../models/accounts'
 import { LedgerEntry, Order } from '../models/orders'
-import { notFound } from '../utils/validate'
+import { notFound } from './errors'
 import { LEDGER_KIND_LABELS, type Statement } from '../../shared/types/orders'
 import { ORDER_CURRENCY } from './orders'
 

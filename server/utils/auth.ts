@@ -4,9 +4,10 @@
  * `event.context.auth`. Routes then call `requireAuth` / `requireAbility` first.
  */
 import type { H3Event } from 'h3'
-import { createError } from 'h3'
+import { forbidden, unauthenticated } from '../services/errors'
 import type { Organisation, User } from '../models/accounts'
 import { can, type Ability } from '../../shared/utils/abilities'
+import { staffAbility } from '../services/staff'
 
 export interface AuthContext {
   user: User
@@ -28,12 +29,12 @@ interface RequireOptions {
 /** 401 without a live session; 403 when the organisation is not approved (suspended, pending, rejected). */
 export function requireAuth(event: H3Event, options: RequireOptions = {}): AuthContext {
   const auth = event.context.auth
-  if (!auth) throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message: 'Please sign in.' })
+  if (!auth) throw unauthenticated()
   if (!options.allowUnapproved && auth.org.status !== 'approved') {
     const why = auth.org.status === 'suspended'
       ? 'This trade account is suspended. Please contact the distributor.'
       : 'This trade account has not been approved yet.'
-    throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: why })
+    throw forbidden(why)
   }
   return auth
 }
@@ -42,11 +43,17 @@ export function requireAuth(event: H3Event, options: RequireOptions = {}): AuthC
 export function requireAbility(event: H3Event, ability: Ability, options: RequireOptions = {}): AuthContext {
   const auth = requireAuth(event, options)
   if (!can(auth.user.role, ability)) {
-    throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: 'Your role does not allow this.' })
+    throw forbidden()
   }
   return auth
 }
 
 export function isDistributor(auth: AuthContext): boolean {
   return auth.org.kind === 'distributor'
+}
+
+/** 401 / 403 (pending garage, wrong role) for the staff routes: managers for a garage, the admin for the distributor. */
+export function requireStaffManager(event: H3Event): AuthContext {
+  const auth = event.context.auth
+  return requireAbility(event, auth ? staffAbility(auth) : 'garage.staff')
 }

@@ -30,7 +30,7 @@ class ConfiguredDatabase extends sqlite3.Database {
 // ------------------------------------------------------------------------------------------------ checkpoints
 //
 // By default the connection that commits past 1,000 WAL pages copies the WAL back into the database file (a
-// checkpoint, with its fsyncs) before its COMMIT returns: a large write (a price list applied) then pays for it
+// checkpoint, with its fsyncs) before its COMMIT returns: a large write (a price file applied) then pays for it
 // while the person waits. The server instead turns that off and checkpoints on its own connection shortly after
 // writes (PASSIVE: never blocks readers or the next writer). Scripts keep SQLite's default.
 let checkpointsInBackground = false

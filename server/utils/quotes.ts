@@ -3,18 +3,20 @@
  * server assets, the e-mails, and mapping the quote service's errors onto HTTP answers.
  */
 import type { H3Event } from 'h3'
-import { createError, getRequestIP, getRouterParams, setResponseHeader, setResponseHeaders } from 'h3'
+import { getRequestIP, getRouterParams, setResponseHeader, setResponseHeaders } from 'h3'
 import { Organisation, User } from '../models/accounts'
 import { Quote } from '../models/quotes'
-import { expireDueQuotes, findQuoteOf, hashQuoteToken, ownerView, quoteDetail, QuoteInputError, QuoteStateError, quoteReference, settingsOf } from '../services/quotes'
+import { expireDueQuotes, findQuoteOf, hashQuoteToken, ownerView, quoteDetail, quoteReference, settingsOf } from '../services/quotes'
 import { QuoteParamsSchema, QuoteTokenParamsSchema } from '../../shared/schemas/quotes'
-import { renderQuotePdf, type PdfFonts } from '../services/quote-pdf'
+import { renderQuotePdf } from '../services/quote-pdf'
+import { pdfFonts } from './pdf-fonts'
 import { readLogo } from '../services/garage-logo'
 import { admitLinkRequest, countLinkMiss } from '../services/quote-link-throttle'
 import { formatMinor } from '../../shared/utils/money'
 import { QUOTE_SAFETY_CAUTION } from '../../shared/utils/quote-wording'
 import { can, type Ability } from '../../shared/utils/abilities'
-import { invalidInput, notFound, paramsWith } from './validate'
+import { paramsWith } from './validate'
+import { DomainError, forbidden, notFound } from '../services/errors'
 import { requireAuth, type AuthContext } from './auth'
 import { appLink, sendMail } from './mail'
 
@@ -26,29 +28,13 @@ export function quoteLocale(): string {
   return String(useRuntimeConfig().public.locale || 'en-GB')
 }
 
-let fonts: Promise<PdfFonts> | undefined
-
-/** Inter (from @fontsource, copied into server/assets/fonts) read from Nitro's server assets. */
-export function quotePdfFonts(): Promise<PdfFonts> {
-  fonts ??= (async () => {
-    const storage = useStorage('assets:server')
-    const read = async (name: string) => {
-      const raw = await storage.getItemRaw(`fonts/${name}`)
-      if (!raw) throw new Error(`font ${name} is missing from the server assets`)
-      return Buffer.from(raw as Uint8Array)
-    }
-    return { regular: await read('inter-latin-400-normal.woff'), bold: await read('inter-latin-700-normal.woff') }
-  })().catch((err) => { fonts = undefined; throw err })
-  return fonts
-}
-
 /** The quote as the owner sees it, rendered to PDF. */
 export async function quotePdf(q: Quote): Promise<Buffer> {
   const [view, org, settings, f] = await Promise.all([
     ownerView(q, quoteCurrency()),
     Organisation.findByPk(q.organisationId),
     settingsOf(q.organisationId),
-    quotePdfFonts(),
+    pdfFonts(),
   ])
   const uploads = String(useRuntimeConfig().uploadsDir)
   const logoData = settings.logoFile ? await readLogo(uploads, settings.logoFile) : null
@@ -118,33 +104,17 @@ export async function mailDecisionToGarage(q: Quote): Promise<boolean> {
   })
 }
 
-/** Maps the quote service's errors to 422 / 409; anything else is rethrown. */
-export function quoteHttpError(err: unknown): never {
-  if (err instanceof QuoteInputError) throw invalidInput(err.fields, err.message)
-  if (err instanceof QuoteStateError) throw createError({ statusCode: 409, statusMessage: 'Conflict', message: err.message })
-  throw err
-}
-
-/** Runs a quote write, mapping its errors. */
-export async function quoteWrite<T>(fn: () => Promise<T>): Promise<T> {
-  try {
-    return await fn()
-  } catch (err) {
-    return quoteHttpError(err)
-  }
-}
-
 /** 403 unless the role may price (managers). */
 export function requirePricing(event: H3Event, what = 'change prices'): void {
   const auth = requireAuth(event)
   if (!can(auth.user.role, 'quotes.price')) {
-    throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: `Only a garage manager can ${what}.` })
+    throw forbidden(`Only a garage manager can ${what}.`)
   }
 }
 
 /** The plain answer for a wrong, expired or unknown owner's link. */
 export function quoteLinkNotValid(): Error {
-  return createError({ statusCode: 404, statusMessage: 'Not Found', message: 'This link is not valid.' })
+  return new DomainError('not_found', 'This link is not valid.')
 }
 
 /**
@@ -155,9 +125,8 @@ export async function admitQuoteLink(event: H3Event): Promise<string> {
   const address = getRequestIP(event) ?? ''
   const wait = await admitLinkRequest(address)
   if (wait !== null) {
-    setResponseHeader(event, 'retry-after', wait)
     const minutes = Math.ceil(wait / 60)
-    throw createError({ statusCode: 429, statusMessage: 'Too Many Requests', message: `Too many tries from this connection. Please wait ${minutes} minute${minutes === 1 ? '' : 's'} and open the link from the e-mail again.` })
+    throw new DomainError('too_many', `Too many tries from this connection. Please wait ${minutes} minute${minutes === 1 ? '' : 's'} and open the link from the e-mail again.`, { retryAfterSeconds: wait })
   }
   return address
 }
@@ -177,10 +146,7 @@ export async function loadOwnQuote(event: H3Event, ability: Ability = 'quotes.dr
   const quote = await findQuoteOf(auth.org.id, id)
   if (!quote) throw notFound('Quote')
   if (!can(auth.user.role, ability)) {
-    throw createError({
-      statusCode: 403, statusMessage: 'Forbidden',
-      message: ability === 'quotes.send' ? 'Only a garage manager can send a quote.' : 'Your role does not allow this.',
-    })
+    throw forbidden(ability === 'quotes.send' ? 'Only a garage manager can send a quote.' : 'Your role does not allow this.')
   }
   return { auth, quote }
 }

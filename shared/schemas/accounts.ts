@@ -52,14 +52,14 @@ export const GARAGE_STATUSES = ['pending', 'approved', 'rejected', 'suspended'] 
 export const GARAGE_SORTS = ['submitted', '-submitted', 'name', '-name', 'decided', '-decided'] as const
 
 /** Query of the garage lists (applications queue, accounts): filter, search, sort and page on the server. */
-export const GarageListQuerySchema = z.object({
+export const TradeAccountListQuerySchema = z.object({
   status: z.enum([...GARAGE_STATUSES, 'all'], { message: 'Choose a status from the list.' }).optional(),
   q: z.string().trim().max(100, 'Keep the search under 100 characters.').optional(),
   sort: z.enum(GARAGE_SORTS, { message: 'Choose a sort order from the list.' }).optional(),
   page: z.coerce.number({ message: 'Page must be a number.' }).int().min(1, 'Page starts at 1.').max(10_000).default(1),
   pageSize: z.coerce.number({ message: 'Page size must be a number.' }).int().min(1).max(100, 'At most 100 per page.').default(20),
 })
-export type GarageListQuery = z.infer<typeof GarageListQuerySchema>
+export type TradeAccountListQuery = z.infer<typeof TradeAccountListQuerySchema>
 
 export const IdParamSchema = z.object({ id: z.coerce.number({ message: 'Not a valid id.' }).int().positive('Not a valid id.') })
 
@@ -98,14 +98,14 @@ export const DecisionSchema = z.discriminatedUnion('decision', [
 ], { message: 'Choose approve or reject.' })
 export type DecisionInput = z.infer<typeof DecisionSchema>
 
-/** `PATCH /api/admin/accounts/:id`: change tier and/or terms of an approved or suspended account. */
-export const AccountTermsSchema = z.strictObject({
+/** `PATCH /api/admin/trade-accounts/:id`: change tier and/or terms of an approved or suspended account. */
+export const TradeTermsSchema = z.strictObject({
   tierId: z.number({ message: 'Choose a discount tier.' }).int().positive('Choose a discount tier.').optional(),
   terms: z.enum(PAYMENT_TERMS, { message: 'Choose card or trade account.' }).optional(),
   creditLimitMinor: money.optional(),
   paymentDays: days.optional(),
 }).refine((v) => Object.keys(v).length > 0, { message: 'Change at least one of tier or terms.' })
-export type AccountTermsInput = z.infer<typeof AccountTermsSchema>
+export type TradeTermsInput = z.infer<typeof TradeTermsSchema>
 
 export const SuspendSchema = z.strictObject({
   reason: z.string({ message: 'Say why the account is suspended.' }).trim()

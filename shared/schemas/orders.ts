@@ -99,7 +99,7 @@ export const CoreReturnDecisionSchema = z.object({
 export const MAX_ACCOUNT_PAYMENT_MINOR = 100_000_000
 
 /**
- * POST /api/admin/accounts/:id/payments: money a garage on account terms paid outside the card flow.
+ * POST /api/admin/trade-accounts/:id/payments: money a garage on account terms paid outside the card flow.
  * `reference` is the bank or cheque reference as printed; the same reference is never booked twice for a garage.
  */
 export const AccountPaymentSchema = z.object({

@@ -10,6 +10,7 @@
  * every vehicle ever built (common practice).
  */
 import { z } from 'zod'
+import { AXLES, FITMENT_AXLES, type AxleName } from '../types/axles'
 
 export const PART_TYPES = [
   'disc', 'pad_set', 'caliper', 'drum', 'shoe_set', 'wheel_cylinder', 'hose', 'fitting_kit', 'wear_sensor',
@@ -32,10 +33,7 @@ export const PART_TYPE_LABELS: Record<PartType, { one: string; many: string }> =
   fluid: { one: 'Brake fluid', many: 'Brake fluid' },
 }
 
-export const AXLES = ['front', 'rear'] as const
 export const AxleSchema = z.enum(AXLES, { error: 'axle must be front or rear' })
-/** Fitment axle: master cylinders and fluid serve the whole vehicle. */
-export const FITMENT_AXLES = ['front', 'rear', 'all'] as const
 export const FitmentAxleSchema = z.enum(FITMENT_AXLES, { error: 'axle must be front, rear or all' })
 export const SIDES = ['left', 'right', 'pair'] as const
 export const POSITIONS = ['front-left', 'front-right', 'rear-left', 'rear-right'] as const
@@ -109,7 +107,7 @@ export const CaliperSpecsSchema = z.object({
   padShape,
   parkingBrake: oneOf('parking brake', ['none', 'cable', 'electric'] as const),
   condition,
-  /** whether a core deposit is charged; the amount comes from the active price list */
+  /** whether a core deposit is charged; the amount comes from the active price version */
   coreDepositApplies: bool('core deposit'),
 }).strict()
   .refine((s) => s.pistonDiametersMm.length === (s.caliperType === 'fixed' ? s.pistonCount / 2 : s.pistonCount), {
@@ -212,8 +210,8 @@ export function parseSpecs<T extends PartType>(type: T, specs: unknown): SpecsBy
 }
 
 /** The axle a part is made for (from its specs), or null for parts that serve the whole vehicle. */
-export function axleOfSpecs(type: PartType, specs: Record<string, unknown>): 'front' | 'rear' | null {
-  if (typeof specs.axle === 'string') return specs.axle as 'front' | 'rear'
+export function axleOfSpecs(type: PartType, specs: Record<string, unknown>): AxleName | null {
+  if (typeof specs.axle === 'string') return specs.axle as AxleName
   if (typeof specs.position === 'string') return (specs.position as string).startsWith('front') ? 'front' : 'rear'
   return null
 }
@@ -374,7 +372,7 @@ export type DimensionRange = { min?: number; max?: number }
 export interface PartListQuery {
   q?: string
   type?: PartType
-  axle?: 'front' | 'rear'
+  axle?: AxleName
   page: number
   pageSize: number
   ranges: Partial<Record<Dimension, DimensionRange>>
@@ -395,7 +393,7 @@ export function parsePartListQuery(raw: Record<string, unknown>): PartListQuery 
     else if (lo !== undefined || hi !== undefined) ranges[d] = { min: lo, max: hi }
   }
   return {
-    q: q.q as string | undefined, type: q.type as PartType | undefined, axle: q.axle as 'front' | 'rear' | undefined,
+    q: q.q as string | undefined, type: q.type as PartType | undefined, axle: q.axle as AxleName | undefined,
     page: q.page, pageSize: q.pageSize, ranges,
   }
 }

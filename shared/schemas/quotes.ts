@@ -90,7 +90,7 @@ export const QuoteLineCreateSchema = z.strictObject({
   }
   if (v.kind !== 'part' && v.sku) need('sku', 'Only part lines have a SKU.')
   if (v.kind !== 'labour' && v.hours !== undefined) need('hours', 'Only labour lines have hours.')
-  if (v.kind === 'part' && v.amountMinor !== undefined) need('amountMinor', 'A part\'s price comes from the price list and markup.')
+  if (v.kind === 'part' && v.amountMinor !== undefined) need('amountMinor', 'A part\'s price comes from the prices in use and the markup.')
 })
 export type QuoteLineCreateInput = z.input<typeof QuoteLineCreateSchema>
 

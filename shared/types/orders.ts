@@ -4,13 +4,13 @@
  *
  * An order's life (the server refuses every other move with 409):
  *
- *   card:    awaiting_payment ──paid──> queued ──> picking ──> dispatched ──> delivered
+ *   card:    awaiting_payment ──paid──> confirmed ──> picking ──> dispatched ──> delivered
  *                 │  └─checkout expired─> lapsed ──pay again (stock re-reserved)──> awaiting_payment
- *                 └──cancel──> cancelled <──cancel── queued, picking, lapsed
- *   account: queued ──> picking ──> dispatched ──> delivered   (cancel from queued or picking)
+ *                 └──cancel──> cancelled <──cancel── confirmed, picking, lapsed
+ *   account: confirmed ──> picking ──> dispatched ──> delivered   (cancel from confirmed or picking)
  */
 
-export const ORDER_STATUSES = ['awaiting_payment', 'queued', 'picking', 'dispatched', 'delivered', 'cancelled', 'lapsed'] as const
+export const ORDER_STATUSES = ['awaiting_payment', 'confirmed', 'picking', 'dispatched', 'delivered', 'cancelled', 'lapsed'] as const
 export type OrderStatus = (typeof ORDER_STATUSES)[number]
 
 export const PAYMENT_METHODS = ['card', 'account'] as const
@@ -27,14 +27,14 @@ export type LedgerKind = (typeof LEDGER_KINDS)[number]
 
 /** The moves counter staff make on the queue (PATCH /api/counter/orders/:id). */
 export const COUNTER_MOVES: Partial<Record<OrderStatus, OrderStatus[]>> = {
-  queued: ['picking', 'cancelled'],
+  confirmed: ['picking', 'cancelled'],
   picking: ['dispatched', 'cancelled'],
   dispatched: ['delivered'],
 }
 
 export const ORDER_STATUS_LABELS: Record<OrderStatus, string> = {
   awaiting_payment: 'Waiting for card payment',
-  queued: 'Confirmed, waiting to be picked',
+  confirmed: 'Confirmed, waiting to be picked',
   picking: 'Being picked',
   dispatched: 'On its way',
   delivered: 'Delivered',

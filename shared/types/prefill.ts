@@ -3,9 +3,9 @@
  * inspection pages.
  */
 import type { FieldIssue, HydraulicsInputRaw } from '../utils/brake'
+import type { AxleName } from './axles'
 
 export type PartRole = 'master-cylinder' | 'caliper' | 'wheel-cylinder'
-type AxleName = 'front' | 'rear'
 type Answers = Record<string, string>
 
 export interface OeWearLimits {

@@ -44,7 +44,7 @@ export interface QuoteLineView {
   stock: StockNote | null
 }
 
-export interface QuoteFinding {
+export interface InspectionFinding {
   verdict: 'advise' | 'fail'
   text: string
 }
@@ -79,7 +79,7 @@ export interface QuoteDetail extends QuoteSummary {
   ownerEmail: string
   ownerPhone: string
   inspectionId: number | null
-  findings: QuoteFinding[]
+  findings: InspectionFinding[]
   messageToOwner: string
   supersedesQuoteId: number | null
   supersededByQuoteId: number | null
@@ -112,7 +112,7 @@ export interface OwnerQuoteView {
   expiresAt: string | null
   decidedAt: string | null
   signedName: string | null
-  findings: QuoteFinding[]
+  findings: InspectionFinding[]
   messageToOwner: string
   terms: string
   lines: {

@@ -23,7 +23,7 @@ export interface ProofDocumentView {
   uploadedAt: string
 }
 
-export interface GarageSummary {
+export interface TradeAccountSummary {
   id: number
   name: string
   status: OrgStatus
@@ -55,7 +55,7 @@ export interface PersonView {
   lastSignInAt: string | null
 }
 
-export interface GarageDetail extends GarageSummary {
+export interface TradeAccountDetail extends TradeAccountSummary {
   tradingAddress: string
   taxNumber: string
   phone: string
@@ -84,7 +84,7 @@ export interface AccountOverview {
   }
 }
 
-/** `GET /api/account/application`: what a pending or rejected garage may see. */
+/** `GET /api/trade-applications/mine`: what a pending or rejected garage may see. */
 export interface ApplicationStatusView {
   businessName: string
   status: OrgStatus

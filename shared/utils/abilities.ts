@@ -25,10 +25,10 @@ export const ABILITIES = {
   // the distributor's work
   'orders.work': ['distributor_admin', 'counter_staff'],
   'coreReturns.decide': ['distributor_admin', 'counter_staff'],
-  'priceLists.manage': ['distributor_admin', 'counter_staff'],
+  'priceFiles.manage': ['distributor_admin', 'counter_staff'],
   /** read the garages' trade accounts and their proof documents (counter staff check terms when working orders) */
-  'accounts.view': ['distributor_admin', 'counter_staff'],
-  'accounts.decide': ['distributor_admin'],
+  'tradeAccounts.view': ['distributor_admin', 'counter_staff'],
+  'tradeAccounts.decide': ['distributor_admin'],
   /** book money a garage on account terms paid (bank transfer, cheque) against its balance */
   'payments.record': ['distributor_admin'],
   'tiers.manage': ['distributor_admin'],

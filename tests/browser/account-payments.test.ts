@@ -27,7 +27,7 @@ describe('booking a payment received, in the browser', () => {
     const { context, requests } = await newContext(browser)
     const page = await context.newPage()
     await signInThroughForm(page, people.admin)
-    await open(page, `/admin/accounts/${garage.id}`)
+    await open(page, `/admin/trade-accounts/${garage.id}`)
     const form = page.getByTestId('account-payment')
     await expect.poll(() => form.getByTestId('account-balance').textContent()).toBe('£120.00')
 

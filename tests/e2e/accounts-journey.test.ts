@@ -51,7 +51,7 @@ describe('apply -> approve -> sign in', () => {
   it('lets the pending applicant sign in to its status page only', async () => {
     const r = await applicant.signIn(fields.email, fields.password)
     expect(r.body.organisationStatus).toBe('pending')
-    expect((await applicant.get('/api/account/application')).body).toMatchObject({ status: 'pending', businessName: fields.businessName, document: { originalName: 'Trade Registration.PDF' } })
+    expect((await applicant.get('/api/trade-applications/mine')).body).toMatchObject({ status: 'pending', businessName: fields.businessName, document: { originalName: 'Trade Registration.PDF' } })
     expect((await applicant.get('/api/account')).status).toBe(403)
     expect((await applicant.get('/api/staff')).status).toBe(403)
   })
@@ -156,7 +156,7 @@ describe('rejection', () => {
     expect(mail.text).toContain(reason)
     const garage = new Client()
     expect((await garage.signIn(fields.email, fields.password)).body.organisationStatus).toBe('rejected')
-    expect((await garage.get('/api/account/application')).body).toMatchObject({ status: 'rejected', decisionReason: reason })
+    expect((await garage.get('/api/trade-applications/mine')).body).toMatchObject({ status: 'rejected', decisionReason: reason })
     expect((await garage.get('/api/account')).status).toBe(403)
     expect((await admin.post(`/api/admin/trade-applications/${id}/decision`, { decision: 'approve', tierId: tier('Bronze').id, terms: 'card' })).status).toBe(409)
     const last = dbRows<{ action: string; changes: string }>(`SELECT action, changes FROM audit_log WHERE entity_id = '${id}' AND entity = 'organisation' ORDER BY id DESC LIMIT 1`)[0]!
@@ -176,27 +176,27 @@ describe('suspension, reactivation and terms', () => {
   it('suspends a garage: its manager\'s next request is refused (403) without a new sign-in; reactivation lets it back', async () => {
     const { id, fields, manager } = await newApprovedGarage(admin)
     expect((await manager.get('/api/account')).status).toBe(200)
-    expect((await admin.post(`/api/admin/accounts/${id}/suspend`, { reason: 'Statement overdue by 60 days.' })).status).toBe(200)
+    expect((await admin.post(`/api/admin/trade-accounts/${id}/suspend`, { reason: 'Statement overdue by 60 days.' })).status).toBe(200)
     const refused = await manager.get('/api/account')
     expect(refused.status).toBe(403)
     expect(refused.body.message).toMatch(/suspended/)
     expect((await manager.get('/api/staff')).status).toBe(403)
     // they still see why
-    expect((await manager.get('/api/account/application')).body).toMatchObject({ status: 'suspended', decisionReason: 'Statement overdue by 60 days.' })
+    expect((await manager.get('/api/trade-applications/mine')).body).toMatchObject({ status: 'suspended', decisionReason: 'Statement overdue by 60 days.' })
     expect((await waitForMail(fields.email, /suspended/)).text).toContain('Statement overdue by 60 days.')
-    expect((await admin.post(`/api/admin/accounts/${id}/suspend`, { reason: 'Twice is once too many.' })).status).toBe(409)
+    expect((await admin.post(`/api/admin/trade-accounts/${id}/suspend`, { reason: 'Twice is once too many.' })).status).toBe(409)
 
-    expect((await admin.post(`/api/admin/accounts/${id}/reactivate`, {})).status).toBe(200)
+    expect((await admin.post(`/api/admin/trade-accounts/${id}/reactivate`, {})).status).toBe(200)
     expect((await manager.get('/api/account')).status).toBe(200)
     await waitForMail(fields.email, /active again/)
-    expect((await admin.post(`/api/admin/accounts/${id}/reactivate`, {})).status).toBe(409)
+    expect((await admin.post(`/api/admin/trade-accounts/${id}/reactivate`, {})).status).toBe(409)
     const actions = dbRows<{ action: string }>(`SELECT action FROM audit_log WHERE entity = 'organisation' AND entity_id = '${id}' ORDER BY id`).map((r) => r.action)
     expect(actions).toEqual(['application.submitted', 'application.approved', 'account.suspended', 'account.reactivated'])
   })
 
   it('changes tier and terms, audits only what changed and tells the garage', async () => {
     const { id, fields } = await newApprovedGarage(admin, { tierId: tier('Bronze').id })
-    const r = await admin.patch(`/api/admin/accounts/${id}`, { tierId: tier('Gold').id, terms: 'account', creditLimitMinor: 120_000, paymentDays: 45 })
+    const r = await admin.patch(`/api/admin/trade-accounts/${id}`, { tierId: tier('Gold').id, terms: 'account', creditLimitMinor: 120_000, paymentDays: 45 })
     expect(r.status).toBe(200)
     expect(r.body).toMatchObject({ tier: { name: 'Gold' }, terms: 'account', creditLimitMinor: 120_000, paymentDays: 45 })
     const mail = await waitForMail(fields.email, /trade terms have changed/)
@@ -210,30 +210,30 @@ describe('suspension, reactivation and terms', () => {
       paymentDays: { from: 0, to: 45 },
     })
     // back to card: the limit and the days go with it
-    const card = await admin.patch(`/api/admin/accounts/${id}`, { terms: 'card' })
+    const card = await admin.patch(`/api/admin/trade-accounts/${id}`, { terms: 'card' })
     expect(card.body).toMatchObject({ terms: 'card', creditLimitMinor: 0, paymentDays: 0, tier: { name: 'Gold' } })
     // inconsistent terms are refused and change nothing
-    const bad = await admin.patch(`/api/admin/accounts/${id}`, { terms: 'account' })
+    const bad = await admin.patch(`/api/admin/trade-accounts/${id}`, { terms: 'account' })
     expect(bad.status).toBe(422)
     expect(bad.body.data.fields).toHaveProperty('creditLimitMinor')
     expect(dbValue(`SELECT payment_terms FROM organisations WHERE id = ${id}`)).toBe('card')
     // pending applications are decided, not edited
     const { id: pendingId } = await applyAsNewGarage()
-    expect((await admin.patch(`/api/admin/accounts/${pendingId}`, { tierId: tier('Gold').id })).status).toBe(409)
+    expect((await admin.patch(`/api/admin/trade-accounts/${pendingId}`, { tierId: tier('Gold').id })).status).toBe(409)
   })
 
   it('lists the accounts for distributor staff with filters; counter staff read but cannot change', async () => {
     const counter = await as(people.counter)
-    const list = await counter.get('/api/admin/accounts?status=approved&sort=name&pageSize=100')
+    const list = await counter.get('/api/admin/trade-accounts?status=approved&sort=name&pageSize=100')
     expect(list.status).toBe(200)
     expect(list.body.data.every((g: { status: string }) => g.status === 'approved')).toBe(true)
     expect(list.body.data.map((g: { name: string }) => g.name)).toContain('Millbrook Motor Works')
     const millbrook = list.body.data.find((g: { name: string }) => g.name === 'Millbrook Motor Works')
-    const detail = await counter.get(`/api/admin/accounts/${millbrook.id}`)
+    const detail = await counter.get(`/api/admin/trade-accounts/${millbrook.id}`)
     expect(detail.body).toMatchObject({ terms: 'account', tier: { name: 'Silver' } })
     expect(detail.body.history).toEqual([]) // the audit log is the admin's
-    expect((await counter.patch(`/api/admin/accounts/${millbrook.id}`, { terms: 'card' })).status).toBe(403)
-    expect((await counter.post(`/api/admin/accounts/${millbrook.id}/suspend`, { reason: 'I am not allowed to' })).status).toBe(403)
+    expect((await counter.patch(`/api/admin/trade-accounts/${millbrook.id}`, { terms: 'card' })).status).toBe(403)
+    expect((await counter.post(`/api/admin/trade-accounts/${millbrook.id}/suspend`, { reason: 'I am not allowed to' })).status).toBe(403)
   })
 })
 
@@ -253,7 +253,7 @@ describe('discount tiers', () => {
     const { id: garageId } = await newApprovedGarage(admin, { tierId: id })
     expect((await admin.del(`/api/admin/tiers/${id}`)).status).toBe(409)
     expect((await admin.get('/api/admin/tiers')).body.data.find((t: { id: number }) => t.id === id).garages).toBe(1)
-    await admin.patch(`/api/admin/accounts/${garageId}`, { tierId: tier('Standard').id })
+    await admin.patch(`/api/admin/trade-accounts/${garageId}`, { tierId: tier('Standard').id })
     expect((await admin.del(`/api/admin/tiers/${id}`)).status).toBe(200)
     expect((await admin.del(`/api/admin/tiers/${id}`)).status).toBe(404)
     const actions = dbRows<{ action: string }>(`SELECT action FROM audit_log WHERE entity = 'discount_tier' AND entity_id = '${id}' ORDER BY id`).map((r) => r.action)

@@ -67,7 +67,7 @@ describe('sessions', () => {
     // twice: the second answer comes from the session check's memory, which the suspension must drop
     expect((await manager.get('/api/staff')).status).toBe(200)
     expect((await manager.get('/api/staff')).status).toBe(200)
-    expect((await admin.post(`/api/admin/accounts/${id}/suspend`, { reason: 'Paused while we check the account.' })).status).toBe(200)
+    expect((await admin.post(`/api/admin/trade-accounts/${id}/suspend`, { reason: 'Paused while we check the account.' })).status).toBe(200)
     expect((await manager.get('/api/staff')).status).toBe(403)
     expect((await manager.post('/api/staff', { email: uniqueEmail('x'), name: 'Nobody New', role: 'garage_technician' })).status).toBe(403)
   })
@@ -105,7 +105,7 @@ describe('profile', () => {
     const after = dbRows(`SELECT u.name, u.role, u.status, u.organisation_id, o.status AS org_status, o.credit_limit_minor, o.payment_terms FROM users u JOIN organisations o ON o.id = u.organisation_id WHERE u.email = ${sqlText(fields.email)}`)
     expect(after).toEqual(before)
     expect((await manager.get('/api/me')).body.user.role).toBe('garage_manager')
-    expect((await manager.get('/api/admin/accounts')).status).toBe(403)
+    expect((await manager.get('/api/admin/trade-accounts')).status).toBe(403)
     expect(dbValue(`SELECT COUNT(*) FROM audit_log WHERE entity = 'user' AND action = 'user.profile_changed' AND organisation_id = ${id}`)).toBe(0)
   })
 })

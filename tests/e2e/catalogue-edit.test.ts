@@ -31,14 +31,14 @@ describe('catalogue upkeep', () => {
 
   it('only distributor staff may change the catalogue', async () => {
     const body = { sku: `TST-${run}-X`, type: 'disc', description: 'x', specs: disc() }
-    expect((await new Client().post('/api/catalogue/parts', body)).status).toBe(401)
-    expect((await mgr.post('/api/catalogue/parts', body)).status).toBe(403)
-    expect((await tech.patch('/api/catalogue/parts/KP-1001', { description: 'mine now' })).status).toBe(403)
+    expect((await new Client().post('/api/parts', body)).status).toBe(401)
+    expect((await mgr.post('/api/parts', body)).status).toBe(403)
+    expect((await tech.patch('/api/parts/KP-1001', { description: 'mine now' })).status).toBe(403)
     expect((await mgr.get('/api/parts/KP-1001')).body.description).not.toBe('mine now')
   })
 
   it('creates a part that search finds at once, by SKU, OE number and words', async () => {
-    const r = await counter.post('/api/catalogue/parts', {
+    const r = await counter.post('/api/parts', {
       sku, type: 'disc', productLine: 'Test Line', description: `Front brake disc 300 × 25 mm vented, ${word} trial`, specs: disc(),
       oeNumbers: [{ oeNumber: `ZQ ${run} 01`, maker: 'Veltra' }],
     })
@@ -46,23 +46,23 @@ describe('catalogue upkeep', () => {
     expect((await mgr.get(`/api/parts?q=${sku}`)).body.data[0]).toMatchObject({ sku, match: { by: 'sku' } })
     expect((await mgr.get(`/api/parts?q=${encodeURIComponent(`ZQ ${run} 01`)}`)).body.data[0]).toMatchObject({ sku, match: { by: 'oe' } })
     expect(skus((await mgr.get(`/api/parts?q=${word}`)).body)).toEqual([sku])
-    const dup = await counter.post('/api/catalogue/parts', { sku, type: 'disc', description: 'again', specs: disc() })
+    const dup = await counter.post('/api/parts', { sku, type: 'disc', description: 'again', specs: disc() })
     expect(dup.status).toBe(409)
   })
 
   it('refuses bad specifications with the field named and keeps the part as it was', async () => {
-    const bad = await counter.patch(`/api/catalogue/parts/${sku}`, { specs: disc({ minThicknessMm: 26, colour: 'red' }) })
+    const bad = await counter.patch(`/api/parts/${sku}`, { specs: disc({ minThicknessMm: 26, colour: 'red' }) })
     expect(bad.status).toBe(422)
     expect(bad.body.data.fields).toHaveProperty('specs.minThicknessMm')
     expect(bad.body.data.fields).toHaveProperty('specs.colour')
     expect((await mgr.get(`/api/parts/${sku}`)).body.specs.minThicknessMm).toBe(23)
-    const unknownField = await counter.patch(`/api/catalogue/parts/${sku}`, { type: 'pad_set' })
+    const unknownField = await counter.patch(`/api/parts/${sku}`, { type: 'pad_set' })
     expect(unknownField.status).toBe(422)
     expect(unknownField.body.data.fields).toHaveProperty('type')
   })
 
   it('edits a part: search and the part page follow, and the change is audited', async () => {
-    const r = await counter.patch(`/api/catalogue/parts/${sku}`, { description: `Front brake disc 300 mm, ${word}renamed`, specs: disc({ heightMm: 41 }) })
+    const r = await counter.patch(`/api/parts/${sku}`, { description: `Front brake disc 300 mm, ${word}renamed`, specs: disc({ heightMm: 41 }) })
     expect(r.status, r.text).toBe(200)
     expect(skus((await mgr.get(`/api/parts?q=${word}renamed`)).body)).toEqual([sku])
     expect((await mgr.get(`/api/parts/${sku}`)).body.specs.heightMm).toBe(41)
@@ -74,7 +74,7 @@ describe('catalogue upkeep', () => {
   })
 
   it('adds fitment with qualifiers checked against the vehicle, shows it on the vehicle, and removes it', async () => {
-    const base = `/api/catalogue/parts/${sku}/fitments`
+    const base = `/api/parts/${sku}/fitments`
     const wrongAxle = await counter.post(base, { vehicleId: pennon, axle: 'rear', qualifiers: {} })
     expect(wrongAxle.status).toBe(422)
     expect(wrongAxle.body.data.fields).toHaveProperty('axle')
@@ -96,30 +96,30 @@ describe('catalogue upkeep', () => {
     expect(await listed('280')).toBe(false)
     expect((await mgr.get(`/api/parts/${sku}`)).body.vehicles).toEqual([expect.objectContaining({ vehicleId: pennon, axle: 'front', quantity: 2, qualifiers: { front_disc_diameter_mm: '300' } })])
 
-    const changed = await counter.patch(`/api/catalogue/fitments/${ok.body.id}`, { quantity: 1, note: 'sold singly' })
+    const changed = await counter.patch(`/api/fitments/${ok.body.id}`, { quantity: 1, note: 'sold singly' })
     expect(changed.status).toBe(200)
-    expect((await counter.del(`/api/catalogue/fitments/${ok.body.id}`)).status).toBe(204)
+    expect((await counter.del(`/api/fitments/${ok.body.id}`)).status).toBe(204)
     expect(await listed('300')).toBe(false)
-    expect((await counter.del(`/api/catalogue/fitments/${ok.body.id}`)).status).toBe(404)
+    expect((await counter.del(`/api/fitments/${ok.body.id}`)).status).toBe(404)
     const log = await audits(String(ok.body.id))
     expect(log.map((a) => a.action)).toEqual(['catalogue.fitment.create', 'catalogue.fitment.update', 'catalogue.fitment.delete'])
   })
 
   it('supersedes a part: its SKU then finds the replacement and says so', async () => {
     const newSku = `TST-${run}-B`
-    expect((await counter.post('/api/catalogue/parts', { sku: newSku, type: 'disc', productLine: 'Test Line', description: 'Front brake disc 300 mm revised', specs: disc() })).status).toBe(201)
-    expect((await counter.post(`/api/catalogue/parts/${sku}/supersede`, { newSku: 'KP-1001' })).body.data.fields).toHaveProperty('newSku') // another type
-    const r = await counter.post(`/api/catalogue/parts/${sku}/supersede`, { newSku, note: `${sku} was replaced by ${newSku}: revised casting.` })
+    expect((await counter.post('/api/parts', { sku: newSku, type: 'disc', productLine: 'Test Line', description: 'Front brake disc 300 mm revised', specs: disc() })).status).toBe(201)
+    expect((await counter.post(`/api/parts/${sku}/supersede`, { newSku: 'KP-1001' })).body.data.fields).toHaveProperty('newSku') // another type
+    const r = await counter.post(`/api/parts/${sku}/supersede`, { newSku, note: `${sku} was replaced by ${newSku}: revised casting.` })
     expect(r.status, r.text).toBe(200)
     const found = (await mgr.get(`/api/parts?q=${sku}`)).body.data
     expect(found[0]).toMatchObject({ sku: newSku, match: { by: 'superseded', replaces: { sku, note: expect.stringContaining('revised casting') } } })
     expect((await mgr.get(`/api/parts/${sku}`)).body).toMatchObject({ status: 'discontinued', replacedBy: { sku: newSku } })
     expect((await mgr.get(`/api/parts/${newSku}`)).body.supersedes).toEqual([expect.objectContaining({ sku })])
-    expect((await counter.post(`/api/catalogue/parts/${sku}/supersede`, { newSku })).status).toBe(409)
+    expect((await counter.post(`/api/parts/${sku}/supersede`, { newSku })).status).toBe(409)
   })
 
   it('404 for edits of an unknown part', async () => {
-    expect((await counter.patch('/api/catalogue/parts/TST-NOPE-0', { description: 'x' })).status).toBe(404)
-    expect((await counter.post('/api/catalogue/parts/TST-NOPE-0/fitments', { vehicleId: pennon, axle: 'front' })).status).toBe(404)
+    expect((await counter.patch('/api/parts/TST-NOPE-0', { description: 'x' })).status).toBe(404)
+    expect((await counter.post('/api/parts/TST-NOPE-0/fitments', { vehicleId: pennon, axle: 'front' })).status).toBe(404)
   })
 })

@@ -53,7 +53,7 @@ describe('net price = list price less the tier discount', () => {
     const page = (await mgr.get('/api/parts/KC-1007R')).body
     expect(page.netPriceMinor).toBe(expectedNet(page.listPriceMinor, SILVER_BP))
     expect(page.coreDepositMinor).toBeGreaterThan(0)
-    expect(page.priceListVersion).toBeGreaterThanOrEqual(1)
+    expect(page.priceVersion).toBeGreaterThanOrEqual(1)
     const hit = (await other.get('/api/parts?q=KC-1007R')).body.data[0]
     expect(hit).toMatchObject({ sku: 'KC-1007R', listPriceMinor: page.listPriceMinor, netPriceMinor: expectedNet(page.listPriceMinor, BRONZE_BP), coreDepositMinor: page.coreDepositMinor })
   })
@@ -65,7 +65,7 @@ describe('who sees which prices', () => {
     expect(parts.status).toBe(200)
     expect(rowsOf(parts.body).length).toBeGreaterThan(20)
     expect(moneyKeys(parts.body)).toEqual([])
-    expect(parts.body.priceListVersion).toBeNull()
+    expect(parts.body.priceVersion).toBeNull()
     const page = await tech.get('/api/parts/KC-1007R')
     expect(moneyKeys(page.body)).toEqual([])
     expect(page.body.stock.length).toBe(2) // stock is still shown

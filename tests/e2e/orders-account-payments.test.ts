@@ -29,20 +29,20 @@ beforeAll(async () => {
 
 describe('booking a payment received', () => {
   it('shows the admin what the garage owes', async () => {
-    const r = await admin.get(`/api/admin/accounts/${garage.id}`)
+    const r = await admin.get(`/api/admin/trade-accounts/${garage.id}`)
     expect(r.body.balanceMinor).toBe(2 * UNIT_TOTAL)
   })
 
   it('refuses bad input, a future date and an overpayment by field, and books nothing', async () => {
     const before = await ledgerOf(garage.id)
-    const bad = await admin.post(`/api/admin/accounts/${garage.id}/payments`, { amountMinor: 0, reference: 'x', receivedOn: '2026-02-30', colour: 'red' })
+    const bad = await admin.post(`/api/admin/trade-accounts/${garage.id}/payments`, { amountMinor: 0, reference: 'x', receivedOn: '2026-02-30', colour: 'red' })
     expect(bad.status).toBe(422)
     expect(Object.keys(bad.body.data.fields).sort()).toEqual(['amountMinor', 'colour', 'receivedOn', 'reference'])
     const tomorrow = new Date(Date.now() + 86_400_000).toISOString().slice(0, 10)
-    const future = await admin.post(`/api/admin/accounts/${garage.id}/payments`, { amountMinor: 100, reference: 'BACS 1', receivedOn: tomorrow })
+    const future = await admin.post(`/api/admin/trade-accounts/${garage.id}/payments`, { amountMinor: 100, reference: 'BACS 1', receivedOn: tomorrow })
     expect(future.status).toBe(422)
     expect(future.body.data.fields.receivedOn).toMatch(/future/)
-    const over = await admin.post(`/api/admin/accounts/${garage.id}/payments`, { amountMinor: 2 * UNIT_TOTAL + 1, reference: 'BACS 1', receivedOn: today() })
+    const over = await admin.post(`/api/admin/trade-accounts/${garage.id}/payments`, { amountMinor: 2 * UNIT_TOTAL + 1, reference: 'BACS 1', receivedOn: today() })
     expect(over.status).toBe(422)
     expect(over.body.data.fields.amountMinor).toMatch(/owes £96\.00.*at most £96\.00/)
     expect(await ledgerOf(garage.id)).toEqual(before)
@@ -51,16 +51,16 @@ describe('booking a payment received', () => {
   it('is for the distributor admin only, and only for a garage that exists', async () => {
     const body = { amountMinor: 100, reference: 'BACS 2', receivedOn: today() }
     const [anon, counter, self] = await Promise.all([
-      new Client().post(`/api/admin/accounts/${garage.id}/payments`, body),
-      (await as(people.counter)).post(`/api/admin/accounts/${garage.id}/payments`, body),
-      manager.post(`/api/admin/accounts/${garage.id}/payments`, body),
+      new Client().post(`/api/admin/trade-accounts/${garage.id}/payments`, body),
+      (await as(people.counter)).post(`/api/admin/trade-accounts/${garage.id}/payments`, body),
+      manager.post(`/api/admin/trade-accounts/${garage.id}/payments`, body),
     ])
     expect([anon.status, counter.status, self.status]).toEqual([401, 403, 403])
-    expect((await admin.post('/api/admin/accounts/999999/payments', body)).status).toBe(404)
+    expect((await admin.post('/api/admin/trade-accounts/999999/payments', body)).status).toBe(404)
   })
 
   it('lowers the balance by exactly the amount, frees the credit at once, shows on the statement and tells the garage', async () => {
-    const r = await admin.post(`/api/admin/accounts/${garage.id}/payments`, { amountMinor: UNIT_TOTAL, reference: 'BACS 778812', receivedOn: today(), note: 'March statement' })
+    const r = await admin.post(`/api/admin/trade-accounts/${garage.id}/payments`, { amountMinor: UNIT_TOTAL, reference: 'BACS 778812', receivedOn: today(), note: 'March statement' })
     expect(r.status, r.text).toBe(201)
     expect(r.body).toMatchObject({ amountMinor: UNIT_TOTAL, balanceMinor: UNIT_TOTAL, availableMinor: UNIT_TOTAL })
     const statement = (await manager.get('/api/statement')).body
@@ -73,7 +73,7 @@ describe('booking a payment received', () => {
 
   it('refuses the same reference twice for the garage, however it is spaced or cased', async () => {
     const before = await ledgerOf(garage.id)
-    const again = await admin.post(`/api/admin/accounts/${garage.id}/payments`, { amountMinor: 100, reference: 'bacs  778812', receivedOn: today() })
+    const again = await admin.post(`/api/admin/trade-accounts/${garage.id}/payments`, { amountMinor: 100, reference: 'bacs  778812', receivedOn: today() })
     expect(again.status).toBe(409)
     expect(again.body.data.fields.reference).toMatch(/already booked/)
     expect(await ledgerOf(garage.id)).toEqual(before)

@@ -74,7 +74,7 @@ describe('card payment through the payment fake', () => {
     expect(delivered).toHaveLength(1)
     expect(delivered[0]!.deliveries[0].status).toBe(200)
     const paid = (await c.get(`/api/orders/${order.id}`)).body
-    expect(paid).toMatchObject({ status: 'queued', paymentState: 'paid', decline: null })
+    expect(paid).toMatchObject({ status: 'confirmed', paymentState: 'paid', decline: null })
     expect(paid.can).toMatchObject({ pay: false, invoice: true })
     expect(paid.coreReturns).toHaveLength(1)
     expect(paid.coreReturns[0]).toMatchObject({ status: 'expected', quantityExpected: 2, depositMinor: 3_000 })
@@ -159,7 +159,7 @@ describe('card payment through the payment fake', () => {
     expect((await c.get(`/api/orders/${order.id}`)).body.decline).toMatchObject({ code: 'generic_decline' })
     await payOnFake(sessionId)
     const paid = await snapshot(order.id, garage.id)
-    expect(paid.order).toMatchObject({ status: 'queued', paymentState: 'paid', declineReason: null })
+    expect(paid.order).toMatchObject({ status: 'confirmed', paymentState: 'paid', declineReason: null })
 
     // the decline's news arrives again, late, under a new event id: the intent has since succeeded
     const late = await postEvent(eventOf('payment_intent.payment_failed', { id: piId, object: 'payment_intent' }))
@@ -171,7 +171,7 @@ describe('card payment through the payment fake', () => {
     expect(await snapshot(order.id, garage.id)).toEqual(paid)
     expect(await stockOf(part.id)).toBe(held - 1)
     const view = (await c.get(`/api/orders/${order.id}`)).body
-    expect(view).toMatchObject({ status: 'queued', paymentState: 'paid', decline: null })
+    expect(view).toMatchObject({ status: 'confirmed', paymentState: 'paid', decline: null })
 
     // an event about an object the payment service does not know is acknowledged and ignored
     const ghost = await postEvent(eventOf('checkout.session.completed', { id: 'cs_test_not_known_anywhere', object: 'checkout.session' }))

@@ -25,7 +25,7 @@ describe('trade-account credit limit', () => {
     const c = await as(garage.email)
     const first = await c.post('/api/orders', order('account'))
     expect(first.status, first.text).toBe(201)
-    expect(first.body).toMatchObject({ status: 'queued', paymentState: 'on_account', totalMinor: UNIT_TOTAL })
+    expect(first.body).toMatchObject({ status: 'confirmed', paymentState: 'on_account', totalMinor: UNIT_TOTAL })
     await waitForMail(garage.email, /confirmed on your trade account/)
 
     const preview = await c.post('/api/orders/preview', order('account'))

@@ -58,7 +58,7 @@ describe('declined cards', () => {
     const third = await payForm(retry.url, '4242 4242 4242 4242')
     expect(third.status).toBe(303)
     view = (await c.get(`/api/orders/${order.id}`)).body
-    expect(view).toMatchObject({ status: 'queued', paymentState: 'paid', decline: null })
+    expect(view).toMatchObject({ status: 'confirmed', paymentState: 'paid', decline: null })
     expect(view.timeline.map((t: { label: string }) => t.label)).toEqual(expect.arrayContaining(['Card declined', 'Paid by card']))
   })
 

@@ -49,7 +49,7 @@ describe('held stock of unpaid card orders', () => {
     expect(await stockOf(part.id)).toBe(2)
     expect((await orderRow(order.id))!.status).toBe('awaiting_payment')
     await payOnFake(second)
-    expect((await c.get(`/api/orders/${order.id}`)).body).toMatchObject({ status: 'queued', paymentState: 'paid' })
+    expect((await c.get(`/api/orders/${order.id}`)).body).toMatchObject({ status: 'confirmed', paymentState: 'paid' })
     expect(await stockOf(part.id)).toBe(2)
   })
 

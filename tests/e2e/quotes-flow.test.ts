@@ -1,5 +1,5 @@
 /**
- * A quote from first line to the owner's decision: prices captured from the price list with the garage's tier
+ * A quote from first line to the owner's decision: prices captured from the prices in use with the garage's tier
  * and markup, core deposits, totals under the one rounding rule, sending with the link and PDF, the owner's
  * decision (which can change neither prices nor lines that were not offered, and cannot decline a required
  * line the garage has not talked through), the garage's e-mail, read-only afterwards, and revisions.
@@ -13,7 +13,7 @@ import { all, create } from 'mathjs'
 import { Client, as, env, people, waitForMail } from '../support/api'
 import { backdateExpiry, quoteDb, sendAndReadLink, startQuote } from '../support/quotes'
 import { withWrite } from '../../server/utils/db'
-import { CurrentPrice } from '../../server/models/catalogue'
+import { PartPrice } from '../../server/models/catalogue'
 import { makePart, type TestPart } from '../support/orders'
 
 await setup({ host: env().baseUrl })
@@ -66,7 +66,7 @@ describe('pricing the lines', () => {
 
   it('keeps the captured price when the list price moves on; a line added later takes the new one', async () => {
     quoteDb()
-    await withWrite((t) => CurrentPrice.update({ listPriceMinor: 12_000 }, { where: { partId: reman.id }, transaction: t }))
+    await withWrite((t) => PartPrice.update({ listPriceMinor: 12_000 }, { where: { partId: reman.id }, transaction: t }))
     const later = await manager.get(`/api/quotes/${quoteId}`)
     expect(later.body.lines.find((l: Line) => l.kind === 'part').unitNetMinor).toBe(8_759)
     const { quote } = await startQuote(manager)

@@ -9,7 +9,7 @@ import Stripe from 'stripe'
 import { getDb, withWrite } from '../../server/utils/db'
 import { initModels } from '../../server/models/index'
 import { Branch, DiscountTier, Organisation, User } from '../../server/models/accounts'
-import { CurrentPrice, Part, PriceList, StockLevel } from '../../server/models/catalogue'
+import { PartPrice, Part, PriceVersion, StockLevel } from '../../server/models/catalogue'
 import { CoreReturn, LedgerEntry, Order } from '../../server/models/orders'
 import { Quote, QuoteLine } from '../../server/models/quotes'
 import { hashPasswordOutsideNitro } from '../../server/services/password'
@@ -53,15 +53,15 @@ export async function makeGarage(o: { terms: 'card' | 'account'; creditLimitMino
 
 export interface TestPart { id: number; sku: string }
 
-/** A part on the active price list with stock at the branches given (code -> units). */
+/** A part on the active price version with stock at the branches given (code -> units). */
 export async function makePart(o: { listPriceMinor: number; coreDepositMinor?: number; stock: Record<string, number>; prefix?: string }): Promise<TestPart> {
   models()
   const sku = `${o.prefix ?? 'ZT'}-${uid().toUpperCase()}`
   return withWrite(async (t) => {
-    let list = await PriceList.findOne({ where: { status: 'active' }, transaction: t })
-    if (!list) list = await PriceList.create({ version: 9000, label: 'e2e list', status: 'active', activatedAt: new Date() }, { transaction: t })
+    let list = await PriceVersion.findOne({ where: { status: 'active' }, transaction: t })
+    if (!list) list = await PriceVersion.create({ version: 9000, label: 'e2e list', status: 'active', activatedAt: new Date() }, { transaction: t })
     const part = await Part.create({ sku, type: 'caliper', description: `Test caliper ${sku}, remanufactured (exchange)`, specs: {}, status: 'active' }, { transaction: t })
-    await CurrentPrice.create({ partId: part.id, listPriceMinor: o.listPriceMinor, coreDepositMinor: o.coreDepositMinor ?? 0, packQuantity: 1, priceListId: list.id }, { transaction: t })
+    await PartPrice.create({ partId: part.id, listPriceMinor: o.listPriceMinor, coreDepositMinor: o.coreDepositMinor ?? 0, packQuantity: 1, priceVersionId: list.id }, { transaction: t })
     for (const [code, quantity] of Object.entries(o.stock)) {
       const b = await Branch.findOne({ where: { code }, transaction: t })
       await StockLevel.create({ partId: part.id, branchId: b!.id, quantity, updatedAt: new Date() }, { transaction: t })

@@ -1,11 +1,11 @@
 /**
  * GET /api/account -> AccountOverview: the signed-in person's profile and their organisation's standing.
  * Tier and terms only for those who handle the garage's money (managers) and for distributor staff.
- * Approved organisations only (a pending or rejected garage reads /api/account/application instead).
+ * Approved organisations only (a pending or rejected garage reads /api/trade-applications/mine instead).
  */
 import { can } from '#shared/utils/abilities'
 import { DiscountTier } from '../../models/accounts'
-import { personView, tierView } from '../../services/garages'
+import { personView, tierView } from '../../services/trade-accounts'
 import type { AccountOverview } from '#shared/types/trade-accounts'
 
 export default defineEventHandler(async (event): Promise<AccountOverview> => {

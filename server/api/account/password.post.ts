@@ -12,8 +12,7 @@ export default defineEventHandler(async (event) => {
   const body = await bodyWith(event, PasswordChangeSchema)
   const attempt = await countSignInAttempt(user.email, getRequestIP(event, { xForwardedFor: false }) ?? '')
   if (!attempt.ok) {
-    setResponseHeader(event, 'retry-after', attempt.retryAfterSeconds)
-    throw createError({ statusCode: 429, statusMessage: 'Too Many Requests', message: retryMessage(attempt.retryAfterSeconds) })
+    throw new DomainError('too_many', retryMessage(attempt.retryAfterSeconds), { retryAfterSeconds: attempt.retryAfterSeconds })
   }
   if (!user.passwordHash || !(await verifyPassword(user.passwordHash, body.currentPassword))) {
     throw invalidInput({ currentPassword: 'That is not your current password.' })

@@ -5,7 +5,7 @@
  */
 import { ProfileSchema } from '#shared/schemas/accounts'
 import { User } from '../../models/accounts'
-import { diff, personView } from '../../services/garages'
+import { diff, personView } from '../../services/trade-accounts'
 
 export default defineEventHandler(async (event) => {
   const { user } = requireAuth(event)

@@ -19,21 +19,17 @@ export default defineEventHandler(async (event) => {
   const address = getRequestIP(event, { xForwardedFor: false }) ?? ''
   const attempt = await countSignInAttempt(body.email, address)
   if (!attempt.ok) {
-    setResponseHeader(event, 'retry-after', attempt.retryAfterSeconds)
-    throw createError({
-      statusCode: 429, statusMessage: 'Too Many Requests', message: retryMessage(attempt.retryAfterSeconds),
-      data: { retryAfterSeconds: attempt.retryAfterSeconds },
-    })
+    throw new DomainError('too_many', retryMessage(attempt.retryAfterSeconds), { retryAfterSeconds: attempt.retryAfterSeconds, details: { retryAfterSeconds: attempt.retryAfterSeconds } })
   }
 
   const user = await User.findOne({ where: { email: body.email } })
   const hash = user?.passwordHash ?? await (decoyHash ??= hashPassword('decoy-password-never-used'))
   const passwordOk = await verifyPassword(hash, body.password)
   if (!user || !user.passwordHash || !passwordOk || user.status !== 'active') {
-    throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message: VAGUE })
+    throw new DomainError('unauthenticated', VAGUE)
   }
   const org = await Organisation.findByPk(user.organisationId)
-  if (!org) throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message: VAGUE })
+  if (!org) throw new DomainError('unauthenticated', VAGUE)
   await attempt.release()
 
   const previous = await getUserSession(event)

@@ -6,7 +6,7 @@
 const cache = new Map<number, Buffer>()
 
 export default defineEventHandler((event) => {
-  if (process.env.BORELINE_BENCH !== '1') throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'Not found.' })
+  if (process.env.BORELINE_BENCH !== '1') throw new DomainError('not_found', 'Not found.')
   const bytes = Math.min(Math.max(Number(getQuery(event).bytes) || 1000, 50), 2_000_000)
   let json = cache.get(bytes)
   if (!json) {

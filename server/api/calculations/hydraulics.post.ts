@@ -8,9 +8,8 @@
  * (nothing is computed from half an input).
  */
 import { computeHydraulics, parseHydraulicsInput } from '#shared/utils/brake'
-import { calculationBody } from '../../services/calculations'
 
 export default defineEventHandler(async (event) => {
   requireAbility(event, 'calculations.use')
-  return computeHydraulics(await calculationBody(event, parseHydraulicsInput))
+  return computeHydraulics(await bodyParsedBy(event, parseHydraulicsInput))
 })

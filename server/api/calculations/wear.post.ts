@@ -8,9 +8,8 @@
  * 401 signed out; 422 with `data.fields` keyed by field path.
  */
 import { computeWear, parseWearInput } from '#shared/utils/brake'
-import { calculationBody } from '../../services/calculations'
 
 export default defineEventHandler(async (event) => {
   requireAbility(event, 'calculations.use')
-  return computeWear(await calculationBody(event, parseWearInput))
+  return computeWear(await bodyParsedBy(event, parseWearInput))
 })

@@ -6,7 +6,7 @@
  * 401; 403 without `garage.settings`; 413 too large; 415 not an allowed image; 422 no file.
  */
 import { GarageSettings } from '../../models/quotes'
-import { checkLogoFile, LOGO_FIELD, LogoError, newLogoName, parseLogoUpload, removeLogo, storeLogo } from '../../services/garage-logo'
+import { checkLogoFile, newLogoName, parseLogoUpload, removeLogo, storeLogo } from '../../services/garage-logo'
 import { garageSettingsView } from '../../services/garage-settings'
 import { settingsRowFor } from '../../services/quotes'
 
@@ -33,10 +33,6 @@ export default defineEventHandler(async (event) => {
     await removeLogo(uploads, previous)
   } catch (err) {
     if (stored) await removeLogo(uploads, stored)
-    if (err instanceof LogoError) {
-      const statusMessage = err.statusCode === 413 ? 'Payload Too Large' : err.statusCode === 415 ? 'Unsupported Media Type' : 'Unprocessable Entity'
-      throw createError({ statusCode: err.statusCode, statusMessage, message: err.message, data: { fields: { [LOGO_FIELD]: err.message } } })
-    }
     throw err
   } finally {
     await cleanup()

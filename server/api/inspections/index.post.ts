@@ -12,12 +12,11 @@ import { Vehicle, VehicleOption } from '../../models/catalogue'
 import { Inspection } from '../../models/inspections'
 import { User } from '../../models/accounts'
 import { withWrite } from '../../utils/db'
-import { issuesToFields } from '../../services/calculations'
 import { cataloguePartsFor, inspectionDetail } from '../../services/inspections'
 
 export default defineEventHandler(async (event) => {
   const { user, org } = requireAbility(event, 'inspections.record')
-  if (org.kind !== 'garage') throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: 'Inspections are recorded by garages.' })
+  if (org.kind !== 'garage') throw forbidden('Inspections are recorded by garages.')
 
   let body: unknown
   try {
@@ -27,11 +26,11 @@ export default defineEventHandler(async (event) => {
   }
   body ??= {}
   const head = InspectionCreateSchema.safeParse(body)
-  const fields: Record<string, string> = head.success ? {} : fieldErrors(head.error.issues)
+  const fields: Record<string, string> = head.success ? {} : fieldMessages(head.error.issues)
   const rawWear = (body as { wear?: unknown }).wear
   const wear = rawWear == null ? null : parseWearInput(rawWear)
   if (wear === null) fields.wear ??= 'Enter at least one measured value.'
-  else if (!wear.ok) Object.assign(fields, issuesToFields(wear.issues, 'wear'))
+  else if (!wear.ok) Object.assign(fields, fieldMessages(wear.issues, 'wear'))
   if (!head.success || !wear?.ok) throw invalidInput(fields)
 
   const input = head.data

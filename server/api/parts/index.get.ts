@@ -6,17 +6,11 @@
  * prefix and typo tolerance; exact identifiers rank first. 422 names a malformed filter.
  */
 import { parsePartListQuery } from '#shared/schemas/parts'
-import { catalogueHttpError } from '../../services/catalogue/http'
 import { searchParts } from '../../services/catalogue/parts'
 import { catalogueContext } from '../../services/catalogue/context'
 
 export default defineEventHandler(async (event) => {
   const { user, org } = requireAbility(event, 'catalogue.view')
-  let query
-  try {
-    query = parsePartListQuery(getQuery(event))
-  } catch (err) {
-    throw catalogueHttpError(err)
-  }
+  const query = parsePartListQuery(getQuery(event))
   return searchParts(query, await catalogueContext(user, org))
 })

@@ -23,7 +23,7 @@ export default defineEventHandler(async (event) => {
     if (!inspection) throw invalidInput({ inspectionId: 'No such inspection at this garage.' })
     if (inspection.vehicleId !== vehicle.id) throw invalidInput({ inspectionId: 'That inspection is of another vehicle.' })
   }
-  const { quote, skipped } = await quoteWrite(() => withWrite(async (t) => {
+  const { quote, skipped } = await withWrite(async (t) => {
     const q = await Quote.create({
       organisationId: org.id, number: await nextQuoteNumber(t, org.id), status: 'draft',
       vehicleId: vehicle.id, vehicleLabel: vehicle.label,
@@ -38,7 +38,7 @@ export default defineEventHandler(async (event) => {
       changes: { number: q.number, vehicleId: vehicle.id, inspectionId: q.inspectionId, lines: fromInspection.added.length },
     })
     return { quote: q, skipped: fromInspection.skipped }
-  }))
+  })
   setResponseStatus(event, 201)
   return { ...(await quoteAnswer(quote, auth)), skipped }
 })

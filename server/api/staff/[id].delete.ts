@@ -4,7 +4,7 @@
  */
 import { IdParamSchema } from '#shared/schemas/accounts'
 import { User } from '../../models/accounts'
-import { loadManageable, requireStaffManager } from '../../services/staff'
+import { loadManageable } from '../../services/staff'
 import { voidTokensOf } from '../../services/tokens'
 
 export default defineEventHandler(async (event) => {

@@ -6,8 +6,8 @@
 import { IdParamSchema, StaffPatchSchema } from '#shared/schemas/accounts'
 import { ROLE_LABELS } from '#shared/types/accounts'
 import { User } from '../../models/accounts'
-import { personView } from '../../services/garages'
-import { assignableRoles, loadManageable, requireStaffManager } from '../../services/staff'
+import { personView } from '../../services/trade-accounts'
+import { assignableRoles, loadManageable } from '../../services/staff'
 
 export default defineEventHandler(async (event) => {
   const auth = requireStaffManager(event)

@@ -4,8 +4,8 @@
  */
 import type { StaffList } from '#shared/types/trade-accounts'
 import { User } from '../../models/accounts'
-import { personView } from '../../services/garages'
-import { assignableRoles, isManageable, requireStaffManager } from '../../services/staff'
+import { personView } from '../../services/trade-accounts'
+import { assignableRoles, isManageable } from '../../services/staff'
 import { Op } from 'sequelize'
 
 export default defineEventHandler(async (event): Promise<StaffList> => {

@@ -18,13 +18,13 @@ const DUPLICATE = 'An account with this e-mail already exists. Sign in, or use a
 
 export default defineEventHandler(async (event) => {
   const uploadsDir = String(useRuntimeConfig(event).uploadsDir)
-  const upload = await parseProofUpload(event, uploadsDir)
+  const upload = await parseProofUpload(event.node.req, uploadsDir)
   let storedPath: string | null = null
   try {
     const parsed = TradeApplicationSchema.safeParse(upload.fields)
     if (!parsed.success) {
       // name a missing document in the same answer, so the form shows every problem at once
-      throw invalidInput({ ...fieldErrors(parsed.error.issues), ...(upload.file ? {} : { proof: MISSING_PROOF }) })
+      throw invalidInput({ ...fieldMessages(parsed.error.issues), ...(upload.file ? {} : { proof: MISSING_PROOF }) })
     }
     const input = parsed.data
     const proof = await checkProofFile(upload.file)

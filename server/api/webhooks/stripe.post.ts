@@ -12,13 +12,13 @@ export default defineEventHandler(async (event) => {
   const raw = await readRawBody(event, false)
   const signature = getRequestHeader(event, 'stripe-signature')
   if (!raw || !signature) {
-    throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: 'A signed event body is required.' })
+    throw new DomainError('bad_request', 'A signed event body is required.')
   }
   let evt: Stripe.Event
   try {
     evt = useStripe().webhooks.constructEvent(raw, signature, stripeWebhookSecret())
   } catch {
-    throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: 'The event signature does not verify.' })
+    throw new DomainError('bad_request', 'The event signature does not verify.')
   }
   const result = await handleStripeEvent(evt)
   return { received: true, duplicate: result.duplicate, outcome: result.outcome }

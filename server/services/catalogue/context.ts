@@ -1,4 +1,4 @@
-/** What every catalogue route reads first: prices the caller may see, the active price list, and fresh caches. */
+/** What every catalogue route reads first: prices the caller may see, the active price version, and fresh caches. */
 import type { Organisation, User } from '../../models/accounts'
 import { noteRevision } from './changes'
 import { pricingContext, type PricingContext } from './pricing'

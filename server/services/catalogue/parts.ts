@@ -38,7 +38,7 @@ export async function searchParts(query: PartListQuery, pricing: PricingContext)
   const ids = page.map((h) => h.id)
   const oeIds = page.filter((h) => h.by === 'oe' || h.by === 'similar').map((h) => h.id)
   const [rows, prices, stock, oe] = await Promise.all([
-    pageRows(ids), pricesFor(pricing.priceList?.id, ids), stockFor(ids),
+    pageRows(ids), pricesFor(pricing.priceVersion?.id, ids), stockFor(ids),
     oeIds.length ? getDb().query<{ partId: number; oeNumber: string; oeNormalised: string }>(
       'SELECT part_id AS partId, oe_number AS oeNumber, oe_normalised AS oeNormalised FROM part_oe_numbers WHERE part_id IN (:ids)',
       { type: QueryTypes.SELECT, replacements: { ids: oeIds } }) : [],
@@ -65,7 +65,7 @@ export async function searchParts(query: PartListQuery, pricing: PricingContext)
     data,
     meta: {
       page: query.page, pageSize: query.pageSize, total, pageCount: Math.max(1, Math.ceil(total / query.pageSize)),
-      priceListVersion: pricing.view.kind === 'none' ? null : pricing.priceList?.version ?? null,
+      priceVersion: pricing.view.kind === 'none' ? null : pricing.priceVersion?.version ?? null,
       // how the query was read, so the page can say "front discs 300 mm"
       understood: {
         types: plan.types && !query.type ? types : null, axle: plan.axle, attributes: plan.attributes,
@@ -118,14 +118,14 @@ export async function partDetail(sku: string, pricing: PricingContext) {
     ),
     db.query<{ n: number }>('SELECT COUNT(DISTINCT vehicle_id) AS n FROM fitments WHERE part_id = :id', { type: QueryTypes.SELECT, replacements: { id } }),
     stockFor([id]),
-    pricesFor(pricing.priceList?.id, [id]),
+    pricesFor(pricing.priceVersion?.id, [id]),
     alternativesOf(id, part.type as PartType, part.specs, pricing.revision.catalogue),
   ])
   const replacement = replacedBy ? await Part.findByPk(replacedBy.newPartId, { attributes: ['sku', 'description'] }) : null
   const type = part.type as PartType
   const specs = part.specs
   const altIds = alternatives.map((a) => a.id)
-  const [altPrices, altStock] = await Promise.all([pricesFor(pricing.priceList?.id, altIds), stockFor(altIds)])
+  const [altPrices, altStock] = await Promise.all([pricesFor(pricing.priceVersion?.id, altIds), stockFor(altIds)])
   const st = stock.get(id) ?? []
   return {
     id, sku: part.sku, type, typeLabel: PART_TYPE_LABELS[type]?.one ?? type, productLine: part.productLine, description: part.description,
@@ -141,7 +141,7 @@ export async function partDetail(sku: string, pricing: PricingContext) {
     })),
     vehicleCount: Number(count[0]?.n ?? 0),
     stock: st, stockTotal: st.reduce((n, s) => n + s.quantity, 0),
-    priceListVersion: pricing.view.kind === 'none' ? null : pricing.priceList?.version ?? null,
+    priceVersion: pricing.view.kind === 'none' ? null : pricing.priceVersion?.version ?? null,
     ...priceFields(pricing.view, prices.get(id)),
     alternatives: alternatives.map((a) => {
       const s = altStock.get(a.id) ?? []

@@ -15,16 +15,16 @@ export type PriceView =
   | { kind: 'garage'; discountBp: number }
   | { kind: 'none' }
 
-export interface ActivePriceList { id: number; version: number }
+export interface ActivePriceVersion { id: number; version: number }
 
 export interface CatalogueRevision { catalogue: number; stock: number }
 
-export interface PricingContext { view: PriceView; priceList: ActivePriceList | null; revision: CatalogueRevision }
+export interface PricingContext { view: PriceView; priceVersion: ActivePriceVersion | null; revision: CatalogueRevision }
 
 interface ContextRow { plId: number | null; plVersion: number | null; bp: number | null; rev: number | null; stockRev: number | null }
 
 /**
- * The active price list, the caller's tier discount and the catalogue revisions (bumped by triggers on every
+ * The active price version, the caller's tier discount and the catalogue revisions (bumped by triggers on every
  * catalogue or stock change, see migration 0004): one round trip, remembered per tier for {@link CONTEXT_TTL_MS}
  * and forgotten at once after any write transaction in this process, so an apply, a rollback or a tier change
  * counts from the next request; a change made by another process shows within that second.
@@ -37,8 +37,8 @@ export async function pricingContext(user: Pick<User, 'role'>, org: Pick<Organis
   else {
     const readAt = writes
     ;[row] = await getDb().query<ContextRow>(
-      `SELECT (SELECT id FROM price_lists WHERE status = 'active' ORDER BY version DESC LIMIT 1) AS plId,
-              (SELECT version FROM price_lists WHERE status = 'active' ORDER BY version DESC LIMIT 1) AS plVersion,
+      `SELECT (SELECT id FROM price_versions WHERE status = 'active' ORDER BY version DESC LIMIT 1) AS plId,
+              (SELECT version FROM price_versions WHERE status = 'active' ORDER BY version DESC LIMIT 1) AS plVersion,
               (SELECT percent_bp FROM discount_tiers WHERE id = :tier) AS bp,
               (SELECT catalogue FROM catalogue_revisions WHERE id = 1) AS rev,
               (SELECT stock FROM catalogue_revisions WHERE id = 1) AS stockRev`,
@@ -46,9 +46,9 @@ export async function pricingContext(user: Pick<User, 'role'>, org: Pick<Organis
     )
     if (row && readAt === writes && contextCacheOn()) contextRows.set(tier, { at: now, row })
   }
-  const priceList = row?.plId ? { id: Number(row.plId), version: Number(row.plVersion) } : null
+  const priceVersion = row?.plId ? { id: Number(row.plId), version: Number(row.plVersion) } : null
   return {
-    priceList, view: priceViewOf(user, org, Number(row?.bp ?? 0)),
+    priceVersion, view: priceViewOf(user, org, Number(row?.bp ?? 0)),
     revision: { catalogue: Number(row?.rev ?? 0), stock: Number(row?.stockRev ?? 0) },
   }
 }
@@ -91,10 +91,10 @@ export function priceFields(view: PriceView, price: StoredPrice | null | undefin
   return { listPriceMinor: price.listPriceMinor, netPriceMinor: netPriceMinor(price.listPriceMinor, view.discountBp), coreDepositMinor: price.coreDepositMinor }
 }
 
-/** Prices in use of these parts (`priceListId`: the active version; nothing is priced without one). */
-export async function pricesFor(priceListId: number | undefined, partIds: number[]): Promise<Map<number, StoredPrice>> {
+/** Prices in use of these parts (`priceVersionId`: the active version; nothing is priced without one). */
+export async function pricesFor(priceVersionId: number | undefined, partIds: number[]): Promise<Map<number, StoredPrice>> {
   const out = new Map<number, StoredPrice>()
-  if (!priceListId || !partIds.length) return out
+  if (!priceVersionId || !partIds.length) return out
   const rows = await getDb().query<{ partId: number } & StoredPrice>(
     `SELECT part_id AS partId, list_price_minor AS listPriceMinor, trade_cost_minor AS tradeCostMinor, core_deposit_minor AS coreDepositMinor
        FROM part_prices WHERE part_id IN (:ids)`,

@@ -17,6 +17,7 @@
 import MiniSearch from 'minisearch'
 import { axleOfSpecs, PART_TYPES, type Dimension, type DimensionRange, type PartType } from '../../../shared/schemas/parts'
 import { editDistance, indexTerms, type Attribute, type ScoredTerm, type SearchPlan } from './search-plan'
+import type { AxleName } from '../../../shared/types/axles'
 
 export interface IndexInput {
   id: number
@@ -37,7 +38,7 @@ export interface Hit { id: number; score: number; by: MatchKind; oldSku?: string
 
 export interface SearchFilters {
   type?: PartType
-  axle?: 'front' | 'rear'
+  axle?: AxleName
   ranges?: Partial<Record<Dimension, DimensionRange>>
 }
 
@@ -156,7 +157,7 @@ export class PartSearchIndex {
   has(partId: number): boolean { return this.slotOf.has(partId) }
 
   /** SKU, type, axle and status of an indexed part. */
-  info(partId: number): { sku: string; type: PartType; axle: 'front' | 'rear' | null; status: string } | null {
+  info(partId: number): { sku: string; type: PartType; axle: AxleName | null; status: string } | null {
     const s = this.slotOf.get(partId)
     if (s === undefined) return null
     return { sku: this.skuOf[s]!, type: PART_TYPES[this.typeOf[s]!]!, axle: this.axleOf[s] === 1 ? 'front' : this.axleOf[s] === 2 ? 'rear' : null, status: this.statusOf[s] === 0 ? 'active' : 'discontinued' }

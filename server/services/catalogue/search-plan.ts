@@ -6,6 +6,7 @@
  * are scored, with fuzzy matching for identifiers and longer words only. Pure: no I/O.
  */
 import { normaliseIdentifier, type Dimension, type PartType } from '../../../shared/schemas/parts'
+import type { AxleName } from '../../../shared/types/axles'
 
 export type Attribute = 'vented' | 'solid' | 'remanufactured' | 'new' | 'electric' | 'cable' | 'tandem'
 
@@ -27,7 +28,7 @@ export interface ScoredTerm {
 
 export interface SearchPlan {
   types: PartType[] | null
-  axle: 'front' | 'rear' | null
+  axle: AxleName | null
   attributes: Attribute[]
   numbers: DimensionValue[]
   /** normalised identifiers to look up exactly (SKU, OE number, superseded SKU) */
@@ -57,7 +58,7 @@ const TYPE_PHRASES: [string, PartType[]][] = [
   ['shoe set', ['shoe_set']], ['wear sensor', ['wear_sensor']], ['fitting kit', ['fitting_kit']],
   ['brake fluid', ['fluid']], ['brake hose', ['hose']],
 ]
-const AXLE_WORDS: Record<string, 'front' | 'rear'> = { front: 'front', rear: 'rear', back: 'rear' }
+const AXLE_WORDS: Record<string, AxleName> = { front: 'front', rear: 'rear', back: 'rear' }
 const ATTRIBUTE_WORDS: Record<string, Attribute> = {
   vented: 'vented', ventilated: 'vented', solid: 'solid',
   reman: 'remanufactured', remanufactured: 'remanufactured', exchange: 'remanufactured', recon: 'remanufactured',

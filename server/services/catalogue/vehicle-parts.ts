@@ -17,6 +17,8 @@ import {
 } from '../../../shared/utils/catalogue/qualifiers'
 import { priceFields, viewKey, type PricingContext, type StoredPrice } from './pricing'
 import { vehicleDetail, type VehicleDetail } from './vehicles'
+import type { FitmentAxle } from '../../../shared/types/axles'
+import { DomainError, invalidInput } from '../errors'
 
 export const STOCK_TTL_MS = 10 * 60_000
 const MAX_BASES = 5_000
@@ -24,13 +26,13 @@ const MAX_RESPONSES = 10_000
 
 interface Row {
   fitmentId: number; partId: number; sku: string; type: PartType; productLine: string; description: string
-  specs: Record<string, unknown>; axle: 'front' | 'rear' | 'all'; side: string; quantity: number
+  specs: Record<string, unknown>; axle: FitmentAxle; side: string; quantity: number
   qualifiers: Qualifiers; note: string; price: StoredPrice | null; stock: { branchCode: string; quantity: number }[]
   replaces: string[]; oeDifferences: OeDifference[]
 }
 export interface OeDifference { field: string; label: string; oe: number | number[]; part: number | number[]; unit: 'mm' }
 
-interface Base { builtAt: number; vehicle: VehicleDetail; options: OptionQuestion[]; rows: Row[]; priceListVersion: number | null }
+interface Base { builtAt: number; vehicle: VehicleDetail; options: OptionQuestion[]; rows: Row[]; priceVersion: number | null }
 
 const bases = new Map<string, Promise<Base | null>>()
 /** BORELINE_CATALOGUE_CACHE=0 turns both caches off (the benchmark measures the uncached path with it). */
@@ -73,7 +75,7 @@ export function oeDifferencesOf(type: PartType, specs: Record<string, unknown>, 
   }
 }
 
-async function buildBase(vehicleId: number, priceListId: number | null, priceListVersion: number | null): Promise<Base | null> {
+async function buildBase(vehicleId: number, priceVersionId: number | null, priceVersion: number | null): Promise<Base | null> {
   const vehicle = await vehicleDetail(vehicleId)
   if (!vehicle) return null
   const db = getDb()
@@ -89,7 +91,7 @@ async function buildBase(vehicleId: number, priceListId: number | null, priceLis
        JOIN parts p ON p.id = f.part_id AND p.status = 'active'
        LEFT JOIN part_prices pr ON pr.part_id = p.id AND :pl > 0
       WHERE f.vehicle_id = :v`,
-    { type: QueryTypes.SELECT, replacements: { v: vehicleId, pl: priceListId ?? -1 } },
+    { type: QueryTypes.SELECT, replacements: { v: vehicleId, pl: priceVersionId ?? -1 } },
   )
   const stockRows = await db.query<{ partId: number; code: string; quantity: number }>(
     `SELECT s.part_id AS partId, b.code, s.quantity FROM stock_levels s JOIN branches b ON b.id = s.branch_id
@@ -119,14 +121,11 @@ async function buildBase(vehicleId: number, priceListId: number | null, priceLis
   const typeOrder = new Map(PART_TYPES.map((t, i) => [t, i]))
   rows.sort((a, b) => (axleOrder[a.axle] ?? 3) - (axleOrder[b.axle] ?? 3) || typeOrder.get(a.type)! - typeOrder.get(b.type)!
     || Number(a.oeDifferences.length > 0) - Number(b.oeDifferences.length > 0) || a.productLine.localeCompare(b.productLine) || a.sku.localeCompare(b.sku) || a.side.localeCompare(b.side))
-  return { builtAt: Date.now(), vehicle, options: vehicle.options, rows, priceListVersion }
+  return { builtAt: Date.now(), vehicle, options: vehicle.options, rows, priceVersion }
 }
 
 const AXLE_LABELS = { front: 'Front axle', rear: 'Rear axle', all: 'Whole vehicle' } as const
 
-export class AnswerError extends Error {
-  constructor(public fields: Record<string, string>) { super('invalid answers') }
-}
 
 function trim<K, V>(m: Map<K, V>, max: number) {
   while (m.size > max) m.delete(m.keys().next().value as K)
@@ -136,16 +135,16 @@ function trim<K, V>(m: Map<K, V>, max: number) {
  * The finished JSON body (UTF-8 bytes, encoded once and sent as they are by every cached answer: at thousands of
  * requests a second, encoding a 30 KB string per response is what fills the memory) for a vehicle and answers, or
  * null when the vehicle does not exist.
- * @throws AnswerError when an answer names an option the vehicle lacks or a value it does not offer
+ * @throws a DomainError (invalid) when an answer names an option the vehicle lacks or a value it does not offer
  */
 export async function vehiclePartsBody(vehicleId: number, rawAnswers: Answers, pricing: PricingContext, now = Date.now()): Promise<Buffer | null> {
-  const plId = pricing.priceList?.id ?? null
+  const plId = pricing.priceVersion?.id ?? null
   const baseKey = `${vehicleId}|${plId}`
-  const base = await baseFor(baseKey, now, () => buildBase(vehicleId, plId, pricing.priceList?.version ?? null))
+  const base = await baseFor(baseKey, now, () => buildBase(vehicleId, plId, pricing.priceVersion?.version ?? null))
   if (!base) return null
 
   const problems = answerProblems(base.options, rawAnswers)
-  if (Object.keys(problems).length) throw new AnswerError(problems)
+  if (Object.keys(problems).length) throw invalidInput(problems, 'Some option answers do not fit this vehicle.')
   const answers = canonicalAnswers(base.options, rawAnswers)
   const answersKey = Object.keys(answers).sort().map((k) => `${k}=${answers[k]}`).join('&')
   const key = `${baseKey}|${viewKey(pricing.view)}|${answersKey}`
@@ -204,7 +203,7 @@ function render(base: Base, answers: Answers, pricing: PricingContext) {
       tyreSize: v.tyreSize, kerbMassKg: v.kerbMassKg, mcBoreMm: v.mcBoreMm, parkingBrake: v.parkingBrake,
       brakes: v.brakes.filter((b) => matchQualifiers(b.qualifiers, answers) !== 'excluded'),
     },
-    priceListVersion: pricing.view.kind === 'none' ? null : base.priceListVersion,
+    priceVersion: pricing.view.kind === 'none' ? null : base.priceVersion,
     answers: Object.entries(answers).map(([key, value]) => {
       const o = base.options.find((x) => x.key === key)!
       return { key, label: o.label, value, valueLabel: o.values.find((x) => x.value === value)?.label ?? value }

@@ -11,11 +11,12 @@ import { CHAIN_ASSUMPTIONS, DEFAULT_PISTON_TRAVEL_MM, computeChain } from './hyd
 import type { CircuitFailureResult } from './circuit'
 import { FMVSS_135, circuitFailure, stoppingDistanceM } from './circuit'
 import { TYRE_RADIUS_ASSUMPTION } from './units'
+import type { AxleName } from '../../types/axles'
 
 export type Severity = 'info' | 'warning' | 'danger'
 
 /** One finding of the check. `code` is stable for the UI and tests; `message` is for the technician. */
-export interface Finding {
+export interface BoreCheckFinding {
   severity: Severity
   code: string
   message: string
@@ -60,8 +61,8 @@ export interface Comparison {
 
 /** Compares two chain results (same pedal force). */
 export function compareChains(original: ChainResult, replacement: ChainResult): Comparison {
-  const axle = (f: (c: ChainResult, a: 'front' | 'rear') => number | null): PerAxle<number | null> => {
-    const pick = (a: 'front' | 'rear') => {
+  const axle = (f: (c: ChainResult, a: AxleName) => number | null): PerAxle<number | null> => {
+    const pick = (a: AxleName) => {
       const before = f(original, a)
       const after = f(replacement, a)
       return before === null || after === null ? null : percentChange(before, after)
@@ -87,7 +88,7 @@ export function compareChains(original: ChainResult, replacement: ChainResult): 
 const SEVERITY_ORDER: Record<Severity, number> = { danger: 0, warning: 1, info: 2 }
 
 /** Orders findings danger -> warning -> info, keeping the order of equal severities. */
-export function sortFindings(findings: readonly Finding[]): Finding[] {
+export function sortFindings(findings: readonly BoreCheckFinding[]): BoreCheckFinding[] {
   return findings
     .map((f, i) => ({ f, i }))
     .sort((a, b) => SEVERITY_ORDER[a.f.severity] - SEVERITY_ORDER[b.f.severity] || a.i - b.i)
@@ -131,7 +132,7 @@ export function resolveReplacement(input: HydraulicsInput): ResolvedReplacement 
     }
   }
 
-  const axle = (name: 'front' | 'rear'): Axle => {
+  const axle = (name: AxleName): Axle => {
     const original = input.axles[name]
     const replaced = rep.axles?.[name]
     if (!replaced) return original
@@ -187,8 +188,8 @@ export function systemFindings(
   chain: ChainResult,
   who: 'original' | 'replacement',
   scope: CheckScope = { masterCylinder: true, front: true, rear: true },
-): Finding[] {
-  const findings: Finding[] = []
+): BoreCheckFinding[] {
+  const findings: BoreCheckFinding[] = []
   const mc = system.masterCylinder
   const subject = who === 'original' ? 'The original system' : 'With the replacement, the system'
   const mcName = who === 'original' ? 'The master cylinder' : 'The replacement master cylinder'
@@ -265,9 +266,9 @@ export function comparisonFindings(
   comparison: Comparison,
   resolved: ResolvedReplacement,
   originalSystem: BrakeSystem,
-): Finding[] {
+): BoreCheckFinding[] {
   const t = BORE_CHECK_THRESHOLDS
-  const findings: Finding[] = []
+  const findings: BoreCheckFinding[] = []
   const { changed } = resolved
 
   if (!changed.masterCylinder && !changed.front && !changed.rear) {
@@ -361,8 +362,8 @@ function stoppingFindings(
   failures: CircuitFailureResult[],
   pedalForceN: number,
   who: 'original' | 'replacement',
-): Finding[] {
-  const findings: Finding[] = []
+): BoreCheckFinding[] {
+  const findings: BoreCheckFinding[] = []
   const service = FMVSS_135.service
   if (chain.decelerationMps2 !== null && pedalForceN <= service.maxPedalForceN) {
     const distance = stoppingDistanceM(service.speedKmh, chain.decelerationMps2)
@@ -435,7 +436,7 @@ export interface HydraulicsResult {
   replacement: ChainResult | null
   comparison: Comparison | null
   circuitFailure: { original: CircuitFailureResult[]; replacement: CircuitFailureResult[] | null }
-  findings: Finding[]
+  findings: BoreCheckFinding[]
   inputs: HydraulicsInput & { resolvedReplacement: BrakeSystem | null }
   units: typeof HYDRAULICS_UNITS
   assumptions: string[]
@@ -478,7 +479,7 @@ export function computeHydraulics(raw: HydraulicsInputRaw): HydraulicsResult {
   const failOriginal = circuitFailure(original, input.split, input.pedalForceN, input.massKg)
   const failReplacement = replacement ? circuitFailure(replacement, input.split, input.pedalForceN, input.massKg) : null
 
-  const findings: Finding[] = [
+  const findings: BoreCheckFinding[] = [
     ...systemFindings(origSystem, original, 'original'),
     ...stoppingFindings(original, failOriginal, input.pedalForceN, 'original'),
   ]

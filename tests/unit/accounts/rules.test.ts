@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest'
 import { createHash } from 'node:crypto'
-import { AccountTermsSchema, DecisionSchema, InviteSchema, PasswordSchema, ProfileSchema, TierSchema, TradeApplicationSchema, percentToBp } from '#shared/schemas/accounts'
+import { TradeTermsSchema, DecisionSchema, InviteSchema, PasswordSchema, ProfileSchema, TierSchema, TradeApplicationSchema, percentToBp } from '#shared/schemas/accounts'
 import { can } from '#shared/utils/abilities'
-import { fieldErrors } from '../../../server/utils/validate'
+import { fieldMessages } from '../../../shared/utils/field-messages'
 import { cleanFileName, proofPath } from '../../../server/services/proof-store'
 import { countSignInAttempt, SIGN_IN_LIMIT } from '../../../server/services/throttle'
 import { escapeHtml } from '../../../server/services/account-mail'
@@ -17,7 +17,7 @@ describe('trade-account inputs', () => {
   it('names every missing application field', () => {
     const r = TradeApplicationSchema.safeParse({})
     expect(r.success).toBe(false)
-    expect(Object.keys(fieldErrors(r.error!.issues)).sort()).toEqual(['businessName', 'contactName', 'email', 'password', 'phone', 'taxNumber', 'tradingAddress'])
+    expect(Object.keys(fieldMessages(r.error!.issues)).sort()).toEqual(['businessName', 'contactName', 'email', 'password', 'phone', 'taxNumber', 'tradingAddress'])
   })
 
   it('lower-cases and trims the e-mail so one address has one account', () => {
@@ -40,18 +40,18 @@ describe('trade-account inputs', () => {
     expect(DecisionSchema.safeParse({ decision: 'approve', tierId: 1, terms: 'account', creditLimitMinor: 100_000, paymentDays: 30 }).success).toBe(true)
     expect(DecisionSchema.safeParse({ decision: 'approve', tierId: 1, terms: 'card' }).success).toBe(true)
     const noLimit = DecisionSchema.safeParse({ decision: 'approve', tierId: 1, terms: 'account' })
-    expect(Object.keys(fieldErrors(noLimit.error!.issues)).sort()).toEqual(['creditLimitMinor', 'paymentDays'])
+    expect(Object.keys(fieldMessages(noLimit.error!.issues)).sort()).toEqual(['creditLimitMinor', 'paymentDays'])
     expect(DecisionSchema.safeParse({ decision: 'approve', tierId: 1, terms: 'card', paymentDays: 30 }).success).toBe(false)
     expect(DecisionSchema.safeParse({ decision: 'reject', reason: 'no' }).success).toBe(false)
     expect(DecisionSchema.safeParse({ decision: 'reject', reason: 'Tax number not valid.' }).success).toBe(true)
     expect(DecisionSchema.safeParse({ decision: 'approve', tierId: 1, terms: 'card', creditLimitMinor: 1.5 }).success).toBe(false)
-    expect(AccountTermsSchema.safeParse({}).success).toBe(false)
+    expect(TradeTermsSchema.safeParse({}).success).toBe(false)
   })
 
   it('refuses fields nobody may set, each named (mass assignment)', () => {
     const r = ProfileSchema.safeParse({ name: 'Fine Name', role: 'distributor_admin', status: 'approved', creditLimitMinor: 1 })
     expect(r.success).toBe(false)
-    expect(fieldErrors(r.error!.issues)).toEqual({
+    expect(fieldMessages(r.error!.issues)).toEqual({
       role: 'This field cannot be set here.', status: 'This field cannot be set here.', creditLimitMinor: 'This field cannot be set here.',
     })
     expect(InviteSchema.safeParse({ email: 'a@b.test', name: 'Al Bee', role: 'garage_technician', organisationId: 9 }).success).toBe(false)
@@ -60,11 +60,11 @@ describe('trade-account inputs', () => {
 
 describe('abilities of the trade-account routes', () => {
   it('lets distributor staff read accounts and documents, only the admin decide', () => {
-    expect(can('distributor_admin', 'accounts.view')).toBe(true)
-    expect(can('counter_staff', 'accounts.view')).toBe(true)
-    expect(can('garage_manager', 'accounts.view')).toBe(false)
-    expect(can('garage_technician', 'accounts.view')).toBe(false)
-    expect(can('counter_staff', 'accounts.decide')).toBe(false)
+    expect(can('distributor_admin', 'tradeAccounts.view')).toBe(true)
+    expect(can('counter_staff', 'tradeAccounts.view')).toBe(true)
+    expect(can('garage_manager', 'tradeAccounts.view')).toBe(false)
+    expect(can('garage_technician', 'tradeAccounts.view')).toBe(false)
+    expect(can('counter_staff', 'tradeAccounts.decide')).toBe(false)
     expect(can('garage_technician', 'garage.staff')).toBe(false)
   })
 })

@@ -4,7 +4,7 @@ import {
   computeHydraulics,
   percentChange,
   sortFindings,
-  type Finding,
+  type BoreCheckFinding,
   type HydraulicsInputRaw,
 } from '#shared/utils/brake'
 import { circleAreaMm2 } from '#shared/utils/brake/hydraulics'
@@ -29,7 +29,7 @@ function vehicle(): HydraulicsInputRaw {
   }
 }
 
-const codes = (findings: Finding[]) => findings.map((f) => f.code)
+const codes = (findings: BoreCheckFinding[]) => findings.map((f) => f.code)
 
 describe('computeHydraulics without a replacement', () => {
   const r = computeHydraulics(vehicle())
@@ -194,7 +194,7 @@ describe('helpers', () => {
   })
 
   it('sortFindings keeps order within a severity', () => {
-    const f: Finding[] = [
+    const f: BoreCheckFinding[] = [
       { severity: 'info', code: 'a', message: '' },
       { severity: 'danger', code: 'b', message: '' },
       { severity: 'info', code: 'c', message: '' },

@@ -6,7 +6,7 @@ import { describe, expect, it } from 'vitest'
 import { computeHydraulics, parseHydraulicsInput, parseWearInput } from '#shared/utils/brake'
 import { formFromDraft, hydraulicsBody, fieldMap } from '~/utils/boreCheckForm'
 import { formErrors, inspectionForm, wearBody, withNewLimits } from '~/utils/inspectionForm'
-import { issuesToFields } from '../../../server/services/calculations'
+import { fieldMessages } from '../../../shared/utils/field-messages'
 import { qualifierCondition } from '../../../server/services/inspections'
 
 const draft = {
@@ -103,12 +103,12 @@ describe('inspection form', () => {
 
 describe('422 fields from the library issues', () => {
   it('keys them by field path, first message wins, the whole body under _', () => {
-    expect(issuesToFields([
+    expect(fieldMessages([
       { field: 'axles.front.frictionCoefficient', message: 'a' },
       { field: 'axles.front.frictionCoefficient', message: 'b' },
       { field: '(body)', message: 'nothing to check' },
     ])).toEqual({ 'axles.front.frictionCoefficient': 'a', _: 'nothing to check' })
-    expect(issuesToFields([{ field: 'discs[0].minThicknessMm', message: 'm' }, { field: '(body)', message: 'n' }], 'wear'))
+    expect(fieldMessages([{ field: 'discs[0].minThicknessMm', message: 'm' }, { field: '(body)', message: 'n' }], 'wear'))
       .toEqual({ 'wear.discs[0].minThicknessMm': 'm', wear: 'n' })
   })
 })

@@ -16,11 +16,11 @@ function one<T>(sql: string): Promise<T> {
 const counts = () => one<Record<string, number>>(`SELECT (SELECT COUNT(*) FROM vehicles) AS vehicles, (SELECT COUNT(*) FROM vehicle_options) AS options,
   (SELECT COUNT(*) FROM vehicle_brakes) AS brakes, (SELECT COUNT(*) FROM parts) AS parts, (SELECT COUNT(*) FROM part_oe_numbers) AS oe,
   (SELECT COUNT(*) FROM supersessions) AS supersessions, (SELECT COUNT(*) FROM fitments) AS fitments, (SELECT COUNT(*) FROM stock_levels) AS stock,
-  (SELECT COUNT(*) FROM price_lists) AS lists, (SELECT COUNT(*) FROM part_prices) AS prices`)
+  (SELECT COUNT(*) FROM price_versions) AS lists, (SELECT COUNT(*) FROM part_prices) AS prices`)
 afterAll(() => rmSync(dir, { recursive: true, force: true }))
 
 describe('catalogue seed in a database', () => {
-  it('writes the catalogue with stock in both branches and one active price list', async () => {
+  it('writes the catalogue with stock in both branches and one active price version', async () => {
     const r = seed()
     expect(r.status, r.stderr).toBe(0)
     expect(r.stdout).toMatch(/seed catalogue: 7 makes, \d+ vehicles, \d+ parts/)
@@ -29,7 +29,7 @@ describe('catalogue seed in a database', () => {
     expect(c.parts).toBeGreaterThanOrEqual(600)
     expect(c.stock).toBe(c.parts * 2)
     expect(c.prices).toBe(c.parts)
-    expect(await one('SELECT version, status FROM price_lists WHERE status = \'active\'')).toEqual({ version: 1, status: 'active' })
+    expect(await one('SELECT version, status FROM price_versions WHERE status = \'active\'')).toEqual({ version: 1, status: 'active' })
     expect((await one<{ n: number }>("SELECT COUNT(*) AS n FROM stock_levels s JOIN branches b ON b.id = s.branch_id WHERE s.quantity = 0 AND b.code = 'RVS'")).n).toBeGreaterThan(0)
     expect(await one("SELECT technicians_see_prices AS t FROM organisations WHERE name = 'Tannery Yard Autos'")).toEqual({ t: 1 })
     expect(await one("SELECT technicians_see_prices AS t FROM organisations WHERE name = 'Millbrook Motor Works'")).toEqual({ t: 0 })

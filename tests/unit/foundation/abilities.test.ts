@@ -4,16 +4,16 @@ import { ROLES, type Role } from '#shared/types/accounts'
 
 // The role matrix the product is built on (roles as the trade-accounts issue defines them).
 const grants: Record<Role, Ability[]> = {
-  distributor_admin: ['accounts.decide', 'payments.record', 'tiers.manage', 'distributor.staff', 'priceLists.manage', 'orders.work', 'catalogue.edit', 'audit.view'],
-  counter_staff: ['priceLists.manage', 'orders.work', 'catalogue.edit', 'coreReturns.decide'],
+  distributor_admin: ['tradeAccounts.decide', 'payments.record', 'tiers.manage', 'distributor.staff', 'priceFiles.manage', 'orders.work', 'catalogue.edit', 'audit.view'],
+  counter_staff: ['priceFiles.manage', 'orders.work', 'catalogue.edit', 'coreReturns.decide'],
   garage_manager: ['quotes.send', 'quotes.price', 'orders.place', 'orders.pay', 'garage.staff', 'garage.settings', 'statement.view'],
   garage_technician: ['catalogue.view', 'quotes.draft', 'inspections.record', 'calculations.use'],
 }
 const denies: Record<Role, Ability[]> = {
   distributor_admin: ['quotes.send', 'orders.pay', 'garage.staff'],
-  counter_staff: ['accounts.decide', 'payments.record', 'tiers.manage', 'distributor.staff', 'quotes.draft'],
-  garage_manager: ['accounts.decide', 'payments.record', 'priceLists.manage', 'orders.work', 'catalogue.edit', 'coreReturns.decide'],
-  garage_technician: ['quotes.send', 'quotes.price', 'orders.place', 'orders.pay', 'garage.staff', 'statement.view', 'priceLists.manage'],
+  counter_staff: ['tradeAccounts.decide', 'payments.record', 'tiers.manage', 'distributor.staff', 'quotes.draft'],
+  garage_manager: ['tradeAccounts.decide', 'payments.record', 'priceFiles.manage', 'orders.work', 'catalogue.edit', 'coreReturns.decide'],
+  garage_technician: ['quotes.send', 'quotes.price', 'orders.place', 'orders.pay', 'garage.staff', 'statement.view', 'priceFiles.manage'],
 }
 
 describe('abilities', () => {

@@ -40,9 +40,9 @@ describe('SVG logos', () => {
     const png = Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mP8z8BQDwAEhQGAhKmMIQAAAABJRU5ErkJggg==', 'base64')
     expect(await checkLogoFile(file('a.svg', png))).toMatchObject({ mime: 'image/png', ext: 'png' })
     expect(await checkLogoFile(file('b.png', '<?xml version="1.0"?><svg xmlns="http://www.w3.org/2000/svg"/>'))).toMatchObject({ mime: 'image/svg+xml' })
-    await expect(checkLogoFile(file('c.png', 'GIF89a....'))).rejects.toMatchObject({ statusCode: 415 })
-    await expect(checkLogoFile(file('d.png', ''))).rejects.toMatchObject({ statusCode: 415 })
-    await expect(checkLogoFile(null)).rejects.toMatchObject({ statusCode: 422 })
+    await expect(checkLogoFile(file('c.png', 'GIF89a....'))).rejects.toMatchObject({ kind: 'unsupported' })
+    await expect(checkLogoFile(file('d.png', ''))).rejects.toMatchObject({ kind: 'unsupported' })
+    await expect(checkLogoFile(null)).rejects.toMatchObject({ kind: 'invalid' })
   })
 
   it('stores only under its own names', () => {

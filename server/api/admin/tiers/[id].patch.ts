@@ -5,7 +5,7 @@
 import { Op, UniqueConstraintError } from 'sequelize'
 import { IdParamSchema, TierPatchSchema, percentToBp } from '#shared/schemas/accounts'
 import { DiscountTier } from '../../../models/accounts'
-import { diff } from '../../../services/garages'
+import { diff } from '../../../services/trade-accounts'
 import type { TierView } from '#shared/types/trade-accounts'
 
 const DUPLICATE_TIER = 'A tier with this name already exists.'

@@ -1,13 +1,13 @@
 /**
  * GET /api/admin/trade-applications?status=pending|approved|rejected|suspended|all&q=&sort=&page=&pageSize=
- * -> { data: GarageSummary[], meta: { page, pageSize, total } }. The queue defaults to pending, oldest first.
+ * -> { data: TradeAccountSummary[], meta: { page, pageSize, total } }. The queue defaults to pending, oldest first.
  * Distributor admin only.
  */
-import { GarageListQuerySchema } from '#shared/schemas/accounts'
-import { listGarages } from '../../../services/garages'
+import { TradeAccountListQuerySchema } from '#shared/schemas/accounts'
+import { listTradeAccounts } from '../../../services/trade-accounts'
 
 export default defineEventHandler(async (event) => {
-  requireAbility(event, 'accounts.decide')
-  const query = queryWith(event, GarageListQuerySchema)
-  return listGarages(query, { status: 'pending', sort: 'submitted' })
+  requireAbility(event, 'tradeAccounts.decide')
+  const query = queryWith(event, TradeAccountListQuerySchema)
+  return listTradeAccounts(query, { status: 'pending', sort: 'submitted' })
 })

@@ -8,6 +8,6 @@ export default defineEventHandler(async (event) => {
   const row = await findLiveToken(token, 'invite')
   const user = row ? await User.findOne({ where: { id: row.userId, status: 'invited' } }) : null
   const org = user ? await Organisation.findByPk(user.organisationId) : null
-  if (!user || !org) throw createError({ statusCode: 410, statusMessage: 'Gone', message: DEAD_LINK_MESSAGE })
+  if (!user || !org) throw new DomainError('gone', DEAD_LINK_MESSAGE)
   return { email: user.email, name: user.name, role: user.role, organisation: org.name }
 })

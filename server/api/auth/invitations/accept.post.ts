@@ -13,7 +13,7 @@ export default defineEventHandler(async (event) => {
   const user = await withWrite(async (t) => {
     const row = await useToken(t, token, 'invite')
     const user = row ? await User.findOne({ where: { id: row.userId, status: 'invited' }, transaction: t }) : null
-    if (!user) throw createError({ statusCode: 410, statusMessage: 'Gone', message: DEAD_LINK_MESSAGE })
+    if (!user) throw new DomainError('gone', DEAD_LINK_MESSAGE)
     await User.update(
       { passwordHash, status: 'active', ...(name ? { name } : {}), sessionVersion: user.sessionVersion + 1 },
       { where: { id: user.id, status: 'invited' }, transaction: t },

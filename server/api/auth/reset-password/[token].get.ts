@@ -7,6 +7,6 @@ export default defineEventHandler(async (event) => {
   const { token } = paramsWith(event, TokenParamSchema)
   const row = await findLiveToken(token, 'reset')
   const user = row ? await User.findOne({ where: { id: row.userId, status: 'active' } }) : null
-  if (!user) throw createError({ statusCode: 410, statusMessage: 'Gone', message: DEAD_LINK_MESSAGE })
+  if (!user) throw new DomainError('gone', DEAD_LINK_MESSAGE)
   return { email: user.email }
 })

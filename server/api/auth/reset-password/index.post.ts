@@ -14,7 +14,7 @@ export default defineEventHandler(async (event) => {
   const user = await withWrite(async (t) => {
     const row = await useToken(t, token, 'reset')
     const user = row ? await User.findOne({ where: { id: row.userId, status: 'active' }, transaction: t }) : null
-    if (!user) throw createError({ statusCode: 410, statusMessage: 'Gone', message: DEAD_LINK_MESSAGE })
+    if (!user) throw new DomainError('gone', DEAD_LINK_MESSAGE)
     await User.update({ passwordHash, sessionVersion: user.sessionVersion + 1 }, { where: { id: user.id }, transaction: t })
     await audit(t, { actorUserId: user.id, organisationId: user.organisationId, action: 'user.password_reset', entity: 'user', entityId: user.id })
     return user

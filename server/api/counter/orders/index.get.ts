@@ -18,7 +18,7 @@ export default defineEventHandler(async (event) => {
   const branches = await Branch.findAll({ order: [['name', 'ASC']] })
   const branch = branches.find((b) => b.id === (query.branchId ?? org.homeBranchId)) ?? branches[0]
   if (!branch) return { data: [], meta: { page: 1, pageSize: PAGE_SIZE, total: 0 }, branches: [], branch: null }
-  const status = query.status === 'open' ? { [Op.in]: ['queued', 'picking', 'dispatched'] } : query.status
+  const status = query.status === 'open' ? { [Op.in]: ['confirmed', 'picking', 'dispatched'] } : query.status
   const { rows, count } = await Order.findAndCountAll({
     where: { branchId: branch.id, status },
     include: [

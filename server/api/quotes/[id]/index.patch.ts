@@ -21,7 +21,7 @@ export default defineEventHandler(async (event) => {
     if (!inspection) throw invalidInput({ inspectionId: 'No such inspection at this garage.' })
     if (inspection.vehicleId !== (vehicle?.id ?? quote.vehicleId)) throw invalidInput({ inspectionId: 'That inspection is of another vehicle.' })
   }
-  const target = await quoteWrite(() => withWrite(async (t) => {
+  const target = await withWrite(async (t) => {
     const { quote: q } = await editableQuote(t, quote, auth.user.id)
     const { vehicleId: _v, inspectionId, ...plain } = body
     q.set(Object.fromEntries(Object.entries(plain).filter(([, v]) => v !== undefined)))
@@ -34,6 +34,6 @@ export default defineEventHandler(async (event) => {
       changes: { fields: Object.keys(body), revisedFrom: q.id === quote.id ? null : quote.id },
     })
     return q
-  }))
+  })
   return quoteAnswer(target, auth)
 })

@@ -7,12 +7,12 @@ import { editableQuote } from '../../../services/quotes'
 
 export default defineEventHandler(async (event) => {
   const { auth, quote } = await loadOwnQuote(event)
-  const revised = await quoteWrite(() => withWrite(async (t) => {
+  const revised = await withWrite(async (t) => {
     const { quote: q } = await editableQuote(t, quote, auth.user.id)
-    if (q.id === quote.id) throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'A draft is changed as it is; it needs no new revision.' })
+    if (q.id === quote.id) throw conflict('A draft is changed as it is; it needs no new revision.')
     await audit(t, { actorUserId: auth.user.id, organisationId: auth.org.id, action: 'quote.revise', entity: 'quote', entityId: q.id, changes: { from: quote.id, revision: q.revision } })
     return q
-  }))
+  })
   setResponseStatus(event, 201)
   return quoteAnswer(revised, auth)
 })

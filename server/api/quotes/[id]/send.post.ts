@@ -14,15 +14,12 @@ export default defineEventHandler(async (event) => {
   requireAuth(event)
   const body = await bodyWith(event, QuoteSendSchema)
   const { auth, quote } = await loadOwnQuote(event, 'quotes.send')
-  const { token } = await quoteWrite(() => withWrite(async (t) => {
+  const { token } = await withWrite(async (t) => {
     const q = await Quote.findByPk(quote.id, { transaction: t })
     if (!q) throw notFound('Quote')
     const status = effectiveQuoteStatus(q.status, q.expiresAt ?? null)
     if (nextQuoteStatus(status, 'send') !== 'sent') {
-      throw createError({
-        statusCode: 409, statusMessage: 'Conflict',
-        message: status === 'superseded' ? 'This revision has been replaced: send the latest one.' : 'This quote has been decided or has expired: make a new revision to send it again.',
-      })
+      throw conflict(status === 'superseded' ? 'This revision has been replaced: send the latest one.' : 'This quote has been decided or has expired: make a new revision to send it again.')
     }
     const lines = await linesOf(q.id, t)
     if (!lines.some(isDecidable)) throw invalidInput({ lines: 'Add at least one line before sending.' })
@@ -35,10 +32,10 @@ export default defineEventHandler(async (event) => {
       expiresAt: resend && q.expiresAt ? q.expiresAt : new Date(now.getTime() + settings.quoteValidityDays * 86_400_000),
       messageToOwner: body.message ?? q.messageToOwner,
     }, { where: { id: q.id, status: q.status }, transaction: t })
-    if (changed !== 1) throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'The quote changed meanwhile. Reload it and try again.' })
+    if (changed !== 1) throw conflict('The quote changed meanwhile. Reload it and try again.')
     await audit(t, { actorUserId: auth.user.id, organisationId: auth.org.id, action: resend ? 'quote.resend' : 'quote.send', entity: 'quote', entityId: q.id, changes: { lines: lines.length } })
     return { token: link.token }
-  }))
+  })
   await quote.reload()
   const mailed = await mailQuoteToOwner(quote, token)
   return { ...(await quoteAnswer(quote, auth)), mailed }

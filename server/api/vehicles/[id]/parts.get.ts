@@ -1,13 +1,12 @@
 /**
  * GET /api/vehicles/:id/parts?opt.<option key>=<value>...  e.g. `?opt.front_disc_diameter_mm=300&opt.parking_brake=electric`
- * -> `{ vehicle, priceListVersion, answers[], questions[], groups: [{ axle, label, types: [{ type, label, parts[] }] }], counts }`.
+ * -> `{ vehicle, priceVersion, answers[], questions[], groups: [{ axle, label, types: [{ type, label, parts[] }] }], counts }`.
  * Parts whose fitment qualifiers contradict an answer are left out; `questions` lists the options still open, each
  * value with how many parts it would keep. Money fields (`listPriceMinor`, `netPriceMinor`, `coreDepositMinor`,
  * `tradeCostMinor` for distributor staff) appear only for callers who may see prices.
  * 404 unknown vehicle; 422 (`data.fields["opt.<key>"]`) for an option the vehicle lacks or a value it does not offer.
  */
 import { answersFromQuery, VehicleIdParamsSchema } from '#shared/schemas/parts'
-import { catalogueHttpError } from '../../../services/catalogue/http'
 import { catalogueContext } from '../../../services/catalogue/context'
 import { vehiclePartsBody } from '../../../services/catalogue/vehicle-parts'
 
@@ -16,12 +15,7 @@ export default defineEventHandler(async (event) => {
   const { id } = paramsWith(event, VehicleIdParamsSchema)
   const answers = answersFromQuery(getQuery(event))
   const pricing = await catalogueContext(user, org)
-  let body: Buffer | null
-  try {
-    body = await vehiclePartsBody(id, answers, pricing)
-  } catch (err) {
-    throw catalogueHttpError(err)
-  }
+  const body = await vehiclePartsBody(id, answers, pricing)
   if (body === null) throw notFound(`Vehicle ${id}`)
   setResponseHeader(event, 'content-type', 'application/json; charset=utf-8')
   return body

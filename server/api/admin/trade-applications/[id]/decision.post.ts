@@ -2,18 +2,18 @@
  * POST /api/admin/trade-applications/:id/decision
  *   { decision: "approve", tierId, terms: "card" | "account", creditLimitMinor?, paymentDays?, reason? }
  *   { decision: "reject", reason }
- * -> the updated GarageDetail. Distributor admin only. 404 unknown garage; 409 when the application is no
+ * -> the updated TradeAccountDetail. Distributor admin only. 404 unknown garage; 409 when the application is no
  * longer pending (decided already, twice, or suspended); 422 for bad terms or an unknown tier.
  * The status moves with a guarded UPDATE (… WHERE status = 'pending'), so two admins cannot both decide.
  * The decision is audited; the garage is e-mailed after the commit either way.
  */
 import { DecisionSchema, IdParamSchema } from '#shared/schemas/accounts'
 import { DiscountTier, Organisation } from '../../../../models/accounts'
-import { findGarage, garageDetail, garageRecipients } from '../../../../services/garages'
+import { findGarage, tradeAccountDetail, garageRecipients } from '../../../../services/trade-accounts'
 import { accountMail, termsSentence } from '../../../../services/account-mail'
 
 export default defineEventHandler(async (event) => {
-  const { user } = requireAbility(event, 'accounts.decide')
+  const { user } = requireAbility(event, 'tradeAccounts.decide')
   const { id } = paramsWith(event, IdParamSchema)
   const body = await bodyWith(event, DecisionSchema)
   const org = await findGarage(id)
@@ -61,5 +61,5 @@ export default defineEventHandler(async (event) => {
       })
     : accountMail.rejected({ businessName: fresh.name, reason: fresh.decisionReason ?? '', applyUrl: appLink('/apply') })
   await sendMail({ to: await garageRecipients(fresh), ...mail })
-  return garageDetail(fresh)
+  return tradeAccountDetail(fresh)
 })

@@ -5,11 +5,11 @@
  */
 import { stat } from 'node:fs/promises'
 import { IdParamSchema } from '#shared/schemas/accounts'
-import { findGarage, latestProof } from '../../../../services/garages'
+import { findGarage, latestProof } from '../../../../services/trade-accounts'
 import { openProof, proofPath } from '../../../../services/proof-upload'
 
 export default defineEventHandler(async (event) => {
-  requireAbility(event, 'accounts.view')
+  requireAbility(event, 'tradeAccounts.view')
   const { id } = paramsWith(event, IdParamSchema)
   const org = await findGarage(id)
   const doc = org ? await latestProof(org.id) : null

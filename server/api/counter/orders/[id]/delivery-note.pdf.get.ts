@@ -12,7 +12,7 @@ export default defineEventHandler(async (event) => {
   const { id } = paramsWith(event, OrderParamsSchema)
   const order = await Order.findByPk(id)
   if (!order) throw notFound('Order')
-  if (!['queued', 'picking', 'dispatched', 'delivered'].includes(order.status)) throw conflict('There is no delivery note for an order that is not confirmed.')
+  if (!['confirmed', 'picking', 'dispatched', 'delivered'].includes(order.status)) throw conflict('There is no delivery note for an order that is not confirmed.')
   const pdf = await deliveryNotePdf(order.id)
   setResponseHeaders(event, {
     'content-type': 'application/pdf',

@@ -18,7 +18,7 @@ export default defineEventHandler(async (event) => {
   if (line.kind === 'core_deposit') {
     throw conflict('A core deposit goes with its part: remove the part, or mark the deposit as absorbed by the garage.')
   }
-  const target = await quoteWrite(() => withWrite(async (t) => {
+  const target = await withWrite(async (t) => {
     const { quote: q, lineIds } = await editableQuote(t, quote, auth.user.id)
     const id = lineIds?.get(line.id) ?? line.id
     await QuoteLine.destroy({ where: { quoteId: q.id, [Op.or]: [{ id }, { parentLineId: id }] }, transaction: t })
@@ -28,6 +28,6 @@ export default defineEventHandler(async (event) => {
       changes: { line: id, kind: line.kind, sku: line.sku, amountMinor: line.amountMinor },
     })
     return q
-  }))
+  })
   return quoteAnswer(target, auth)
 })

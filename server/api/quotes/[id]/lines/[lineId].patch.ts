@@ -26,10 +26,10 @@ export default defineEventHandler(async (event) => {
   if (!line) throw notFound('Quote line')
   if (PRICING.some((k) => body[k] !== undefined)) requirePricing(event, 'change prices, markups, rates or tax')
   if (body.toldOwnerDeclinedRequired !== undefined && !can(auth.user.role, 'quotes.send')) {
-    throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: 'Only a garage manager can record what the owner was told.' })
+    throw forbidden('Only a garage manager can record what the owner was told.')
   }
   const toldOnly = Object.entries(body).every(([k, v]) => v === undefined || k === 'toldOwnerDeclinedRequired')
-  const target = await quoteWrite(() => withWrite(async (t) => {
+  const target = await withWrite(async (t) => {
     const inPlace = toldOnly && effectiveQuoteStatus(quote.status, quote.expiresAt ?? null) === 'sent'
     const { quote: q, lineIds } = inPlace ? { quote, lineIds: null } : await editableQuote(t, quote, auth.user.id)
     const row = await QuoteLine.findOne({ where: { id: lineIds?.get(line.id) ?? line.id, quoteId: q.id }, transaction: t })
@@ -41,6 +41,6 @@ export default defineEventHandler(async (event) => {
       changes: { line: row.id, ...body },
     })
     return q
-  }))
+  })
   return quoteAnswer(target, auth)
 })

@@ -20,7 +20,7 @@ export default defineEventHandler(async (event) => {
   const inspection = await Inspection.findOne({ where: { id: inspectionId, organisationId: auth.org.id } })
   if (!inspection) throw invalidInput({ inspectionId: 'No such inspection at this garage.' })
   if (inspection.vehicleId !== quote.vehicleId) throw invalidInput({ inspectionId: 'That inspection is of another vehicle.' })
-  const result = await quoteWrite(() => withWrite(async (t) => {
+  const result = await withWrite(async (t) => {
     const { quote: q } = await editableQuote(t, quote, auth.user.id)
     q.inspectionId = inspection.id
     q.findings = findingsOf(inspection)
@@ -31,6 +31,6 @@ export default defineEventHandler(async (event) => {
       changes: { inspectionId: inspection.id, added: added.map((l) => l.sku), skipped: skipped.length },
     })
     return { q, added: added.length, skipped }
-  }))
+  })
   return { ...(await quoteAnswer(result.q, auth)), added: result.added, skipped: result.skipped }
 })

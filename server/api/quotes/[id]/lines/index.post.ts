@@ -2,7 +2,7 @@
  * POST /api/quotes/:id/lines
  *   { kind: "part" | "labour" | "sundry" | "discount", sku?, quantity?, description?, hours?, amountMinor?,
  *     recommendation?: "required" | "advised", markupBp?, rateMinor?, taxBp? }
- * A part line captures the garage's net price now (active price list less its tier), applies the garage's
+ * A part line captures the garage's net price now (active price version less its tier), applies the garage's
  * markup rule and, for a remanufactured unit, adds a core-deposit line. Labour takes the garage's rate. Sundries
  * and discounts take `amountMinor` (a discount's size, taken off). Prices, markups, rates, tax rates and
  * discounts are set by managers; technicians add parts, labour and unpriced sundries.
@@ -20,7 +20,7 @@ export default defineEventHandler(async (event) => {
   if (body.markupBp !== undefined || body.rateMinor !== undefined || body.taxBp !== undefined || body.amountMinor !== undefined) {
     requirePricing(event, 'set prices, markups, rates or tax')
   }
-  const { target, added } = await quoteWrite(() => withWrite(async (t) => {
+  const { target, added } = await withWrite(async (t) => {
     const { quote: q } = await editableQuote(t, quote, auth.user.id)
     const lines = await addLine(t, q, auth.org, body)
     await assertDiscountsFit(t, q.id)
@@ -29,7 +29,7 @@ export default defineEventHandler(async (event) => {
       changes: { kind: body.kind, sku: lines[0]!.sku, quantity: lines[0]!.quantity, amountMinor: lines[0]!.amountMinor, lines: lines.map((l) => l.id) },
     })
     return { target: q, added: lines.map((l) => l.id) }
-  }))
+  })
   setResponseStatus(event, 201)
   return { ...(await quoteAnswer(target, auth)), addedLineIds: added }
 })

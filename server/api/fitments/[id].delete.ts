@@ -1,0 +1,11 @@
+/** DELETE /api/fitments/:id -> 204. Audited. */
+import { FitmentIdParamsSchema } from '#shared/schemas/parts'
+import { deleteFitment } from '../../services/catalogue/upkeep'
+
+export default defineEventHandler(async (event) => {
+  const { user } = requireAbility(event, 'catalogue.edit')
+  const { id } = paramsWith(event, FitmentIdParamsSchema)
+  await deleteFitment(user.id, id)
+  setResponseStatus(event, 204)
+  return null
+})

@@ -1,0 +1,11 @@
+/** PATCH /api/fitments/:id  { axle?, side?, quantity?, qualifiers?, note? } -> { id }. Same checks as adding. Audited. */
+import { FitmentIdParamsSchema, FitmentPatchSchema } from '#shared/schemas/parts'
+import { patchFitment } from '../../services/catalogue/upkeep'
+
+export default defineEventHandler(async (event) => {
+  const { user } = requireAbility(event, 'catalogue.edit')
+  const { id } = paramsWith(event, FitmentIdParamsSchema)
+  const input = await bodyWith(event, FitmentPatchSchema)
+  const f = await patchFitment(user.id, id, input)
+  return { id: f.id }
+})

@@ -1,0 +1,14 @@
+/**
+ * PATCH /api/parts/:sku  { productLine?, description?, status?, specs?, oeNumbers? } -> { sku }.
+ * `specs` replaces the whole specification and is checked against the part type's schema. Audited with before/after.
+ */
+import { PartPatchSchema, SkuParamsSchema } from '#shared/schemas/parts'
+import { patchPart } from '../../services/catalogue/upkeep'
+
+export default defineEventHandler(async (event) => {
+  const { user } = requireAbility(event, 'catalogue.edit')
+  const { sku } = paramsWith(event, SkuParamsSchema)
+  const input = await bodyWith(event, PartPatchSchema)
+  const part = await patchPart(user.id, sku, input)
+  return { sku: part.sku }
+})

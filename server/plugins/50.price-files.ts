@@ -1,0 +1,19 @@
+/**
+ * Price files at start and while running: where uploaded files live, checks interrupted by a restart run
+ * again, scheduled versions take effect on time (a sweep every 15 s, plus a timer set when scheduling), and the
+ * catalogue snapshot that checks compare against is kept warm.
+ */
+import { setUploadsRoot, recoverUploads, warmSnapshot } from '../services/price-files/check'
+import { activateDue } from '../services/price-files/apply'
+
+export default defineNitroPlugin((nitro) => {
+  setUploadsRoot(String(useRuntimeConfig().uploadsDir || './uploads'))
+  const sweep = () => activateDue().catch((err) => console.error('[boreline] price schedule:', err?.message ?? err))
+  databaseReady()
+    // the compared catalogue is built once in the background, so the first price file's preview does not wait for it
+    .then(async () => { await recoverUploads(); await sweep(); if (process.env.BORELINE_PRICE_SNAPSHOT_AT_START !== '0') await warmSnapshot() })
+    .catch((err) => console.error('[boreline] price files not recovered:', err?.message ?? err))
+  const every = setInterval(sweep, 15_000)
+  every.unref?.()
+  nitro.hooks.hook('close', () => clearInterval(every))
+})
