@@ -1,4 +1,4 @@
-import { DataTypes, type QueryInterface } from 'sequelize'
+import type { QueryInterface } from 'sequelize'
 
 /**
  * Quotes: each garage's quoting settings, its quotes (one row per revision: a change to a sent quote makes a

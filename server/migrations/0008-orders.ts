@@ -1,4 +1,4 @@
-import { DataTypes, type QueryInterface } from 'sequelize'
+import type { QueryInterface } from 'sequelize'
 
 /**
  * Orders and payments: distributor orders with their lines, the payment events already handled (event id

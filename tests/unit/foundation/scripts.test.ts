@@ -14,7 +14,7 @@ const run = (script: string, args: string[]) =>
 
 function query<T>(file: string, sql: string): Promise<T[]> {
   const d = new sqlite3.Database(file, sqlite3.OPEN_READONLY)
-  return new Promise((res, rej) => d.all(sql, (e, rows) => { d.close(); e ? rej(e) : res(rows as T[]) }))
+  return new Promise((res, rej) => d.all(sql, (e, rows) => { d.close(); if (e) rej(e); else res(rows as T[]) }))
 }
 
 afterAll(() => rmSync(dir, { recursive: true, force: true }))
