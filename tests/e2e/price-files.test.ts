@@ -7,7 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import sqlite3 from 'sqlite3'
 import ExcelJS from 'exceljs'
 import { parse as parseCsvSync } from 'csv-parse/sync'
-import { netPriceMinor } from '#shared/utils/money'
+import { all as mathAll, create } from 'mathjs'
 import { existsSync, readdirSync } from 'node:fs'
 import { join, resolve } from 'node:path'
 import type { PageMeta } from '#shared/types/page'
@@ -83,6 +83,17 @@ async function changes(c: Client, id: number, kind: string, extra = '') {
 }
 
 const rollback = (c: Client, id: number) => c.post(`/api/price-files/${id}/rollback`)
+
+/**
+ * The garage's net price worked independently of the server: list price x (1 - tier %), in exact decimal
+ * arithmetic (mathjs BigNumber), rounded to the penny half away from zero (common practice for money; mathjs rounds
+ * BigNumber halves away from zero). Hand-worked: 1,234p at 12.5 % is 1,234 x 0.875 = 1,079.75p -> 1,080p;
+ * 101p at 50 % is 50.5p -> 51p.
+ */
+const exact = create(mathAll, { number: 'BigNumber', precision: 64 })
+function expectedNetMinor(listMinor: number, tierBp: number): number {
+  return Number(exact.round(exact.evaluate(`${listMinor} * (1 - ${tierBp} / 10000)`)))
+}
 
 /** The fields of a quote line these tests read. */
 interface QuoteLine { id: number; sku: string | null; kind: string; unitNetMinor: number; unitPriceMinor: number }
@@ -600,8 +611,10 @@ describe('apply and roll back', () => {
     const line = await manager.post(`/api/quotes/${quote.body.id}/lines`, { kind: 'part', sku: p!.sku, quantity: 1 })
     expect(line.status, line.text).toBe(201)
     const captured = line.body.lines.find((l: QuoteLine) => l.sku === p!.sku && l.kind === 'part')
-    // the garage's net price when the line was added: list less the tier (shared/utils/money netPriceMinor)
-    expect(captured.unitNetMinor).toBe(netPriceMinor(p!.list, tier.percent_bp))
+    // the oracle itself, against the values worked by hand above
+    expect([expectedNetMinor(1234, 1250), expectedNetMinor(101, 5000)]).toEqual([1080, 51])
+    // the garage's net price when the line was added: list less the tier
+    expect(captured.unitNetMinor).toBe(expectedNetMinor(p!.list, tier.percent_bp))
 
     const d = await uploadAndCheck(counter, csv([HEAD, [p!.sku, '', '', money(p!.list + 250), '', '', '']]), 'quote-check.csv')
     const ok = await counter.post(`/api/price-files/${d.id}/apply`, { confirmLargeChanges: true })
@@ -614,7 +627,7 @@ describe('apply and roll back', () => {
       const again = await manager.post(`/api/quotes/${quote.body.id}/lines`, { kind: 'part', sku: p!.sku, quantity: 1 })
       expect(again.status, again.text).toBe(201)
       const fresh = again.body.lines.find((l: QuoteLine) => l.sku === p!.sku && l.id !== captured.id && l.kind === 'part')
-      expect(fresh.unitNetMinor).toBe(netPriceMinor(p!.list + 250, tier.percent_bp))
+      expect(fresh.unitNetMinor).toBe(expectedNetMinor(p!.list + 250, tier.percent_bp))
     } finally {
       expect((await rollback(counter, d.id)).status).toBe(200)
     }
