@@ -14,7 +14,7 @@
  *      preview, apply (the largest possible apply: 200,000 new parts).
  * Measured: wall times, the server's peak resident memory (VmHWM), and GET /api/health latency sampled
  * continuously (one request in flight, every 25 ms) while each file is uploaded, checked and applied.
- * Targets (issue 8): preview + apply within 6x the `.import` time; peak memory under 500 MB; health p99 under 200 ms.
+ * Targets: preview + apply within 6x the `.import` time; peak memory under 500 MB; health p99 under 200 ms.
  */
 import { spawn, spawnSync } from 'node:child_process'
 import { appendFileSync, mkdtempSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs'
@@ -211,12 +211,12 @@ async function main() {
       const fd = new FormData()
       fd.append('supplierName', 'Bench Supplier')
       fd.append('file', new Blob([content]), `${label}.csv`)
-      const up = await api('/api/price-files', { method: 'POST', body: fd })
+      const priceFile = await api('/api/price-files', { method: 'POST', body: fd })
       const tUploaded = performance.now()
       phase = 'check'
-      let detail: any
+      let detail: { status: string; errorMessage: string | null; counts: Record<string, number> }
       for (;;) {
-        detail = await api(`/api/price-files/${up.id}`)
+        detail = await api(`/api/price-files/${priceFile.id}`)
         if (detail.status !== 'parsing') break
         await new Promise((r) => setTimeout(r, 50))
       }
@@ -224,7 +224,7 @@ async function main() {
       if (detail.status !== 'ready') throw new Error(`check ended ${detail.status}: ${detail.errorMessage}`)
       const tA = performance.now()
       phase = 'apply'
-      await api(`/api/price-files/${up.id}/apply`, {
+      await api(`/api/price-files/${priceFile.id}/apply`, {
         method: 'POST', headers: { 'content-type': 'application/json' },
         body: JSON.stringify({ confirmLargeChanges: true, excludeRejected: true }),
       })
@@ -236,7 +236,7 @@ async function main() {
       let rollbackMs: number | null = null
       if (opts.rollback) {
         const tr = performance.now()
-        await api(`/api/price-files/${up.id}/rollback`, { method: 'POST' })
+        await api(`/api/price-files/${priceFile.id}/rollback`, { method: 'POST' })
         rollbackMs = performance.now() - tr
       }
       return {

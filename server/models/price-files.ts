@@ -1,5 +1,5 @@
 /**
- * Price-file models: an upload with its check, and column mappings remembered per supplier. JSON columns
+ * Price-file models: a price file with its check, and column mappings remembered per supplier. JSON columns
  * (`headers`, `mapping`) are text, exposed parsed. What a check found lives in `price_file_findings`, written
  * and read as JSON chunks by server/services/price-files/findings.ts (no model: never one row at a time).
  */

@@ -3,15 +3,17 @@
  * again, scheduled versions take effect on time (a sweep every 15 s, plus a timer set when scheduling), and the
  * catalogue snapshot that checks compare against is kept warm.
  */
-import { setUploadsRoot, recoverUploads, warmSnapshot } from '../services/price-files/check'
-import { activateDue } from '../services/price-files/apply'
+import { setUploadsRoot } from '../services/price-files/storage'
+import { recoverPriceFiles } from '../services/price-files/queue'
+import { warmSnapshot } from '../services/price-files/snapshot'
+import { activateDue } from '../services/price-files/schedule'
 
 export default defineNitroPlugin((nitro) => {
   setUploadsRoot(String(useRuntimeConfig().uploadsDir || './uploads'))
   const sweep = () => activateDue().catch((err) => console.error('[boreline] price schedule:', err?.message ?? err))
   databaseReady()
     // the compared catalogue is built once in the background, so the first price file's preview does not wait for it
-    .then(async () => { await recoverUploads(); await sweep(); if (process.env.BORELINE_PRICE_SNAPSHOT_AT_START !== '0') await warmSnapshot() })
+    .then(async () => { await recoverPriceFiles(); await sweep(); if (process.env.BORELINE_PRICE_SNAPSHOT_AT_START !== '0') await warmSnapshot() })
     .catch((err) => console.error('[boreline] price files not recovered:', err?.message ?? err))
   const every = setInterval(sweep, 15_000)
   every.unref?.()

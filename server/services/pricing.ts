@@ -4,8 +4,9 @@
  */
 import { Op, type Transaction } from 'sequelize'
 import { DiscountTier, type Organisation } from '../models/accounts'
-import { PartPrice, Part, PriceVersion } from '../models/catalogue'
+import { PartPrice, Part } from '../models/catalogue'
 import { netPriceMinor } from '../../shared/utils/money'
+import { activePriceVersion } from './price-versions'
 
 /** A part's price for one garage. */
 export interface GaragePrice {
@@ -14,11 +15,6 @@ export interface GaragePrice {
   coreDepositMinor: number
   /** the garage's net unit price */
   unitNetMinor: number
-}
-
-/** The one active price version, or null before any has been loaded. */
-export function activePriceVersion(t?: Transaction): Promise<PriceVersion | null> {
-  return PriceVersion.findOne({ where: { status: 'active' }, order: [['activatedAt', 'DESC'], ['id', 'DESC']], transaction: t })
 }
 
 /** The garage's discount in basis points (0 without a tier). */
@@ -30,13 +26,12 @@ export async function tierBpOf(org: Pick<Organisation, 'tierId'>, t?: Transactio
 
 /**
  * Current prices of the given SKUs for a garage, keyed by SKU as stored. SKUs with no part, or no price on
- * the active list, are simply absent from the map (the caller says why).
+ * the active price version, are simply absent from the map (the caller says why).
  */
 export async function garagePrices(org: Pick<Organisation, 'tierId'>, skus: string[], t?: Transaction): Promise<Map<string, GaragePrice>> {
   const out = new Map<string, GaragePrice>()
   if (!skus.length) return out
-  const list = await activePriceVersion(t)
-  if (!list) return out
+  if (!(await activePriceVersion(t))) return out
   const bp = await tierBpOf(org, t)
   const parts = await Part.findAll({ where: { sku: { [Op.in]: [...new Set(skus)] } }, transaction: t })
   if (!parts.length) return out

@@ -1,8 +1,9 @@
 /**
- * Inputs of the price-list routes, used by the routes and by the forms that send them.
+ * Inputs of the price-file routes, used by the routes and by the forms that send them.
  */
 import { z } from 'zod'
 import { MAPPING_FIELDS } from '../types/price-files'
+import { PageQuerySchema } from './page'
 
 /** How the person says the file separates columns; `auto` = detect from the header row. */
 export const DELIMITER_CHOICES = { auto: null, comma: ',', semicolon: ';', tab: '\t' } as const
@@ -56,16 +57,16 @@ export const ApplySchema = z.object({
 })
 export type ApplyInput = z.infer<typeof ApplySchema>
 
-export const UploadIdParamsSchema = z.object({
+export const PriceFileIdParamsSchema = z.object({
   id: z.coerce.number({ message: 'Not a price file id.' }).int('Not a price file id.').positive('Not a price file id.'),
 })
 
 export const CHANGE_SORTS = ['row', 'sku', 'change', 'old', 'new'] as const
+export type ChangeSort = (typeof CHANGE_SORTS)[number]
 
-export const ChangesQuerySchema = z.object({
+/** GET /api/price-files/:id/changes: one page of one kind of finding, with its filters and sort. */
+export const ChangesQuerySchema = PageQuerySchema.extend({
   kind: z.enum(['new', 'changed', 'unchanged', 'missing', 'rejected'], { message: 'Unknown kind of change.' }).optional().default('changed'),
-  page: z.coerce.number().int().min(1).optional().default(1),
-  pageSize: z.coerce.number().int().min(1).max(200).optional().default(50),
   sort: z.enum(CHANGE_SORTS, { message: 'Sort by row, sku, change, old or new.' }).optional().default('row'),
   dir: z.enum(['asc', 'desc']).optional().default('asc'),
   /** part of a SKU or description */
@@ -76,8 +77,3 @@ export const ChangesQuerySchema = z.object({
   direction: z.enum(['up', 'down', 'any']).optional().default('any'),
 })
 export type ChangesQuery = z.infer<typeof ChangesQuerySchema>
-
-export const ListQuerySchema = z.object({
-  page: z.coerce.number().int().min(1).optional().default(1),
-  pageSize: z.coerce.number().int().min(1).max(100).optional().default(20),
-})

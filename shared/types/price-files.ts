@@ -1,10 +1,11 @@
 /**
- * Price files: the statuses an upload goes through, what the check finds per row, and the shapes the
- * price-list routes return. Shared by the server routes and the pages.
+ * Price files: the statuses a price file goes through, what the check finds per row, and the shapes the
+ * price-file routes return. Shared by the server routes and the pages.
  */
+import type { Page } from './page'
 
-export const UPLOAD_STATUSES = ['uploaded', 'parsing', 'ready', 'failed', 'applying', 'applied', 'scheduled', 'rolled_back'] as const
-export type PriceFileStatus = (typeof UPLOAD_STATUSES)[number]
+export const PRICE_FILE_STATUSES = ['uploaded', 'parsing', 'ready', 'failed', 'applying', 'applied', 'scheduled', 'rolled_back'] as const
+export type PriceFileStatus = (typeof PRICE_FILE_STATUSES)[number]
 
 export const CHANGE_KINDS = ['new', 'changed', 'unchanged', 'missing', 'rejected'] as const
 export type ChangeKind = (typeof CHANGE_KINDS)[number]
@@ -46,7 +47,7 @@ export const PRICE_FILE_PART_TYPES = [
   'pad_set', 'disc', 'drum', 'shoe_set', 'caliper', 'wheel_cylinder', 'master_cylinder', 'hose', 'fluid', 'fitting_kit', 'wear_sensor',
 ] as const
 
-export interface UploadCounts {
+export interface PriceFileCounts {
   rows: number
   new: number
   changed: number
@@ -76,7 +77,7 @@ export interface PriceFileSummary {
   fileFormat: 'csv' | 'xlsx'
   supplierName: string
   progress: number
-  counts: UploadCounts
+  counts: PriceFileCounts
   createdAt: string
   createdBy: string | null
   version: number | null
@@ -106,7 +107,7 @@ export interface PriceFileDetail extends PriceFileSummary {
   excludeRejected: boolean
   baseVersion: number | null
   activeVersion: number | null
-  /** applied or scheduled: the version this upload created and the one active before it */
+  /** applied or scheduled: the version this file made and the one active before it */
   priceVersionId: number | null
   previousVersion: number | null
   appliedAt: string | null
@@ -141,13 +142,15 @@ export interface PriceChangeRow {
   reason: string | null
 }
 
-export interface Paged<T> {
-  data: T[]
-  meta: { page: number; pageSize: number; total: number; pages: number }
+/** GET /api/price-files: one page of price files, with the latest versions and the remembered suppliers. */
+export interface PriceFileList extends Page<PriceFileSummary> {
+  versions: PriceVersionSummary[]
+  activeVersion: number | null
+  suppliers: string[]
 }
 
 /** People's words for each status (our own). */
-export const UPLOAD_STATUS_LABELS: Record<PriceFileStatus, string> = {
+export const PRICE_FILE_STATUS_LABELS: Record<PriceFileStatus, string> = {
   uploaded: 'Needs column choices',
   parsing: 'Checking',
   ready: 'Checked, not in use',
@@ -156,4 +159,11 @@ export const UPLOAD_STATUS_LABELS: Record<PriceFileStatus, string> = {
   applied: 'Applied',
   scheduled: 'Scheduled',
   rolled_back: 'Withdrawn',
+}
+
+/** What a running check is doing, in people's words (the detail's `stage`). */
+export const CHECK_STAGE_LABELS: Record<string, string> = {
+  queued: 'Waiting for the file ahead of it…',
+  reading: 'Reading and checking rows…',
+  comparing: 'Comparing with the prices in use…',
 }

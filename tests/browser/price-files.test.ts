@@ -9,7 +9,6 @@ import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import sqlite3 from 'sqlite3'
 import type { Browser, BrowserContext, Page } from 'playwright-core'
-import { formatMinor } from '#shared/utils/money'
 import { env, people } from '../support/api'
 import { foreignRequests, launch, newContext, shot, signInThroughForm } from '../support/browser'
 
@@ -20,7 +19,8 @@ function query<T>(sql: string, params: unknown[] = []): Promise<T[]> {
   return new Promise((res, rej) => db.all(sql, params, (err, rows) => { db.close(); if (err) rej(err); else res(rows as T[]) }))
 }
 
-const gbp = (minor: number) => formatMinor(minor, 'GBP', 'en-GB')
+/** Pounds as the demo installation shows them (GBP, en-GB), written by Intl here rather than by the app's own formatter. */
+const gbp = (minor: number) => new Intl.NumberFormat('en-GB', { style: 'currency', currency: 'GBP' }).format(minor / 100)
 const amount = (minor: number) => (minor / 100).toFixed(2)
 
 describe('price files in Chromium', () => {
@@ -72,7 +72,7 @@ describe('price files in Chromium', () => {
     await page.getByRole('button', { name: 'Upload and check' }).click()
     await page.waitForURL(/\/price-files\/\d+$/)
     await page.getByText('Needs column choices').first().waitFor()
-    await expect(page.getByTestId('upload-message').textContent()).resolves.toMatch(/No column is chosen for the list price/)
+    await expect(page.getByTestId('price-file-message').textContent()).resolves.toMatch(/No column is chosen for the list price/)
     const listSelect = page.locator('select[name="mapping-listPrice"]')
     await expect(listSelect.locator('xpath=..').textContent()).resolves.toMatch(/No column is chosen for the list price/)
     await expect(page.locator('select[name="mapping-sku"]').inputValue()).resolves.toBe('Part ref')

@@ -7,9 +7,11 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import sqlite3 from 'sqlite3'
 import ExcelJS from 'exceljs'
 import { parse as parseCsvSync } from 'csv-parse/sync'
-import { netPriceMinor } from '#shared/utils/money'
+import { all as mathAll, create } from 'mathjs'
 import { existsSync, readdirSync } from 'node:fs'
 import { join, resolve } from 'node:path'
+import type { PageMeta } from '#shared/types/page'
+import type { PriceChangeRow, PriceFileDetail, PriceVersionSummary } from '#shared/types/price-files'
 import { Client, as, env, people, waitForMail, type Res } from '../support/api'
 import { buildZip } from '../unit/price-files/zip-fixture'
 
@@ -24,9 +26,9 @@ async function one<T = Record<string, unknown>>(sql: string, params: unknown[] =
 }
 
 interface PriceRow { part_id: number; list_price_minor: number; trade_cost_minor: number | null; core_deposit_minor: number; pack_quantity: number }
-const activeList = () => one<{ id: number; version: number }>(`SELECT id, version FROM price_versions WHERE status = 'active'`)
-/** The prices in use (one row per part); `_listId` names the version they should be, for the reader. */
-const pricesOf = (_listId: number) => all<PriceRow>(
+const activeVersion = () => one<{ id: number; version: number }>(`SELECT id, version FROM price_versions WHERE status = 'active'`)
+/** The prices in use (one row per part); `_versionId` names the version they should be, for the reader. */
+const pricesOf = (_versionId: number) => all<PriceRow>(
   'SELECT part_id, list_price_minor, trade_cost_minor, core_deposit_minor, pack_quantity FROM part_prices ORDER BY part_id')
 const setBy = () => all<{ part_id: number; price_version_id: number }>('SELECT part_id, price_version_id FROM part_prices ORDER BY part_id')
 
@@ -53,14 +55,14 @@ async function upload(c: Client, content: string | Buffer, name = 'prices.csv', 
   return c.request('/api/price-files', { method: 'POST', body: fd })
 }
 
-/** Waits for the check to end; returns the upload's detail. */
+/** Waits for the check to end; returns the price file's detail. */
 async function settled(c: Client, id: number, timeoutMs = 90_000) {
   const until = Date.now() + timeoutMs
   for (;;) {
     const r = await c.get(`/api/price-files/${id}`)
     expect(r.status).toBe(200)
     if (r.body.status !== 'parsing') return r.body
-    if (Date.now() > until) throw new Error(`check of upload ${id} did not finish`)
+    if (Date.now() > until) throw new Error(`check of price file ${id} did not finish`)
     await new Promise((res) => setTimeout(res, 150))
   }
 }
@@ -73,14 +75,28 @@ async function uploadAndCheck(c: Client, content: string | Buffer, name?: string
 }
 
 async function changes(c: Client, id: number, kind: string, extra = '') {
-  const query = new URLSearchParams({ kind, pageSize: '200' })
+  const query = new URLSearchParams({ kind, pageSize: '100' })
   for (const [k, v] of new URLSearchParams(extra)) query.set(k, v)
   const r = await c.get(`/api/price-files/${id}/changes?${query}`)
   expect(r.status).toBe(200)
-  return r.body as { data: any[]; meta: { total: number } }
+  return r.body as { data: PriceChangeRow[]; meta: PageMeta }
 }
 
 const rollback = (c: Client, id: number) => c.post(`/api/price-files/${id}/rollback`)
+
+/**
+ * The garage's net price worked independently of the server: list price x (1 - tier %), in exact decimal
+ * arithmetic (mathjs BigNumber), rounded to the penny half away from zero (common practice for money; mathjs rounds
+ * BigNumber halves away from zero). Hand-worked: 1,234p at 12.5 % is 1,234 x 0.875 = 1,079.75p -> 1,080p;
+ * 101p at 50 % is 50.5p -> 51p.
+ */
+const exact = create(mathAll, { number: 'BigNumber', precision: 64 })
+function expectedNetMinor(listMinor: number, tierBp: number): number {
+  return Number(exact.round(exact.evaluate(`${listMinor} * (1 - ${tierBp} / 10000)`)))
+}
+
+/** The fields of a quote line these tests read. */
+interface QuoteLine { id: number; sku: string | null; kind: string; unitNetMinor: number; unitPriceMinor: number }
 
 let counter: Client
 let admin: Client
@@ -96,7 +112,7 @@ const HEAD = ['sku', 'description', 'type', 'list_price', 'trade_cost', 'core_de
 
 // ---------------------------------------------------------------------------------------------- roles
 
-describe('who may use the price-list routes', () => {
+describe('who may use the price-file routes', () => {
   const routes: [string, string][] = [
     ['GET', '/api/price-files'], ['POST', '/api/price-files'], ['GET', '/api/price-files/1'], ['PATCH', '/api/price-files/1'],
     ['GET', '/api/price-files/1/changes'], ['GET', '/api/price-files/1/rejects.csv'],
@@ -325,7 +341,7 @@ describe('the preview matches the file', () => {
     expect(moved.data[0].large).toBe(true)
     expect(moved.data[0].changePct).toBeCloseTo(50, 0)
     const pcts = moved.data.map((r) => r.changePct)
-    expect(pcts).toEqual([...pcts].sort((x, y) => y - x))
+    expect(pcts).toEqual([...pcts].sort((x, y) => y! - x!))
     expect((await changes(counter, d.id, 'changed', '&large=1')).meta.total).toBe(expected.large)
     expect((await changes(counter, d.id, 'changed', '&direction=down')).data.map((r) => r.sku)).toEqual([parts[12]!.sku])
     expect((await changes(counter, d.id, 'changed', `&q=${encodeURIComponent(parts[5]!.sku)}`)).data.map((r) => r.sku)).toEqual([parts[5]!.sku])
@@ -403,7 +419,7 @@ describe('the preview matches the file', () => {
 
 describe('apply and roll back', () => {
   it('applies a complete new version atomically, and rolling back restores every price exactly', async () => {
-    const start = await activeList()
+    const start = await activeVersion()
     const before = await pricesOf(start.id)
     const setByBefore = await setBy()
     const statusBefore = await all<{ id: number; status: string }>('SELECT id, status FROM parts ORDER BY id')
@@ -419,7 +435,7 @@ describe('apply and roll back', () => {
     expect(applied.status, applied.text).toBe(200)
     expect(applied.body).toMatchObject({ status: 'applied', version: start.version + 1 })
     try {
-      const now = await activeList()
+      const now = await activeVersion()
       expect(now.id).toBe(applied.body.priceVersionId)
       const after = await pricesOf(now.id)
       const byPart = new Map(after.map((r) => [r.part_id, r]))
@@ -466,7 +482,7 @@ describe('apply and roll back', () => {
       expect(rb.status, rb.text).toBe(200)
       expect(rb.body).toMatchObject({ status: 'rolled_back', activeVersion: start.version })
     }
-    const back = await activeList()
+    const back = await activeVersion()
     expect(back.id).toBe(start.id)
     expect(await pricesOf(back.id)).toEqual(before)
     expect(await setBy()).toEqual(setByBefore) // even which version set each price
@@ -479,22 +495,22 @@ describe('apply and roll back', () => {
   })
 
   it('needs an explicit confirmation for changes beyond 30 %', async () => {
-    const start = await activeList()
+    const start = await activeVersion()
     const [p] = await demoParts(1, 5)
     const d = await uploadAndCheck(counter, csv([HEAD, [p!.sku, '', '', money(Math.round(p!.list * 1.31) + 1), '', '', '']]), 'jump.csv')
     expect(d.counts).toMatchObject({ changed: 1, large: 1 })
     const r = await counter.post(`/api/price-files/${d.id}/apply`, {})
     expect(r.status).toBe(422)
     expect(r.body.data.fields.confirmLargeChanges).toMatch(/1 price moves by more than 30 %/)
-    expect((await activeList()).id).toBe(start.id)
+    expect((await activeVersion()).id).toBe(start.id)
     const ok = await counter.post(`/api/price-files/${d.id}/apply`, { confirmLargeChanges: true })
     expect(ok.status).toBe(200)
     expect((await rollback(counter, d.id)).status).toBe(200)
-    expect((await activeList()).id).toBe(start.id)
+    expect((await activeVersion()).id).toBe(start.id)
   })
 
   it('an apply that fails midway (inside its transaction) leaves the old version in use, untouched', async () => {
-    const start = await activeList()
+    const start = await activeVersion()
     const before = await pricesOf(start.id)
     const partCount = await one<{ n: number }>('SELECT COUNT(*) AS n FROM parts')
     const stockBefore = await all('SELECT * FROM stock_levels ORDER BY part_id, branch_id')
@@ -508,7 +524,7 @@ describe('apply and roll back', () => {
     })
     expect(killed.status).toBe(500)
     expect(killed.body.message).toMatch(/undone: the prices in use are unchanged/)
-    expect(await activeList()).toEqual(start)
+    expect(await activeVersion()).toEqual(start)
     expect(await pricesOf(start.id)).toEqual(before)
     expect((await one<{ n: number }>('SELECT COUNT(*) AS n FROM parts')).n).toBe(partCount.n)
     expect(await all('SELECT * FROM stock_levels ORDER BY part_id, branch_id')).toEqual(stockBefore)
@@ -521,11 +537,11 @@ describe('apply and roll back', () => {
     const ok = await counter.post(`/api/price-files/${d.id}/apply`, { confirmLargeChanges: true })
     expect(ok.status).toBe(200)
     expect((await rollback(counter, d.id)).status).toBe(200)
-    expect(await pricesOf((await activeList()).id)).toEqual(before)
+    expect(await pricesOf((await activeVersion()).id)).toEqual(before)
   })
 
   it('never mixes two files: a file checked against an older version must be checked again', async () => {
-    const start = await activeList()
+    const start = await activeVersion()
     const [p, q] = await demoParts(2, 10)
     const a = await uploadAndCheck(counter, csv([HEAD, [p!.sku, '', '', money(p!.list + 3), '', '', '']]), 'first.csv')
     const b = await uploadAndCheck(counter, csv([HEAD, [q!.sku, '', '', money(q!.list + 4), '', '', '']]), 'second.csv')
@@ -538,16 +554,15 @@ describe('apply and roll back', () => {
     const loser = ra.status === 409 ? ra : rb
     expect(loser.body.message).toMatch(/changed after this file was checked.*Check the file again/)
     const winner = ra.status === 200 ? a : b
-    const now = await activeList()
     const priceOf = async (partId: number) => (await one<{ l: number; v: number }>('SELECT list_price_minor AS l, price_version_id AS v FROM part_prices WHERE part_id = ?', [partId])).l
     // exactly one file's change is in the version in use, never both
     expect([await priceOf(p!.id), await priceOf(q!.id)]).toEqual(winner === a ? [p!.list + 3, q!.list] : [p!.list, q!.list + 4])
     expect((await rollback(counter, winner.id)).status).toBe(200)
-    expect((await activeList()).id).toBe(start.id)
+    expect((await activeVersion()).id).toBe(start.id)
   })
 
   it('schedules a version for a chosen time, refuses other applies meanwhile, and activates it on time', async () => {
-    const start = await activeList()
+    const start = await activeVersion()
     const [p, q] = await demoParts(2, 20)
     const d = await uploadAndCheck(counter, csv([HEAD, [p!.sku, '', '', money(p!.list + 11), '', '', '']]), 'scheduled.csv')
     const other = await uploadAndCheck(counter, csv([HEAD, [q!.sku, '', '', money(q!.list + 1), '', '', '']]), 'other.csv')
@@ -559,7 +574,7 @@ describe('apply and roll back', () => {
     expect(s.status, s.text).toBe(200)
     expect(s.body).toMatchObject({ status: 'scheduled', version: expect.any(Number) })
     try {
-      expect((await activeList()).id).toBe(start.id)
+      expect((await activeVersion()).id).toBe(start.id)
       const blocked = await counter.post(`/api/price-files/${other.id}/apply`, {})
       expect(blocked.status).toBe(409)
       expect(blocked.body.message).toMatch(/is scheduled for.*Cancel that schedule/)
@@ -569,24 +584,24 @@ describe('apply and roll back', () => {
       const soon = await counter.post(`/api/price-files/${d.id}/apply`, { effectiveAt: new Date(Date.now() + 8_000).toISOString() })
       expect(soon.body.status).toBe('scheduled')
       const until = Date.now() + 40_000
-      let detail: any
+      let detail: PriceFileDetail
       do {
         await new Promise((r) => setTimeout(r, 500))
         detail = (await counter.get(`/api/price-files/${d.id}`)).body
       } while (detail.status === 'scheduled' && Date.now() < until)
       expect(detail.status).toBe('applied')
-      const now = await activeList()
+      const now = await activeVersion()
       expect(now.version).toBe(soon.body.version)
       expect(await one('SELECT list_price_minor, price_version_id FROM part_prices WHERE part_id = ?', [p!.id])).toEqual({ list_price_minor: p!.list + 11, price_version_id: now.id })
     } finally {
       const detail = (await counter.get(`/api/price-files/${d.id}`)).body
       if (detail.status === 'scheduled' || detail.status === 'applied') expect((await rollback(counter, d.id)).status).toBe(200)
     }
-    expect((await activeList()).id).toBe(start.id)
+    expect((await activeVersion()).id).toBe(start.id)
   }, 90_000)
 
   it('a quote created before an apply keeps the prices its lines captured; a new line takes the new price', async () => {
-    const start = await activeList()
+    const start = await activeVersion()
     const manager = await as(people.manager) // Millbrook: Silver tier
     const vehicle = await one<{ id: number }>('SELECT id FROM vehicles ORDER BY id LIMIT 1')
     const [p] = await demoParts(1, 30)
@@ -595,32 +610,34 @@ describe('apply and roll back', () => {
     expect(quote.status, quote.text).toBe(201)
     const line = await manager.post(`/api/quotes/${quote.body.id}/lines`, { kind: 'part', sku: p!.sku, quantity: 1 })
     expect(line.status, line.text).toBe(201)
-    const captured = line.body.lines.find((l: any) => l.sku === p!.sku && l.kind === 'part')
-    // the garage's net price when the line was added: list less the tier (shared/utils/money netPriceMinor)
-    expect(captured.unitNetMinor).toBe(netPriceMinor(p!.list, tier.percent_bp))
+    const captured = line.body.lines.find((l: QuoteLine) => l.sku === p!.sku && l.kind === 'part')
+    // the oracle itself, against the values worked by hand above
+    expect([expectedNetMinor(1234, 1250), expectedNetMinor(101, 5000)]).toEqual([1080, 51])
+    // the garage's net price when the line was added: list less the tier
+    expect(captured.unitNetMinor).toBe(expectedNetMinor(p!.list, tier.percent_bp))
 
     const d = await uploadAndCheck(counter, csv([HEAD, [p!.sku, '', '', money(p!.list + 250), '', '', '']]), 'quote-check.csv')
     const ok = await counter.post(`/api/price-files/${d.id}/apply`, { confirmLargeChanges: true })
     expect(ok.status).toBe(200)
     try {
       const after = await manager.get(`/api/quotes/${quote.body.id}`)
-      const kept = after.body.lines.find((l: any) => l.id === captured.id)
+      const kept = after.body.lines.find((l: QuoteLine) => l.id === captured.id)
       expect(kept.unitNetMinor).toBe(captured.unitNetMinor)
       expect(kept.unitPriceMinor).toBe(captured.unitPriceMinor)
       const again = await manager.post(`/api/quotes/${quote.body.id}/lines`, { kind: 'part', sku: p!.sku, quantity: 1 })
       expect(again.status, again.text).toBe(201)
-      const fresh = again.body.lines.find((l: any) => l.sku === p!.sku && l.id !== captured.id && l.kind === 'part')
-      expect(fresh.unitNetMinor).toBe(netPriceMinor(p!.list + 250, tier.percent_bp))
+      const fresh = again.body.lines.find((l: QuoteLine) => l.sku === p!.sku && l.id !== captured.id && l.kind === 'part')
+      expect(fresh.unitNetMinor).toBe(expectedNetMinor(p!.list + 250, tier.percent_bp))
     } finally {
       expect((await rollback(counter, d.id)).status).toBe(200)
     }
-    expect((await activeList()).id).toBe(start.id)
+    expect((await activeVersion()).id).toBe(start.id)
     const afterRollback = await manager.get(`/api/quotes/${quote.body.id}`)
-    expect(afterRollback.body.lines.find((l: any) => l.id === captured.id).unitNetMinor).toBe(captured.unitNetMinor)
+    expect(afterRollback.body.lines.find((l: QuoteLine) => l.id === captured.id).unitNetMinor).toBe(captured.unitNetMinor)
   })
 
   it('rolling back the first version, or one that is no longer in use, is refused', async () => {
-    const start = await activeList()
+    const start = await activeVersion()
     const [p] = await demoParts(1, 40)
     const a = await uploadAndCheck(counter, csv([HEAD, [p!.sku, '', '', money(p!.list + 1), '', '', '']]), 'a.csv')
     expect((await counter.post(`/api/price-files/${a.id}/apply`, {})).status).toBe(200)
@@ -631,9 +648,9 @@ describe('apply and roll back', () => {
     expect(notInUse.body.message).toMatch(/Only the version in use can be rolled back/)
     expect((await rollback(counter, b.id)).status).toBe(200)
     expect((await rollback(counter, a.id)).status).toBe(200)
-    expect((await activeList()).id).toBe(start.id)
+    expect((await activeVersion()).id).toBe(start.id)
     const listed = (await counter.get('/api/price-files')).body
     expect(listed.activeVersion).toBe(start.version)
-    expect(listed.versions.filter((v: any) => v.status === 'active')).toHaveLength(1)
+    expect(listed.versions.filter((v: PriceVersionSummary) => v.status === 'active')).toHaveLength(1)
   })
 })

@@ -4,30 +4,31 @@
  * A technician: the same only when the garage's setting "technicians see trade prices" is on; otherwise no money
  * fields at all (absent, not zero). Plain Node.
  */
-import { QueryTypes } from 'sequelize'
+import { QueryTypes, type Transaction } from 'sequelize'
 import { afterEveryWrite, getDb } from '../../utils/db'
 import { can } from '../../../shared/utils/abilities'
 import { netPriceMinor } from '../../../shared/utils/money'
 import type { Organisation, User } from '../../models/accounts'
+import { activePriceVersion, type ActivePriceVersion } from '../price-versions'
 
 export type PriceView =
   | { kind: 'staff' }
   | { kind: 'garage'; discountBp: number }
   | { kind: 'none' }
 
-export interface ActivePriceVersion { id: number; version: number }
+export type { ActivePriceVersion }
 
 export interface CatalogueRevision { catalogue: number; stock: number }
 
 export interface PricingContext { view: PriceView; priceVersion: ActivePriceVersion | null; revision: CatalogueRevision }
 
-interface ContextRow { plId: number | null; plVersion: number | null; bp: number | null; rev: number | null; stockRev: number | null }
+interface ContextRow { priceVersion: ActivePriceVersion | null; bp: number | null; rev: number | null; stockRev: number | null }
 
 /**
  * The active price version, the caller's tier discount and the catalogue revisions (bumped by triggers on every
- * catalogue or stock change, see migration 0004): one round trip, remembered per tier for {@link CONTEXT_TTL_MS}
- * and forgotten at once after any write transaction in this process, so an apply, a rollback or a tier change
- * counts from the next request; a change made by another process shows within that second.
+ * catalogue or stock change, see migration 0004), remembered per tier for {@link CONTEXT_TTL_MS} and forgotten at
+ * once after any write transaction in this process, so an apply, a rollback or a tier change counts from the next
+ * request; a change made by another process shows within that second.
  */
 export async function pricingContext(user: Pick<User, 'role'>, org: Pick<Organisation, 'kind' | 'tierId' | 'techniciansSeePrices'>, now = Date.now()): Promise<PricingContext> {
   const tier = org.tierId ?? -1
@@ -36,20 +37,21 @@ export async function pricingContext(user: Pick<User, 'role'>, org: Pick<Organis
   if (hit && now - hit.at < CONTEXT_TTL_MS) row = hit.row
   else {
     const readAt = writes
-    ;[row] = await getDb().query<ContextRow>(
-      `SELECT (SELECT id FROM price_versions WHERE status = 'active' ORDER BY version DESC LIMIT 1) AS plId,
-              (SELECT version FROM price_versions WHERE status = 'active' ORDER BY version DESC LIMIT 1) AS plVersion,
-              (SELECT percent_bp FROM discount_tiers WHERE id = :tier) AS bp,
+    // the revisions before the version: should an apply land between the two reads, the revision is the older
+    // one, so the caches are rebuilt on the next request instead of keeping rows read under a newer revision
+    const [rest] = await getDb().query<Omit<ContextRow, 'priceVersion'>>(
+      `SELECT (SELECT percent_bp FROM discount_tiers WHERE id = :tier) AS bp,
               (SELECT catalogue FROM catalogue_revisions WHERE id = 1) AS rev,
               (SELECT stock FROM catalogue_revisions WHERE id = 1) AS stockRev`,
       { type: QueryTypes.SELECT, replacements: { tier } },
     )
-    if (row && readAt === writes && contextCacheOn()) contextRows.set(tier, { at: now, row })
+    const priceVersion = await activePriceVersion()
+    row = { priceVersion, bp: rest?.bp ?? null, rev: rest?.rev ?? null, stockRev: rest?.stockRev ?? null }
+    if (readAt === writes && contextCacheOn()) contextRows.set(tier, { at: now, row })
   }
-  const priceVersion = row?.plId ? { id: Number(row.plId), version: Number(row.plVersion) } : null
   return {
-    priceVersion, view: priceViewOf(user, org, Number(row?.bp ?? 0)),
-    revision: { catalogue: Number(row?.rev ?? 0), stock: Number(row?.stockRev ?? 0) },
+    priceVersion: row.priceVersion, view: priceViewOf(user, org, Number(row.bp ?? 0)),
+    revision: { catalogue: Number(row.rev ?? 0), stock: Number(row.stockRev ?? 0) },
   }
 }
 
@@ -61,7 +63,7 @@ let cacheFlag: boolean | undefined
 const contextCacheOn = () => (cacheFlag ??= process.env.BORELINE_CATALOGUE_CACHE !== '0')
 
 /** The revisions inside a transaction (before and after a change). */
-export async function readRevision(transaction?: import('sequelize').Transaction): Promise<CatalogueRevision> {
+export async function readRevision(transaction?: Transaction): Promise<CatalogueRevision> {
   const [row] = await getDb().query<{ catalogue: number; stock: number }>('SELECT catalogue, stock FROM catalogue_revisions WHERE id = 1', { type: QueryTypes.SELECT, transaction })
   return { catalogue: Number(row?.catalogue ?? 0), stock: Number(row?.stock ?? 0) }
 }

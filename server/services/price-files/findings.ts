@@ -11,8 +11,8 @@
  * counts that differ from the catalogue's) and `revive` (ids of discontinued parts the file prices). The apply records
  * the part statuses it changed, for the roll back: `created`, `discontinued`, `reactivated` (part ids).
  *
- * Reading for the preview loads one kind of one upload into memory (a few MB even for 200,000 rows) and keeps
- * the last few in a small cache; chunk ids only grow, so a new check of the same upload is never served stale.
+ * Reading for the preview loads one kind of one price file into memory (a few MB even for 200,000 rows) and keeps
+ * the last few in a small cache; chunk ids only grow, so a new check of the same price file is never served stale.
  */
 import { QueryTypes, type Transaction } from 'sequelize'
 import { getDb } from '../../utils/db'
@@ -67,7 +67,7 @@ export function col(name: keyof typeof F, alias = 'f'): string {
 }
 
 /**
- * A subquery of the findings of the given kinds of the upload bound as `$1`, one row per finding (column `v`,
+ * A subquery of the findings of the given kinds of the price file bound as `$1`, one row per finding (column `v`,
  * the tuple as JSON): `FROM ${findingsOf(['new'])} f JOIN parts p ON p.sku = ${col('sku')}`.
  */
 export function findingsOf(kinds: string[]): string {
@@ -176,7 +176,7 @@ interface Cached { stamp: string; rows: PriceCheckFinding[] }
 const cache = new Map<string, Cached>()
 const CACHE_ENTRIES = 4
 
-/** Every finding of one kind of one upload, in file order (missing parts: catalogue order). */
+/** Every finding of one kind of one price file, in file order (missing parts: catalogue order). */
 export async function readFindings(priceFileId: number, kind: ChangeKind, t?: Transaction): Promise<PriceCheckFinding[]> {
   const [stampRow] = await getDb().query<{ stamp: string | null }>(
     `SELECT GROUP_CONCAT(id) AS stamp FROM (SELECT id FROM price_file_findings WHERE price_file_id = $1 AND kind = $2 ORDER BY seq)`,

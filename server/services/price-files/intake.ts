@@ -1,75 +1,88 @@
 /**
- * Receiving a price file: formidable streams the multipart body to a temporary file under a server-made name
- * (never the client's), multipart only (a raw octet-stream body would bypass the size limit), one file of at
- * most 50 MB, and every temporary file is removed on every error path.
+ * Receiving a price file: the one upload intake (upload-intake.ts) streams it to a temporary file, its kind is
+ * decided from its bytes (an XLSX's zip directory is looked at before anything is kept), then it is stored under a
+ * name the server made and its check is queued. A refused file leaves nothing behind.
  */
-import { randomUUID } from 'node:crypto'
 import type { IncomingMessage } from 'node:http'
-import { mkdir, unlink } from 'node:fs/promises'
-import formidable, { errors as formidableErrors, multipart } from 'formidable'
-import { PRICE_FILE_LIMITS } from '../../../shared/types/price-files'
-import { DomainError, invalidInput, isDomainError } from '../errors'
-
-export interface ReceivedFile {
-  path: string
-  originalName: string
-  size: number
-}
-
-export interface Received {
-  fields: Record<string, string>
-  file: ReceivedFile | null
-}
+import { randomUUID } from 'node:crypto'
+import { mkdir, rename } from 'node:fs/promises'
+import { join } from 'node:path'
+import { withWrite } from '../../utils/db'
+import { PriceFile } from '../../models/price-files'
+import { PRICE_FILE_LIMITS, type PriceFileStatus } from '../../../shared/types/price-files'
+import { DELIMITER_CHOICES, UploadFieldsSchema } from '../../../shared/schemas/price-files'
+import { fieldMessages } from '../../../shared/utils/field-messages'
+import { invalidInput } from '../errors'
+import { receiveUpload, type UploadSpec } from '../upload-intake'
+import { PriceFileError } from './file-rows'
+import { sniffPriceFile } from './file-kind'
+import { inspectZip } from './zip-safety'
+import { priceFileTmpDir, priceFilesDir } from './storage'
+import { enqueueCheck } from './queue'
 
 const MB = 1024 * 1024
 
-export async function receivePriceFile(req: IncomingMessage, tmpDir: string): Promise<Received> {
-  const type = String(req.headers['content-type'] ?? '')
-  if (!/^multipart\/form-data/i.test(type)) {
-    throw new DomainError('unsupported', 'Send the price file as multipart/form-data, in a field named “file”.')
-  }
-  await mkdir(tmpDir, { recursive: true })
-  const created: string[] = []
-  const form = formidable({
-    uploadDir: tmpDir,
-    enabledPlugins: [multipart],
-    maxFiles: 1,
-    maxFileSize: PRICE_FILE_LIMITS.maxBytes,
-    maxTotalFileSize: PRICE_FILE_LIMITS.maxBytes,
+function intakeSpec(): UploadSpec {
+  return {
+    field: 'file',
+    tempDir: priceFileTmpDir(),
+    maxBytes: PRICE_FILE_LIMITS.maxBytes,
     maxFields: 12,
-    maxFieldsSize: 64 * 1024,
-    allowEmptyFiles: true, // an empty file gets our own clear message below
-    minFileSize: 0,
-    keepExtensions: false,
-    filename: () => `${randomUUID()}.upload`,
-  })
-  form.on('fileBegin', (_name, file) => { created.push(file.filepath) })
+    maxFieldsBytes: 64 * 1024,
+    messages: {
+      tooLarge: `The file is larger than ${PRICE_FILE_LIMITS.maxBytes / MB} MB. Split it into smaller files.`,
+      notMultipart: 'Send the price file as multipart/form-data, in a field named “file”.',
+      oneFileOnly: 'Upload one price file at a time.',
+      incomplete: 'The upload could not be read. Try again.',
+      wrongField: 'Send the price file in the field named “file”.',
+    },
+  }
+}
+
+/** CSV or XLSX from the bytes; the person sees what else it is (a PDF, an image, a zip bomb) beside the file field. */
+async function fileKind(path: string): Promise<{ format: 'csv' | 'xlsx'; bom: boolean }> {
   try {
-    const [fields, files] = await form.parse(req)
-    const list = files.file ?? []
-    const others = Object.entries(files).filter(([k]) => k !== 'file').flatMap(([, v]) => v ?? [])
-    for (const f of others) await unlink(f.filepath).catch(() => {})
-    if (others.length && !list.length) {
-      throw invalidInput({ file: 'Send the price file in the field named “file”.' })
-    }
-    const f = list[0]
-    const flat: Record<string, string> = {}
-    for (const [k, v] of Object.entries(fields)) if (v && v.length) flat[k] = String(v[0])
-    return {
-      fields: flat,
-      file: f ? { path: f.filepath, originalName: (f.originalFilename ?? 'price-file').slice(0, 255), size: f.size } : null,
-    }
+    const sniff = await sniffPriceFile(path)
+    if (sniff.format === 'xlsx') await inspectZip(path)
+    return { format: sniff.format, bom: !!sniff.bom }
   } catch (err) {
-    for (const p of created) await unlink(p).catch(() => {})
-    if (isDomainError(err)) throw err
-    const code = (err as { code?: number }).code
-    if (code === formidableErrors.biggerThanMaxFileSize || code === formidableErrors.biggerThanTotalMaxFileSize) {
-      throw new DomainError('too_large', `The file is larger than ${PRICE_FILE_LIMITS.maxBytes / MB} MB. Split it into smaller files.`, { fields: { file: `The file is larger than ${PRICE_FILE_LIMITS.maxBytes / MB} MB.` } })
-    }
-    if (code === formidableErrors.maxFilesExceeded) throw invalidInput({ file: 'Upload one price file at a time.' })
-    if (code === formidableErrors.maxFieldsExceeded || code === formidableErrors.maxFieldsSizeExceeded) {
-      throw invalidInput({ _: 'The form sent too many or too large fields.' })
-    }
-    throw invalidInput({ file: 'The upload could not be read. Try again.' })
+    if (err instanceof PriceFileError) throw invalidInput({ file: err.message }, err.message)
+    throw err
+  }
+}
+
+/** Receives, stores and queues a price file sent by `userId`; the check runs in the background. */
+export async function receivePriceFile(req: IncomingMessage, userId: number): Promise<{ id: number; status: PriceFileStatus }> {
+  const received = await receiveUpload(req, intakeSpec())
+  try {
+    const parsed = UploadFieldsSchema.safeParse(received.fields)
+    if (!parsed.success) throw invalidInput(fieldMessages(parsed.error.issues))
+    const fields = parsed.data
+    const file = received.file
+    if (!file) throw invalidInput({ file: 'Choose a price file (CSV or XLSX) to upload.' })
+    const { format, bom } = await fileKind(file.path)
+    const storedName = `${randomUUID()}.${format}`
+    await mkdir(priceFilesDir(), { recursive: true })
+    await rename(file.path, join(priceFilesDir(), storedName))
+    const delimiter = DELIMITER_CHOICES[fields.delimiter]
+    const priceFile = await withWrite((t) => PriceFile.create({
+      status: 'parsing',
+      stage: 'queued',
+      fileName: file.originalName || 'price-file',
+      storedName,
+      fileSize: file.size,
+      fileFormat: format,
+      delimiter: format === 'csv' ? delimiter : null,
+      delimiterChosen: format === 'csv' && delimiter !== null,
+      decimalMark: fields.decimalMark === 'comma' ? ',' : '.',
+      encoding: format === 'csv' ? (bom ? 'utf-8 with BOM' : 'utf-8') : null,
+      mapping: fields.mapping ?? null,
+      supplierName: fields.supplierName,
+      createdByUserId: userId,
+    }, { transaction: t }))
+    enqueueCheck(priceFile.id)
+    return { id: priceFile.id, status: priceFile.status }
+  } finally {
+    await received.cleanup() // the temporary file, unless it was stored (renamed) above
   }
 }

@@ -9,7 +9,8 @@
  * Plain functions and classes, no Nitro imports: the worker bundle and the unit tests import this file.
  */
 import { PRICE_FILE_LIMITS, type ColumnMapping } from '../../../shared/types/price-files'
-import { PriceFileError, csvRows, type FileRow } from './read'
+import { PriceFileError, type FileRow } from './file-rows'
+import { csvRows } from './csv-rows'
 import { columnIndex } from './mapping'
 import { rowValidator, type RowIssue, type RowValidator, type RowValues } from './rows'
 

@@ -9,7 +9,7 @@ import { existsSync } from 'node:fs'
 import { dirname, join } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { Worker } from 'node:worker_threads'
-import { PriceFileError } from './read'
+import { PriceFileError } from './file-rows'
 import type { RowBatch, RowJob } from './row-batches'
 import type { WorkerMessage } from './rows-worker'
 

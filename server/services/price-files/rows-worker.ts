@@ -6,11 +6,11 @@
  */
 import { setPriority } from 'node:os'
 import { parentPort, workerData } from 'node:worker_threads'
-import { PriceFileError } from './read'
-import { packedCsv, transferables, type RowJob } from './row-batches'
+import { PriceFileError } from './file-rows'
+import { packedCsv, transferables, type RowBatch, type RowJob } from './row-batches'
 
 export type WorkerMessage =
-  | { type: 'batch'; batch: import('./row-batches').RowBatch }
+  | { type: 'batch'; batch: RowBatch }
   | { type: 'done'; count: number }
   | { type: 'refused'; message: string; code: string }
   | { type: 'crashed'; message: string }

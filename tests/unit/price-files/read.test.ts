@@ -4,9 +4,12 @@ import { join } from 'node:path'
 import { afterAll, describe, expect, it } from 'vitest'
 import ExcelJS from 'exceljs'
 import { PRICE_FILE_LIMITS } from '#shared/types/price-files'
-import {
-  PriceFileError, csvRows, detectDelimiter, firstInvalidUtf8, inspectZip, locateInvalidUtf8, proveZipSizes, sniffPriceFile, xlsxCellText, xlsxRows,
-} from '../../../server/services/price-files/read'
+import { PriceFileError } from '../../../server/services/price-files/file-rows'
+import { sniffPriceFile } from '../../../server/services/price-files/file-kind'
+import { inspectZip, proveZipSizes } from '../../../server/services/price-files/zip-safety'
+import { firstInvalidUtf8, locateInvalidUtf8 } from '../../../server/services/price-files/utf8'
+import { csvRows, detectDelimiter } from '../../../server/services/price-files/csv-rows'
+import { xlsxCellText, xlsxRows } from '../../../server/services/price-files/xlsx-rows'
 import { buildZip } from './zip-fixture'
 
 const dir = mkdtempSync(join(tmpdir(), 'price-read-'))

@@ -92,7 +92,7 @@ describe('stored findings', () => {
     const f: PriceCheckFinding = [12, 'KF-1', 7, null, null, 4820, 4820, 3010, 3010, 0, 0, null, 1, 0, 0, { NGT: 3 }, null, null, null]
     expect(storedFinding('unchanged', [...f] as PriceCheckFinding)).toHaveLength(9)
     expect(roundTrip('unchanged', f)).toEqual(f)
-    const back: PriceCheckFinding = [13, 'KF-2', 8, null, null, 100, 100, null, null, 250, 250, 2, 2, 0, 0, null, null, 'Discontinued now: back in use when this list is applied.', null]
+    const back: PriceCheckFinding = [13, 'KF-2', 8, null, null, 100, 100, null, null, 250, 250, 2, 2, 0, 0, null, null, 'Discontinued now: back in use when this file is applied.', null]
     expect(roundTrip('unchanged', back)).toEqual(back)
   })
 

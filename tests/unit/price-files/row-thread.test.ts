@@ -3,7 +3,7 @@ import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { afterAll, describe, expect, it } from 'vitest'
 import { workerBatches } from '../../../server/services/price-files/row-thread'
-import { PriceFileError } from '../../../server/services/price-files/read'
+import { PriceFileError } from '../../../server/services/price-files/file-rows'
 import type { RowJob } from '../../../server/services/price-files/row-batches'
 
 // Stand-in workers (plain CommonJS, as the bundled one is) that speak the same messages, to check how the server

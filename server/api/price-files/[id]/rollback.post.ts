@@ -3,20 +3,17 @@
  * For an applied file whose version is in use: makes the version that was in use before it active again,
  * exactly, in one transaction, and undoes the part statuses the apply changed (admins get an e-mail).
  * For a scheduled file: cancels the schedule (the file can be applied again).
+ * With BORELINE_TEST_HOOKS=1, the header `x-boreline-test-fail: rollback-midway` makes the roll back throw inside
+ * its transaction. Errors: 401, 403, 404, 409 (not applied, not the version in use, or the first version).
  */
-import { UploadIdParamsSchema } from '#shared/schemas/price-files'
-import { PriceFile } from '../../../models/price-files'
-import { cancelSchedule, rollbackPriceFile } from '../../../services/price-files/apply'
+import { PriceFileIdParamsSchema } from '#shared/schemas/price-files'
+import { findPriceFile } from '../../../services/price-files/present'
+import { withdrawPriceFile } from '../../../services/price-files/rollback'
 
 export default defineEventHandler(async (event) => {
   const { user } = requireAbility(event, 'priceFiles.manage')
-  const { id } = paramsWith(event, UploadIdParamsSchema)
-  const up = await PriceFile.findByPk(id)
-  if (!up) throw notFound('Price file')
-  if (up.status === 'scheduled') {
-    await cancelSchedule(id, user.id)
-    return { status: 'ready' as const }
-  }
+  const { id } = paramsWith(event, PriceFileIdParamsSchema)
+  const priceFile = await findPriceFile(id)
   const failMidway = process.env.BORELINE_TEST_HOOKS === '1' && getRequestHeader(event, 'x-boreline-test-fail') === 'rollback-midway'
-  return rollbackPriceFile(id, user.id, { failMidway })
+  return withdrawPriceFile(priceFile, user.id, { failMidway })
 })

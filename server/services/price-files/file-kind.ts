@@ -1,0 +1,52 @@
+/**
+ * What kind of file a price file is, from its bytes, never its name: XLSX (recognised by `file-type`) or text that
+ * will be proven to be CSV by parsing; anything else is named in the refusal ("a PDF document").
+ */
+import { open, stat } from 'node:fs/promises'
+import { PriceFileError } from './file-rows'
+
+const XLSX_MIME = 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet'
+
+const KIND_NAMES: Record<string, string> = {
+  pdf: 'a PDF document', png: 'a PNG image', jpg: 'a JPEG image', gif: 'a GIF image', webp: 'a WebP image',
+  zip: 'a zip archive', gz: 'a gzip archive', docx: 'a Word document', pptx: 'a PowerPoint file', xls: 'an old-style Excel (.xls) workbook',
+  cfb: 'an old-style Office file (.xls/.doc)', exe: 'a program', elf: 'a program', ods: 'an OpenDocument spreadsheet',
+  '7z': 'a 7-Zip archive', rar: 'a RAR archive', mp4: 'a video', mp3: 'an audio file', sqlite: 'a database file',
+}
+
+export interface SniffResult {
+  format: 'csv' | 'xlsx'
+  /** CSV only */
+  bom?: boolean
+}
+
+/**
+ * Decides CSV or XLSX from the first bytes. `file-type` recognises XLSX (and everything binary); it cannot
+ * recognise CSV, so anything it does not know must look like text here and is proven to be CSV by parsing.
+ */
+export async function sniffPriceFile(path: string): Promise<SniffResult> {
+  const { size } = await stat(path)
+  if (size === 0) throw new PriceFileError('The file is empty.', 'empty')
+  const head = Buffer.alloc(Math.min(size, 8192))
+  const fh = await open(path, 'r')
+  try { await fh.read(head, 0, head.length, 0) } finally { await fh.close() }
+
+  if ((head[0] === 0xff && head[1] === 0xfe) || (head[0] === 0xfe && head[1] === 0xff)) {
+    throw new PriceFileError('This file is UTF-16 text. Save it as “CSV UTF-8” (comma or semicolon separated) and upload it again.', 'encoding')
+  }
+  const { fileTypeFromFile } = await import('file-type')
+  const type = await fileTypeFromFile(path)
+  if (type) {
+    if (type.ext === 'xlsx' || type.mime === XLSX_MIME) return { format: 'xlsx' }
+    const what = KIND_NAMES[type.ext] ?? `a .${type.ext} file (${type.mime})`
+    throw new PriceFileError(`This file is ${what}, going by its content, not a CSV or XLSX price file.`, 'wrong_type')
+  }
+  if (head.includes(0)) {
+    throw new PriceFileError('This file holds binary data, going by its content, not CSV text or an XLSX workbook.', 'wrong_type')
+  }
+  const bom = head.length >= 3 && head[0] === 0xef && head[1] === 0xbb && head[2] === 0xbf
+  if (size <= (bom ? 3 : 0) || head.subarray(bom ? 3 : 0).toString('latin1').trim() === '' && size <= head.length) {
+    throw new PriceFileError('The file is empty.', 'empty')
+  }
+  return { format: 'csv', bom }
+}

@@ -1,0 +1,126 @@
+/**
+ * Writing the price version a checked file makes, inside the caller's write transaction (all rows or none).
+ *
+ * The prices in use live in `part_prices`, one row per part. A new version is the file's findings over the
+ * version before it: the writes below put the file's values on the parts that are new or whose prices move (the
+ * check's `prices` list, which also holds the values they replace) and record the part statuses they change, so a
+ * roll back (rollback.ts) can write those replaced values back and undo the statuses. Bulk work is a handful of
+ * set-based statements reading the findings inside SQLite (`json_each`), so even 200,000 rows hold the write lock
+ * briefly.
+ */
+import { QueryTypes, type Transaction } from 'sequelize'
+import { getDb } from '../../utils/db'
+import { PriceVersion } from '../../models/catalogue'
+import type { PriceFile } from '../../models/price-files'
+import type { MissingAction } from '../../../shared/types/price-files'
+import { activePriceVersionId } from '../price-versions'
+import { conflict } from '../errors'
+import { F, col, deleteFindings, findingsOf } from './findings'
+
+/** SQLite text for a date in the form Sequelize writes (so models read raw-SQL rows back alike). */
+export function sqlDate(d: Date): string {
+  return `${d.toISOString().replace('T', ' ').replace('Z', '')} +00:00`
+}
+
+/** The number people know a price version by (null: no such version). */
+export async function versionNumberOf(id: number | null, t?: Transaction): Promise<number | null> {
+  if (!id) return null
+  return (await PriceVersion.findByPk(id, { transaction: t }))?.version ?? null
+}
+
+/** What the check found, for the audit trail. */
+export function countsFor(priceFile: PriceFile) {
+  return {
+    new: priceFile.countNew, changed: priceFile.countChanged, unchanged: priceFile.countUnchanged,
+    missing: priceFile.countMissing, rejected: priceFile.countRejected, large: priceFile.countLarge,
+  }
+}
+
+/** The next version number, reserved as a `scheduled` row with no prices yet. */
+export async function reserveVersion(t: Transaction, priceFile: PriceFile, userId: number, effectiveAt: Date | null): Promise<PriceVersion> {
+  const [{ next }] = await getDb().query<{ next: number }>('SELECT COALESCE(MAX(version), 0) + 1 AS next FROM price_versions', { type: QueryTypes.SELECT, transaction: t }) as [{ next: number }]
+  const when = (effectiveAt ?? new Date()).toISOString().slice(0, 10)
+  return PriceVersion.create({
+    version: next,
+    label: `${priceFile.supplierName || priceFile.fileName} · ${when}`.slice(0, 160),
+    status: 'scheduled',
+    effectiveAt,
+    activatedAt: null,
+    createdByUserId: userId,
+  }, { transaction: t })
+}
+
+/** Removes a reserved version that never took effect (it has no prices). */
+export async function dropReservedVersion(t: Transaction, priceVersionId: number): Promise<void> {
+  await getDb().query(`DELETE FROM price_versions WHERE id = $1 AND status = 'scheduled'`, { bind: [priceVersionId], transaction: t })
+}
+
+/**
+ * Writes the version's prices and makes it active, inside the caller's transaction. `reserved` is the row from
+ * `reserveVersion`. Returns the id of the version that was active before.
+ */
+export async function buildVersion(t: Transaction, priceFile: PriceFile, reserved: PriceVersion, opts: { missingParts: MissingAction; failMidway?: boolean }): Promise<number | null> {
+  const q = (sql: string, bind: unknown[]) => getDb().query(sql, { bind, transaction: t })
+  const now = sqlDate(new Date())
+  const u = priceFile.id
+  await deleteFindings(t, u, APPLY_RECORDS) // left by an earlier apply of this file that was rolled back or failed
+
+  // a part added by hand since the check would collide with a "new" row: refuse rather than guess
+  const [clash] = await getDb().query<{ sku: string }>(
+    `SELECT p.sku FROM ${findingsOf(['new'])} f JOIN parts p ON p.sku = ${col('sku')} LIMIT 1`,
+    { bind: [u], type: QueryTypes.SELECT, transaction: t },
+  )
+  if (clash) throw conflict(`A part with SKU ${clash.sku} was added to the catalogue after this file was checked. Check the file again before applying it.`)
+
+  await q(`INSERT INTO parts (sku, type, product_line, description, specs, status, created_at, updated_at)
+           SELECT ${col('sku')}, ${col('type')}, '', ${col('description')}, '{}', 'active', $2, $2 FROM ${findingsOf(['new'])} f`, [u, now])
+  await record(t, u, 'created', `SELECT p.id FROM ${findingsOf(['new'])} f JOIN parts p ON p.sku = ${col('sku')}`)
+
+  // the file's prices, for the parts whose prices move ('prices': [partId, list, trade, core, pack]) and the new parts
+  await q(`INSERT INTO part_prices (part_id, list_price_minor, trade_cost_minor, core_deposit_minor, pack_quantity, price_version_id)
+           SELECT f.v->>0, f.v->>1, f.v->>2, COALESCE(f.v->>3, 0), COALESCE(f.v->>4, 1), $2 FROM ${findingsOf(['prices'])} f
+           UNION ALL
+           SELECT p.id, ${col('newList')}, ${col('newTrade')}, COALESCE(${col('newCore')}, 0), COALESCE(${col('newPack')}, 1), $2
+             FROM ${findingsOf(['new'])} f JOIN parts p ON p.sku = ${col('sku')} WHERE true
+           ON CONFLICT (part_id) DO UPDATE SET list_price_minor = excluded.list_price_minor, trade_cost_minor = excluded.trade_cost_minor,
+             core_deposit_minor = excluded.core_deposit_minor, pack_quantity = excluded.pack_quantity, price_version_id = excluded.price_version_id`, [u, reserved.id])
+
+  if (opts.missingParts === 'discontinue') {
+    await record(t, u, 'discontinued', `SELECT p.id FROM ${findingsOf(['missing'])} f JOIN parts p ON p.id = ${col('partId')} WHERE p.status = 'active'`)
+    await q(`UPDATE parts SET status = 'discontinued', updated_at = $2 WHERE id IN (${recorded('discontinued')})`, [u, now])
+  }
+  // discontinued parts that the file prices again are back in use
+  await record(t, u, 'reactivated', `SELECT p.id FROM ${findingsOf(['revive'])} f JOIN parts p ON p.id = f.v WHERE p.status = 'discontinued'`)
+  await q(`UPDATE parts SET status = 'active', updated_at = $2 WHERE id IN (${recorded('reactivated')})`, [u, now])
+  // stock per branch: the counts the check found moving ('stock': [partId, { branch: count }]) and the new parts' counts
+  await q(`INSERT INTO stock_levels (part_id, branch_id, quantity, updated_at)
+           SELECT x.id, b.id, CAST(s.value AS INTEGER), $2
+             FROM (SELECT f.v->>0 AS id, f.v->'$[1]' AS stock FROM ${findingsOf(['stock'])} f
+                   UNION ALL
+                   SELECT p.id AS id, f.v->'$[${F.stock}]' AS stock FROM ${findingsOf(['new'])} f JOIN parts p ON p.sku = ${col('sku')}
+                    WHERE ${col('stock')} IS NOT NULL) x, json_each(x.stock) s JOIN branches b ON b.code = s.key
+            WHERE true
+           ON CONFLICT (part_id, branch_id) DO UPDATE SET quantity = excluded.quantity, updated_at = excluded.updated_at
+             WHERE stock_levels.quantity <> excluded.quantity`, [u, now])
+
+  if (opts.failMidway) throw new Error('test hook: apply stopped midway')
+
+  const previous = await activePriceVersionId(t)
+  await q(`UPDATE price_versions SET status = 'retired', updated_at = $1 WHERE status = 'active'`, [now])
+  await q(`UPDATE price_versions SET status = 'active', activated_at = $2, updated_at = $2 WHERE id = $1`, [reserved.id, now])
+  return previous
+}
+
+/** What an apply records for its roll back. */
+const APPLY_RECORDS = ['created', 'discontinued', 'reactivated']
+
+/** Records the part ids `select` returns under `kind` (one chunk). */
+async function record(t: Transaction, priceFileId: number, kind: string, select: string): Promise<void> {
+  await getDb().query(`INSERT INTO price_file_findings (price_file_id, kind, seq, size, rows)
+                       SELECT $1, '${kind}', 0, COUNT(*), COALESCE(json_group_array(x.id), '[]') FROM (${select}) x`, { bind: [priceFileId], transaction: t })
+}
+
+/** SQL for the part ids recorded under `kind` for the price file bound as $1. */
+export function recorded(kind: 'created' | 'discontinued' | 'reactivated'): string {
+  return `SELECT r.value FROM price_file_findings f, json_each(f.rows) r WHERE f.price_file_id = $1 AND f.kind = '${kind}'`
+}
