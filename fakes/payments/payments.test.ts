@@ -7,7 +7,8 @@ import http from 'node:http'
 import type { AddressInfo } from 'node:net'
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest'
 import Stripe from 'stripe'
-import { createPaymentsFake, decodeForm, type PaymentsFake } from './server'
+import { decodeForm } from './form'
+import { createPaymentsFake, type PaymentsFake } from './server'
 
 const SECRET = 'whsec_selftest_secret'
 
@@ -228,7 +229,7 @@ describe('idempotency', () => {
     const err = await stripe.checkout.sessions.create(sessionParams({ client_reference_id: '43' }), { idempotencyKey: key }).catch((e: unknown) => e)
     expect(err).toBeInstanceOf(Stripe.errors.StripeIdempotencyError)
     const seen = await get(`/_fake/requests?path=/v1/checkout/sessions`)
-    const mine = (seen.json.data as { idempotencyKey: string; replayed?: boolean; body: any }[]).filter((r) => r.idempotencyKey === key)
+    const mine = (seen.json.data as { idempotencyKey: string; replayed?: boolean; body: Loose }[]).filter((r) => r.idempotencyKey === key)
     expect(mine).toHaveLength(3)
     expect(mine[1]?.replayed).toBe(true)
     expect(mine[0]?.body.line_items[0].price_data.unit_amount).toBe('1250') // as sent on the wire
