@@ -7,7 +7,8 @@ import http from 'node:http'
 import type { AddressInfo } from 'node:net'
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest'
 import Stripe from 'stripe'
-import { createPaymentsFake, decodeForm, type PaymentsFake } from './server'
+import { decodeForm } from './form'
+import { createPaymentsFake, type PaymentsFake } from './server'
 
 const SECRET = 'whsec_selftest_secret'
 
@@ -215,6 +216,28 @@ describe('checkout sessions', () => {
     expect((err as Stripe.errors.StripeError).statusCode).toBe(404)
     expect((err as Stripe.errors.StripeError).code).toBe('resource_missing')
   })
+
+  it('words parameter errors as the API does, naming the bracketed parameter', async () => {
+    // API reference (from memory): parameter_unknown / parameter_missing / parameter_invalid with these messages
+    const form = 'mode=payment&line_items[0][price_data][currency]=gbp&line_items[0][price_data][unit_amount]=1250&line_items[0][price_data][product_data][name]=Pad'
+    const cases: [string, string, string, string][] = [
+      [`${form}&line_items[0][quantity]=1&line_items[0][colour]=red`, 'parameter_unknown', 'line_items[0][colour]', 'Received unknown parameter: line_items[0][colour]'],
+      [form, 'parameter_missing', 'line_items[0][quantity]', 'Missing required param: line_items[0][quantity].'],
+      [`${form}&line_items[0][quantity]=two`, 'parameter_invalid', 'line_items[0][quantity]', 'Invalid integer: two'],
+      [`${form}&line_items[0][quantity]=0`, 'parameter_invalid', 'line_items[0][quantity]', 'Invalid positive integer'],
+      [`${form}&line_items[0][quantity]=1&submit_type=later`, 'parameter_invalid', 'submit_type', 'Invalid submit_type: must be one of auto, book, donate, pay'],
+      [`${form}&line_items[0][quantity]=1&metadata[${'k'.repeat(41)}]=1`, 'parameter_invalid', `metadata[${'k'.repeat(41)}]`, `Invalid metadata key ${'k'.repeat(41)}: at most 40 characters`],
+    ]
+    for (const [body, code, param, message] of cases) {
+      const res = await fetch(`${base}/v1/checkout/sessions`, {
+        method: 'POST',
+        headers: { authorization: 'Bearer sk_test_x', 'content-type': 'application/x-www-form-urlencoded' },
+        body,
+      })
+      expect(res.status, param).toBe(400)
+      expect((await res.json()).error, param).toEqual({ type: 'invalid_request_error', code, param, message })
+    }
+  })
 })
 
 describe('idempotency', () => {
@@ -228,7 +251,7 @@ describe('idempotency', () => {
     const err = await stripe.checkout.sessions.create(sessionParams({ client_reference_id: '43' }), { idempotencyKey: key }).catch((e: unknown) => e)
     expect(err).toBeInstanceOf(Stripe.errors.StripeIdempotencyError)
     const seen = await get(`/_fake/requests?path=/v1/checkout/sessions`)
-    const mine = (seen.json.data as { idempotencyKey: string; replayed?: boolean; body: any }[]).filter((r) => r.idempotencyKey === key)
+    const mine = (seen.json.data as { idempotencyKey: string; replayed?: boolean; body: Loose }[]).filter((r) => r.idempotencyKey === key)
     expect(mine).toHaveLength(3)
     expect(mine[1]?.replayed).toBe(true)
     expect(mine[0]?.body.line_items[0].price_data.unit_amount).toBe('1250') // as sent on the wire
