@@ -55,8 +55,6 @@ export default defineNuxtConfig({
   nitro: {
     externals: {
       external: ['sqlite3', 'sequelize'],
-      // read at run time by the PDF writer (server/services/order-pdf.ts), so the build must carry them
-      traceInclude: ['@fontsource/inter/files/inter-latin-400-normal.woff', '@fontsource/inter/files/inter-latin-600-normal.woff'],
       // Node 20.19+ loads a package's "module-sync" export (exceljs -> get-intrinsic -> async-function/require.mjs);
       // the file tracer assumes that only from Node 22, so tell it, or those files are missing from .output
       traceOptions: { conditions: ['node', 'module-sync'] },

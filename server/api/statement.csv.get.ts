@@ -3,18 +3,11 @@
  * starts with the balance brought forward). 401; 403 without `statement.view`; 422 for a malformed month.
  */
 import { StatementQuerySchema } from '#shared/schemas/orders'
-import { statementCsv, statementOf } from '../services/statement'
+import { statementCsv, statementFileName, statementOf } from '../services/statement'
 
 export default defineEventHandler(async (event) => {
   const { org } = requireAbility(event, 'statement.view')
   const { month } = queryWith(event, StatementQuerySchema)
-  const csv = statementCsv(await statementOf(org.id, month))
-  const day = month ?? new Date().toISOString().slice(0, 10)
-  setResponseHeaders(event, {
-    'content-type': 'text/csv; charset=utf-8',
-    'content-disposition': `attachment; filename="statement-${day}.csv"`,
-    'x-content-type-options': 'nosniff',
-    'cache-control': 'private, no-store',
-  })
-  return csv
+  const csv = statementCsv(await statementOf(org.id, month, serverFormats()))
+  return sendDownload(event, csv, { name: statementFileName(month), type: 'text/csv; charset=utf-8' })
 })

@@ -10,5 +10,5 @@ import { statementOf } from '../services/statement'
 export default defineEventHandler(async (event) => {
   const { org } = requireAbility(event, 'statement.view')
   const { month } = queryWith(event, StatementQuerySchema)
-  return statementOf(org.id, month)
+  return statementOf(org.id, month, serverFormats())
 })

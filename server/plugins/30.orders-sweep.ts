@@ -5,7 +5,8 @@
  * once with POST /api/counter/orders/sweep.
  */
 import { databaseReady } from '../utils/ready'
-import { sweepOrders } from '../services/payments'
+import { serverFormats } from '../utils/format'
+import { sweepOrders } from '../services/payments/sweep'
 
 export default defineNitroPlugin((nitro) => {
   const seconds = Number(process.env.BORELINE_ORDER_SWEEP_SECONDS ?? 300)
@@ -15,7 +16,7 @@ export default defineNitroPlugin((nitro) => {
     if (running) return
     running = true
     databaseReady()
-      .then(() => sweepOrders())
+      .then(() => sweepOrders(serverFormats()))
       .then((r) => {
         if (r.paid || r.lapsed || r.refunds || r.coreRefunds || r.errors) console.info('[boreline] order sweep:', JSON.stringify(r))
       })

@@ -11,9 +11,12 @@
 import { Op, QueryTypes, type Transaction } from 'sequelize'
 import { Organisation, User } from '../models/accounts'
 import { LedgerEntry, Order } from '../models/orders'
-import { bookOrderCharges, placeOrder, releaseStock } from '../services/orders'
+import { placeOrder } from '../services/orders/place'
+import { bookOrderCharges } from '../services/orders/ledger'
+import { releaseStock } from '../services/orders/stock'
 import { getDb } from '../utils/db'
 import { orderReference } from '../../shared/types/orders'
+import { formatsFor } from '../../shared/utils/format'
 
 type Stage = 'confirmed' | 'picking' | 'dispatched' | 'delivered' | 'cancelled' | 'awaiting_payment'
 
@@ -57,6 +60,8 @@ async function pickParts(t: Transaction, branchId: number, withDeposit: boolean,
 }
 
 export async function seedOrders(t: Transaction, log: (s: string) => void): Promise<void> {
+  // the seed runs outside the server: the installation's currency comes from the same variables the server reads
+  const fmt = formatsFor({ currency: process.env.NUXT_PUBLIC_CURRENCY, locale: process.env.NUXT_PUBLIC_LOCALE, timeZone: process.env.NUXT_PUBLIC_TIME_ZONE })
   let made = 0
   let n = 0
   // oldest first, so the statement's order of entries follows the dates
@@ -73,7 +78,7 @@ export async function seedOrders(t: Transaction, log: (s: string) => void): Prom
     if (skus.length === 0) continue
     const { order } = await placeOrder(t, org.id, manager, {
       lines: skus.map((sku, i) => ({ sku, quantity: i === 0 ? 2 : 1 })), payment: d.payment, garageReference: d.ref,
-    }, null)
+    }, null, fmt)
     const at = (hours: number) => new Date(Date.now() - d.daysAgo * 86_400_000 + hours * 3_600_000)
     const ledgerAt = at(0)
     if (d.payment === 'card' && d.stage !== 'awaiting_payment') {
@@ -82,7 +87,7 @@ export async function seedOrders(t: Transaction, log: (s: string) => void): Prom
       order.paymentState = 'paid'
       order.paidAt = at(0.1)
       await order.save({ transaction: t })
-      await bookOrderCharges(t, order, `pi_demo_${order.id}`, { expectCores: false })
+      await bookOrderCharges(t, order, `pi_demo_${order.id}`, fmt, { expectCores: false })
     }
     if (d.decline) {
       order.declineReason = d.decline.reason

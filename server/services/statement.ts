@@ -9,7 +9,7 @@ import { Organisation } from '../models/accounts'
 import { LedgerEntry, Order } from '../models/orders'
 import { notFound } from './errors'
 import { LEDGER_KIND_LABELS, type Statement } from '../../shared/types/orders'
-import { ORDER_CURRENCY } from './orders'
+import type { Formats } from '../../shared/utils/format'
 
 /** First instant of a month and of the month after it (UTC), for `YYYY-MM`. */
 function monthBounds(month: string): [Date, Date] {
@@ -21,7 +21,7 @@ function monthBounds(month: string): [Date, Date] {
  * The garage's ledger with running balances; with `month`, only that month's entries, the running balance still
  * counted from the first entry ever (so the opening balance is what was owed when the month began).
  */
-export async function statementOf(organisationId: number, month?: string): Promise<Statement> {
+export async function statementOf(organisationId: number, month: string | undefined, fmt: Formats): Promise<Statement> {
   const org = await Organisation.findByPk(organisationId)
   if (!org) throw notFound('Garage')
   const rows = await LedgerEntry.findAll({
@@ -55,13 +55,18 @@ export async function statementOf(organisationId: number, month?: string): Promi
   const terms = org.paymentTerms ?? 'card'
   return {
     garage: { id: org.id, name: org.name, terms, creditLimitMinor: org.creditLimitMinor ?? 0, paymentDays: org.paymentDays ?? 0 },
-    currency: ORDER_CURRENCY,
+    currency: fmt.currency,
     entries,
     balanceMinor: balance,
     availableMinor: terms === 'account' ? (org.creditLimitMinor ?? 0) - balance : null,
     period: month ? { month, openingBalanceMinor: opening, closingBalanceMinor: entries.at(-1)?.balanceMinor ?? opening } : null,
     months: [...months].sort().reverse(),
   }
+}
+
+/** The CSV's file name: the month shown, or today's date for the whole ledger. */
+export function statementFileName(month: string | undefined, now = new Date()): string {
+  return `statement-${month ?? now.toISOString().slice(0, 10)}.csv`
 }
 
 /** The statement as CSV (UTF-8, header row, amounts in major units with two decimals). */

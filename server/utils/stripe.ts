@@ -5,6 +5,7 @@
  * idempotency key derived from our own records, so a retry never charges or refunds twice.
  */
 import Stripe from 'stripe'
+import { DomainError } from '../services/errors'
 
 let client: Stripe | undefined
 let clientKey = ''
@@ -25,9 +26,17 @@ export function useStripe(): Stripe {
   return client
 }
 
-/** The webhook signing secret (`whsec_...`). */
-export function stripeWebhookSecret(): string {
-  return String(useRuntimeConfig().stripeWebhookSecret)
+/**
+ * A webhook event whose signature verifies against the raw body (re-serialising a parsed body would break it)
+ * and the signing secret (`whsec_...`); a missing, bad or stale signature is 400 and nothing is done.
+ */
+export function verifiedStripeEvent(raw: string | Buffer | undefined, signature: string | undefined): Stripe.Event {
+  if (!raw || !signature) throw new DomainError('bad_request', 'A signed event body is required.')
+  try {
+    return useStripe().webhooks.constructEvent(raw, signature, String(useRuntimeConfig().stripeWebhookSecret))
+  } catch {
+    throw new DomainError('bad_request', 'The event signature does not verify.')
+  }
 }
 
 /** A short, safe description of a payment-service failure for logs and the caller. */

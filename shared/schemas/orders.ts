@@ -4,7 +4,10 @@
  */
 import { z } from 'zod'
 import { CORE_RETURN_STATUSES, ORDER_STATUSES } from '../types/orders'
+import { PageQuerySchema } from './page'
 
+const reason = z.string({ error: 'The reason must be text.' }).trim().max(300, 'The reason is at most 300 characters.').default('')
+const note = z.string({ error: 'The note must be text.' }).trim().max(300, 'The note is at most 300 characters.').default('')
 const id = (what: string) => z.number({ error: `Choose the ${what}.` }).int().positive({ error: `Choose the ${what}.` })
 
 export const MAX_ORDER_LINES = 100
@@ -47,27 +50,25 @@ export const IdempotencyKeySchema = z.string().trim().min(8, 'Idempotency-Key mu
 export const OrderParamsSchema = z.object({ id: z.coerce.number().int().positive() })
 
 const status = z.enum(ORDER_STATUSES, { error: `status must be one of: ${ORDER_STATUSES.join(', ')}` })
-const page = z.coerce.number().int().min(1).max(10_000).default(1)
 
-/** GET /api/orders?status=&page= */
-export const OrderListQuerySchema = z.object({ status: status.optional(), page })
+/** GET /api/orders?status=&page=&pageSize= */
+export const OrderListQuerySchema = PageQuerySchema.extend({ status: status.optional() })
+export type OrderListQuery = z.infer<typeof OrderListQuerySchema>
 
-/** GET /api/counter/orders?branchId=&status=&page= ; `open` = everything still to be worked */
-export const CounterOrderListQuerySchema = z.object({
+/** GET /api/counter/orders?branchId=&status=&page=&pageSize= ; `open` = everything still to be worked */
+export const CounterOrderListQuerySchema = PageQuerySchema.extend({
   branchId: z.coerce.number().int().positive().optional(),
   status: z.union([status, z.literal('open')]).default('open'),
-  page,
 })
+export type CounterOrderListQuery = z.infer<typeof CounterOrderListQuerySchema>
 
 /** POST /api/orders/:id/cancel */
-export const OrderCancelSchema = z.object({
-  reason: z.string({ error: 'The reason must be text.' }).trim().max(300, 'The reason is at most 300 characters.').default(''),
-}).strict()
+export const OrderCancelSchema = z.object({ reason }).strict()
 
 /** PATCH /api/counter/orders/:id */
 export const CounterOrderPatchSchema = z.object({
   status: z.enum(['picking', 'dispatched', 'delivered', 'cancelled'], { error: 'status must be picking, dispatched, delivered or cancelled.' }),
-  reason: z.string({ error: 'The reason must be text.' }).trim().max(300, 'The reason is at most 300 characters.').default(''),
+  reason,
 }).strict()
 
 /** POST /api/core-returns: book an expected return (by its id, or by the order line it belongs to). */
@@ -75,22 +76,23 @@ export const CoreReturnBookSchema = z.object({
   coreReturnId: id('core return').optional(),
   orderLineId: id('order line').optional(),
   quantity: z.number({ error: 'Quantity must be a whole number.' }).int('Quantity must be a whole number.').min(1, 'Return at least 1.').optional(),
-  note: z.string({ error: 'The note must be text.' }).trim().max(300, 'The note is at most 300 characters.').default(''),
+  note,
 }).strict().refine((v) => v.coreReturnId !== undefined || v.orderLineId !== undefined, {
   path: ['coreReturnId'], message: 'Choose the old unit you are sending back.',
 })
 
 export const CoreReturnParamsSchema = z.object({ id: z.coerce.number().int().positive() })
 
-/** GET /api/core-returns?status= and GET /api/counter/core-returns?status= */
-export const CoreReturnListQuerySchema = z.object({
+/** GET /api/core-returns?status=&page=&pageSize= and GET /api/counter/core-returns?status=&page=&pageSize= */
+export const CoreReturnListQuerySchema = PageQuerySchema.extend({
   status: z.enum(CORE_RETURN_STATUSES, { error: `status must be one of: ${CORE_RETURN_STATUSES.join(', ')}` }).optional(),
 })
+export type CoreReturnListQuery = z.infer<typeof CoreReturnListQuerySchema>
 
 /** PATCH /api/counter/core-returns/:id */
 export const CoreReturnDecisionSchema = z.object({
   status: z.enum(['accepted', 'rejected'], { error: 'status must be accepted or rejected.' }),
-  reason: z.string({ error: 'The reason must be text.' }).trim().max(300, 'The reason is at most 300 characters.').default(''),
+  reason,
 }).strict().refine((v) => v.status !== 'rejected' || v.reason.length >= 3, {
   path: ['reason'], message: 'Say why the old unit is not accepted.',
 })
@@ -109,7 +111,7 @@ export const AccountPaymentSchema = z.object({
     .max(60, 'The reference is at most 60 characters.'),
   receivedOn: z.string({ error: 'Enter the date the money arrived.' }).regex(/^\d{4}-\d{2}-\d{2}$/, 'Enter the date as YYYY-MM-DD.')
     .refine((d) => !Number.isNaN(Date.parse(`${d}T00:00:00Z`)) && new Date(`${d}T00:00:00Z`).toISOString().slice(0, 10) === d, 'That date does not exist.'),
-  note: z.string({ error: 'The note must be text.' }).trim().max(300, 'The note is at most 300 characters.').default(''),
+  note,
 }).strict()
 export type AccountPaymentInput = z.infer<typeof AccountPaymentSchema>
 

@@ -32,6 +32,16 @@ export const COUNTER_MOVES: Partial<Record<OrderStatus, OrderStatus[]>> = {
   dispatched: ['delivered'],
 }
 
+/** What the button for each counter move says. */
+export const COUNTER_MOVE_LABELS: Partial<Record<OrderStatus, string>> = {
+  picking: 'Start picking',
+  dispatched: 'Mark dispatched',
+  delivered: 'Mark delivered',
+}
+
+/** States in which the parts are the distributor's to pick or have left: a delivery note exists. */
+export const DELIVERY_NOTE_STATUSES: readonly OrderStatus[] = ['confirmed', 'picking', 'dispatched', 'delivered']
+
 export const ORDER_STATUS_LABELS: Record<OrderStatus, string> = {
   awaiting_payment: 'Waiting for card payment',
   confirmed: 'Confirmed, waiting to be picked',
@@ -76,8 +86,8 @@ export function orderReference(id: number): string {
 
 export interface BranchView { id: number; code: string; name: string }
 
-export interface OrderLineView {
-  id: number
+/** A line's part and amounts, as placed and as previewed. */
+export interface OrderLineAmounts {
   sku: string
   description: string
   quantity: number
@@ -88,6 +98,10 @@ export interface OrderLineView {
   coreDepositUnitMinor: number
   /** set when the line came from a quote: the unit net price the quote had captured */
   quotedUnitNetMinor: number | null
+}
+
+export interface OrderLineView extends OrderLineAmounts {
+  id: number
 }
 
 export interface CoreReturnView {
@@ -132,12 +146,17 @@ export interface OrderSummary {
   garage?: { id: number; name: string }
 }
 
-export interface OrderDetail extends OrderSummary {
-  quoteId: number | null
+/** An order's figures: parts, deposits, tax and what is paid. */
+export interface OrderAmounts {
   subtotalMinor: number
   coreDepositMinor: number
   taxRateBp: number
   taxMinor: number
+  totalMinor: number
+}
+
+export interface OrderDetail extends OrderSummary, OrderAmounts {
+  quoteId: number | null
   lines: OrderLineView[]
   coreReturns: CoreReturnView[]
   placedBy: string
@@ -150,33 +169,19 @@ export interface OrderDetail extends OrderSummary {
   timeline: { at: string; label: string }[]
 }
 
-export interface PricedLine {
-  sku: string
+export interface PricedLine extends OrderLineAmounts {
   partId: number
-  description: string
-  quantity: number
-  unitListMinor: number
-  unitNetMinor: number
-  lineNetMinor: number
-  lineTaxMinor: number
-  coreDepositUnitMinor: number
   /** units at the chosen branch right now */
   available: number
   quoteLineId: number | null
-  quotedUnitNetMinor: number | null
   /** unitNetMinor - quotedUnitNetMinor when the price moved since the quote, else null */
   priceChangeMinor: number | null
 }
 
-export interface OrderPreview {
+export interface OrderPreview extends OrderAmounts {
   lines: PricedLine[]
   branch: BranchView
   branches: BranchView[]
-  subtotalMinor: number
-  coreDepositMinor: number
-  taxRateBp: number
-  taxMinor: number
-  totalMinor: number
   currency: string
   /** lines whose price differs from the quote's */
   changes: { sku: string; quotedUnitNetMinor: number; unitNetMinor: number }[]

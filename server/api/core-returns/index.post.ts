@@ -5,13 +5,10 @@
  * been dispatched yet; 422.
  */
 import { CoreReturnBookSchema } from '#shared/schemas/orders'
-import { bookCoreReturn } from '../../services/core-returns'
-import { coreReturnView } from '../../services/orders'
-import { withWrite } from '../../utils/db'
+import { bookCoreReturn } from '../../services/core-returns/booking'
 
 export default defineEventHandler(async (event) => {
   const { user, org } = requireAbility(event, 'coreReturns.book')
   const input = await bodyWith(event, CoreReturnBookSchema)
-  const cr = await withWrite((t) => bookCoreReturn(t, org.id, user, input))
-  return coreReturnView(cr, cr.line)
+  return bookCoreReturn(org.id, user, input)
 })

@@ -1,25 +1,12 @@
 /**
- * GET /api/orders?status=&page=  -> { data: OrderSummary[], meta: { page, pageSize, total } }
+ * GET /api/orders?status=&page=&pageSize= -> Page<OrderSummary> ({ data, meta: { page, pageSize, total, pages } })
  * The caller's garage's orders, newest first. 401; 403 not a garage manager; 422 bad query.
  */
 import { OrderListQuerySchema } from '#shared/schemas/orders'
-import { Branch } from '../../models/accounts'
-import { Order, OrderLine } from '../../models/orders'
-import { orderSummary } from '../../services/orders'
-
-const PAGE_SIZE = 25
+import { garageOrders } from '../../services/orders/lists'
 
 export default defineEventHandler(async (event) => {
   const { org } = requireAbility(event, 'orders.place')
   const query = queryWith(event, OrderListQuerySchema)
-  const where = { organisationId: org.id, ...(query.status ? { status: query.status } : {}) }
-  const { rows, count } = await Order.findAndCountAll({
-    where,
-    include: [{ model: Branch, as: 'branch' }, { model: OrderLine, as: 'lines', attributes: ['id'] }],
-    order: [['createdAt', 'DESC'], ['id', 'DESC']],
-    limit: PAGE_SIZE,
-    offset: (query.page - 1) * PAGE_SIZE,
-    distinct: true,
-  })
-  return { data: rows.map((o) => orderSummary(o)), meta: { page: query.page, pageSize: PAGE_SIZE, total: count } }
+  return garageOrders(org.id, query)
 })

@@ -8,27 +8,15 @@
  * 422 with `data.fields`.
  */
 import { IdempotencyKeySchema, OrderCreateSchema } from '#shared/schemas/orders'
-import { findGarageOrder, orderDetail, placeOrder } from '../../services/orders'
-import { mailOrder } from '../../services/order-mail'
-import { withWrite } from '../../utils/db'
+import { submitOrder } from '../../services/orders/place'
 
 export default defineEventHandler(async (event) => {
   const { user, org } = requireAbility(event, 'orders.place')
   const rawKey = getRequestHeader(event, 'idempotency-key')
   const key = rawKey === undefined ? null : parseWith(IdempotencyKeySchema, rawKey)
   const input = await bodyWith(event, OrderCreateSchema)
-  const { order, replayed } = await withWrite(async (t) => {
-    const placed = await placeOrder(t, org.id, user, input, key)
-    if (!placed.replayed) {
-      await audit(t, {
-        actorUserId: user.id, organisationId: org.id, action: 'order.place', entity: 'order', entityId: placed.order.id,
-        changes: { payment: input.payment, totalMinor: placed.order.totalMinor, quoteId: input.quoteId ?? null, lines: placed.order.lines?.length ?? 0 },
-      })
-    }
-    return placed
-  })
-  if (!replayed && order.paymentMethod === 'account') await mailOrder(order.id, 'confirmed')
+  const { order, replayed } = await submitOrder(org.id, user, input, key, serverFormats())
   setResponseStatus(event, replayed ? 200 : 201)
   if (replayed) setResponseHeader(event, 'Idempotent-Replayed', 'true')
-  return orderDetail(await findGarageOrder(org.id, order.id), 'garage')
+  return order
 })

@@ -5,10 +5,10 @@
  * -> OrderPreview. 401; 403 not a garage manager; 404 quote not the caller's; 409 quote not orderable; 422.
  */
 import { OrderPreviewSchema } from '#shared/schemas/orders'
-import { previewOrder } from '../../services/orders'
+import { previewOrder } from '../../services/orders/preview'
 
 export default defineEventHandler(async (event) => {
   const { org } = requireAbility(event, 'orders.place')
   const input = await bodyWith(event, OrderPreviewSchema)
-  return previewOrder(org.id, input)
+  return previewOrder(org.id, input, serverFormats())
 })

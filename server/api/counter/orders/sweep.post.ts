@@ -3,9 +3,9 @@
  * (checkouts paid or expired without their event reaching us, card orders never taken to checkout, refunds
  * still to send). 401; 403 without `orders.work`.
  */
-import { sweepOrders } from '../../../services/payments'
+import { sweepOrders } from '../../../services/payments/sweep'
 
 export default defineEventHandler(async (event) => {
   requireAbility(event, 'orders.work')
-  return sweepOrders()
+  return sweepOrders(serverFormats())
 })

@@ -3,7 +3,8 @@
  * 401; 403 not a garage manager; 404 not found or another garage's.
  */
 import { OrderParamsSchema } from '#shared/schemas/orders'
-import { findGarageOrder, orderDetail } from '../../../services/orders'
+import { findGarageOrder } from '../../../services/orders/find'
+import { orderDetail } from '../../../services/orders/views'
 
 export default defineEventHandler(async (event) => {
   const { org } = requireAbility(event, 'orders.place')

@@ -4,26 +4,17 @@
  * 409 while the order is not yet paid or on account.
  */
 import { OrderParamsSchema } from '#shared/schemas/orders'
-import { Order } from '../../../models/orders'
-import { hasInvoice } from '../../../services/orders'
-import { invoicePdf } from '../../../services/order-pdf'
 import { can } from '#shared/utils/abilities'
 import { orderReference } from '#shared/types/orders'
+import { findVisibleOrder } from '../../../services/orders/find'
+import { invoiceOf } from '../../../services/orders/invoice-pdf'
 
 export default defineEventHandler(async (event) => {
   const auth = requireAuth(event)
   const staff = auth.org.kind === 'distributor' && can(auth.user.role, 'orders.work')
   if (!staff) requireAbility(event, 'orders.place')
   const { id } = paramsWith(event, OrderParamsSchema)
-  const order = await Order.findOne({ where: staff ? { id } : { id, organisationId: auth.org.id } })
-  if (!order) throw notFound('Order')
-  if (!hasInvoice(order)) throw conflict('The invoice is issued once the order is paid or put on the account.')
-  const pdf = await invoicePdf(order.id)
-  setResponseHeaders(event, {
-    'content-type': 'application/pdf',
-    'content-disposition': `attachment; filename="invoice-${orderReference(order.id)}.pdf"`,
-    'x-content-type-options': 'nosniff',
-    'cache-control': 'private, no-store',
-  })
-  return pdf
+  const order = await findVisibleOrder(id, staff ? null : auth.org.id)
+  const pdf = await invoiceOf(order, serverFormats(), await pdfFonts())
+  return sendDownload(event, pdf, { name: `invoice-${orderReference(order.id)}.pdf`, type: 'application/pdf' })
 })

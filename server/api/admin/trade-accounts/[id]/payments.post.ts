@@ -8,25 +8,12 @@
 import { IdParamSchema } from '#shared/schemas/accounts'
 import { AccountPaymentSchema } from '#shared/schemas/orders'
 import { recordAccountPayment } from '../../../../services/account-payments'
-import { accountMail } from '../../../../services/account-mail'
-import { garageRecipients } from '../../../../services/trade-accounts'
 
 export default defineEventHandler(async (event) => {
   const { user } = requireAbility(event, 'payments.record')
   const { id } = paramsWith(event, IdParamSchema)
   const body = await bodyWith(event, AccountPaymentSchema)
-  const today = new Date().toISOString().slice(0, 10)
-  if (body.receivedOn > today) {
-    throw new DomainError('invalid', 'The date the money arrived cannot be in the future.', { fields: { receivedOn: 'The date the money arrived cannot be in the future.' } })
-  }
-  const out = await recordAccountPayment(id, body, user.id)
-  await sendMail({
-    to: await garageRecipients(out.org),
-    ...accountMail.paymentReceived({
-      businessName: out.org.name, amountMinor: out.amountMinor, reference: body.reference, receivedOn: body.receivedOn,
-      balanceMinor: out.balanceMinor, availableMinor: out.availableMinor, statementUrl: appLink('/statement'),
-    }, { currency: quoteCurrency(), locale: 'en-GB' }),
-  })
+  const out = await recordAccountPayment(id, body, user.id, serverFormats())
   setResponseStatus(event, 201)
-  return { entryId: out.entryId, amountMinor: out.amountMinor, balanceMinor: out.balanceMinor, availableMinor: out.availableMinor }
+  return out
 })

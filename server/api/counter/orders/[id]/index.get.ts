@@ -3,7 +3,8 @@
  * 401; 403 without `orders.work`; 404.
  */
 import { OrderParamsSchema } from '#shared/schemas/orders'
-import { findAnyOrder, orderDetail } from '../../../../services/orders'
+import { findAnyOrder } from '../../../../services/orders/find'
+import { orderDetail } from '../../../../services/orders/views'
 
 export default defineEventHandler(async (event) => {
   requireAbility(event, 'orders.work')

@@ -6,13 +6,11 @@
  * from the order's state; 422.
  */
 import { CounterOrderPatchSchema, OrderParamsSchema } from '#shared/schemas/orders'
-import { findAnyOrder, orderDetail } from '../../../../services/orders'
-import { moveOrder } from '../../../../services/payments'
+import { moveOrder } from '../../../../services/orders/moves'
 
 export default defineEventHandler(async (event) => {
   const { user } = requireAbility(event, 'orders.work')
   const { id } = paramsWith(event, OrderParamsSchema)
   const { status, reason } = await bodyWith(event, CounterOrderPatchSchema)
-  await moveOrder(id, status, user, reason)
-  return orderDetail(await findAnyOrder(id), 'counter')
+  return moveOrder(id, { to: status, reason }, user, serverFormats(), await pdfFonts())
 })

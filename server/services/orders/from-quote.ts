@@ -3,10 +3,10 @@
  * unit net price the quote captured so the order can show what changed when it is re-priced. Plain Node.
  */
 import { Op, type Transaction } from 'sequelize'
-import { Quote, QuoteLine } from '../models/quotes'
-import { Order } from '../models/orders'
-import { orderReference } from '../../shared/types/orders'
-import { DomainError, notFound, conflict } from './errors'
+import { Quote, QuoteLine } from '../../models/quotes'
+import { Order } from '../../models/orders'
+import { orderReference } from '../../../shared/types/orders'
+import { DomainError, notFound, conflict } from '../errors'
 
 export interface QuoteOrderLine { sku: string; quantity: number; quoteLineId: number; quotedUnitNetMinor: number | null }
 

@@ -1,0 +1,53 @@
+/**
+ * The counter decides a booked core return: accepted returns the deposit (credited on the ledger; for a card
+ * order also refunded to the card after the commit), rejected keeps it with the reason. The garage is e-mailed
+ * either way.
+ */
+import { Organisation, type User } from '../../models/accounts'
+import { CoreReturn, LedgerEntry, Order, OrderLine } from '../../models/orders'
+import { withWrite } from '../../utils/db'
+import { audit } from '../../utils/audit'
+import { orderReference, type CoreReturnView } from '../../../shared/types/orders'
+import type { Formats } from '../../../shared/utils/format'
+import { conflict, notFound } from '../errors'
+import { runAfter, type After } from '../orders/after-commit'
+import { mailCoreReturn } from '../orders/mail'
+import { coreReturnView } from '../orders/views'
+import { issueCoreRefund } from '../payments/refunds'
+
+export interface Decision { status: 'accepted' | 'rejected'; reason: string }
+
+export async function decideCoreReturn(id: number, decision: Decision, actor: Pick<User, 'id'>, fmt: Formats): Promise<CoreReturnView> {
+  const { status, reason } = decision
+  const after: After = []
+  await withWrite(async (t) => {
+    const row = await CoreReturn.findByPk(id, { include: [{ model: Order, as: 'order' }, { model: OrderLine, as: 'line' }], transaction: t })
+    if (!row || !row.order) throw notFound('Core return')
+    if (row.status !== 'booked') {
+      throw conflict(row.status === 'expected' ? 'The garage has not booked this old unit back yet.' : 'This core return has already been decided.')
+    }
+    row.status = status
+    row.decidedAt = new Date()
+    row.decidedByUserId = actor.id
+    row.reason = reason || null
+    if (status === 'accepted') {
+      const quantity = row.quantityBooked ?? row.quantityExpected
+      const credit = row.depositUnitMinor * quantity
+      row.creditedMinor = credit
+      await LedgerEntry.create({
+        organisationId: row.organisationId, orderId: row.orderId, coreReturnId: row.id, kind: 'core_credit', amountMinor: -credit,
+        reference: orderReference(row.orderId), description: `Old unit accepted: ${quantity} x ${row.line?.sku ?? ''}`.trim(),
+      }, { transaction: t })
+      if (row.order.paymentMethod === 'card' && credit > 0) {
+        row.refundPending = true
+        after.push(() => issueCoreRefund(row.id))
+      }
+    }
+    await row.save({ transaction: t })
+    await audit(t, { actorUserId: actor.id, organisationId: row.organisationId, action: `core_return.${status}`, entity: 'core_return', entityId: row.id, changes: { reason, creditedMinor: row.creditedMinor } })
+    after.push(() => mailCoreReturn(row.id, fmt))
+  })
+  await runAfter(after)
+  const cr = await CoreReturn.findByPk(id, { include: [{ model: OrderLine, as: 'line' }, { model: Organisation, as: 'organisation', attributes: ['name'] }] })
+  return coreReturnView(cr!, cr!.line, cr!.organisation?.name)
+}

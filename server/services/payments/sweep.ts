@@ -1,0 +1,59 @@
+/**
+ * The periodic reconciliation of what lost or late webhooks would have told us: unpaid checkouts that completed
+ * or expired, card orders that never opened a checkout (their stock goes back after UNPAID_HOLD_MINUTES), and
+ * refunds that could not be sent yet. Each pass looks at up to SWEEP_BATCH rows of each kind; the next pass takes
+ * the rest, so a backlog drains without one pass holding the payment service for long.
+ */
+import { Op } from 'sequelize'
+import { CoreReturn, Order } from '../../models/orders'
+import { stripeProblem, useStripe } from '../../utils/stripe'
+import type { Formats } from '../../../shared/utils/format'
+import { UNPAID_HOLD_MINUTES } from '../orders/rules'
+import { lapseOrder } from './effects'
+import { expireSession, settleSession } from './events'
+import { handleOnce } from './record-once'
+import { issueCoreRefund, issueOrderRefund } from './refunds'
+
+const SWEEP_BATCH = 200
+
+export interface SweepResult { paid: number; lapsed: number; refunds: number; coreRefunds: number; errors: number }
+
+/** Runs `step` for each row, counting what it reports done and logging (not throwing) what fails. */
+async function each<R>(rows: R[], what: (row: R) => string, step: (row: R) => Promise<boolean>, r: SweepResult, done: 'paid' | 'lapsed' | 'refunds' | 'coreRefunds'): Promise<void> {
+  for (const row of rows) {
+    try {
+      if (await step(row)) r[done]++
+    } catch (err) {
+      r.errors++
+      console.error(`[boreline] sweep: ${what(row)}:`, stripeProblem(err))
+    }
+  }
+}
+
+export async function sweepOrders(fmt: Formats, now = new Date()): Promise<SweepResult> {
+  const r: SweepResult = { paid: 0, lapsed: 0, refunds: 0, coreRefunds: 0, errors: 0 }
+  const waiting = await Order.findAll({ where: { status: 'awaiting_payment', checkoutSessionId: { [Op.ne]: null } }, limit: SWEEP_BATCH })
+  for (const o of waiting) {
+    try {
+      const s = await useStripe().checkout.sessions.retrieve(o.checkoutSessionId!)
+      if (s.status === 'complete' && (await settleSession(s, null, fmt)).outcome === 'paid') r.paid++
+      if (s.status === 'expired' && (await expireSession(s, null, fmt, o.id)).outcome.startsWith('lapsed')) r.lapsed++
+    } catch (err) {
+      r.errors++
+      console.error(`[boreline] sweep: order ${o.id}:`, stripeProblem(err))
+    }
+  }
+  const stale = await Order.findAll({
+    where: { status: 'awaiting_payment', checkoutSessionId: null, createdAt: { [Op.lt]: new Date(now.getTime() - UNPAID_HOLD_MINUTES * 60_000) } },
+    limit: SWEEP_BATCH,
+  })
+  await each(stale, (o) => `lapse of order ${o.id}`, async (o) => (await handleOnce(null, o.id, async (t, order) => {
+    if (!order || order.status !== 'awaiting_payment' || order.checkoutSessionId) return { outcome: 'ignored' }
+    return lapseOrder(t, order, fmt)
+  })).outcome.startsWith('lapsed'), r, 'lapsed')
+  const refunds = await Order.findAll({ where: { paymentState: 'refund_pending' }, limit: SWEEP_BATCH })
+  await each(refunds, (o) => `refund of order ${o.id}`, (o) => issueOrderRefund(o.id, fmt), r, 'refunds')
+  const coreRefunds = await CoreReturn.findAll({ where: { refundPending: true }, limit: SWEEP_BATCH })
+  await each(coreRefunds, (cr) => `core refund ${cr.id}`, (cr) => issueCoreRefund(cr.id), r, 'coreRefunds')
+  return r
+}
