@@ -13,7 +13,8 @@
  *
  * Parts of the same fitting dimensions share one "component": one SKU per product line, one set of OE numbers.
  */
-import { normaliseIdentifier, type PartType } from '../../shared/schemas/parts'
+import { normaliseIdentifier } from '../../shared/schemas/catalogue/params'
+import type { PartType } from '../../shared/schemas/catalogue/part-types'
 import type { AxleName, FitmentAxle } from '../../shared/types/axles'
 
 /** mulberry32: a small, well-known 32-bit PRNG; deterministic for a given seed. */

@@ -11,7 +11,7 @@
  */
 import { QueryTypes } from 'sequelize'
 import { getDb } from '../../utils/db'
-import { PART_TYPES, PART_TYPE_LABELS, type PartType } from '../../../shared/schemas/parts'
+import { PART_TYPES, PART_TYPE_LABELS, type PartType } from '../../../shared/schemas/catalogue/part-types'
 import {
   answerProblems, canonicalAnswers, matchQualifiers, openQuestions, type Answers, type OptionQuestion, type Qualifiers,
 } from '../../../shared/utils/catalogue/qualifiers'

@@ -1,5 +1,6 @@
 /** How specifications read for people: a one-line summary for lists and label/value/unit rows for the part page. */
-import { SPEC_FIELDS, type PartType } from '../../schemas/parts'
+import type { PartType } from '../../schemas/catalogue/part-types'
+import { SPEC_FIELDS } from '../../schemas/catalogue/spec-fields'
 
 const n = (v: unknown) => (typeof v === 'number' ? (Number.isInteger(v) ? String(v) : String(Number(v.toFixed(2)))) : '')
 

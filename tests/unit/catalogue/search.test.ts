@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest'
-import { FITTING_RULES, type PartType } from '#shared/schemas/parts'
+import type { PartType } from '#shared/schemas/catalogue/part-types'
+import { FITTING_RULES } from '#shared/utils/catalogue/fitting-rules'
 import { editDistance, fuzzyFor, indexTerms, planQuery } from '../../../server/services/catalogue/search-plan'
 import { COMMON_DF, PartSearchIndex, type IndexInput } from '../../../server/services/catalogue/search-index'
 
