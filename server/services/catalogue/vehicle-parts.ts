@@ -18,7 +18,7 @@ import {
 import { priceFields, viewKey, type PricingContext, type StoredPrice } from './pricing'
 import { vehicleDetail, type VehicleDetail } from './vehicles'
 import type { FitmentAxle } from '../../../shared/types/axles'
-import { DomainError, invalidInput } from '../errors'
+import { invalidInput } from '../errors'
 
 export const STOCK_TTL_MS = 10 * 60_000
 const MAX_BASES = 5_000

@@ -2,7 +2,7 @@
  * GET /api/parts: the page query of every list (shared/schemas/page.ts) extended with the part filters: words or
  * identifiers (`q`), type, axle and ranges on the dimensions specs carry (`<dim>Mm` exact, `<dim>Min`, `<dim>Max`).
  */
-import { z } from 'zod'
+import type { z } from 'zod'
 import { PageQuerySchema } from '../page'
 import type { AxleName } from '../../types/axles'
 import { optionalQuery, queryNumber, queryText } from './fields'

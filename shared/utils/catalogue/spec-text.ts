@@ -43,3 +43,8 @@ export function specRows(type: string, s: Record<string, unknown>): SpecRow[] {
   }
   return rows
 }
+
+/** A fitment's option qualifiers for people: `{ front_disc_diameter_mm: "300" }` -> "front disc diameter 300 mm". */
+export function qualifierText(q: Record<string, string>): string {
+  return Object.entries(q).map(([k, v]) => (k.endsWith('_mm') ? `${k.slice(0, -3).replace(/_/g, ' ')} ${v} mm` : `${k.replace(/_/g, ' ')} ${v}`)).join(', ')
+}

@@ -21,6 +21,7 @@ import {
 } from '#shared/utils/brake/hydraulics'
 import type { Axle, DiscAxle } from '#shared/utils/brake/schemas'
 import { inchToMm, kPaToPsi, lbfToN } from '#shared/utils/brake/units'
+import { prng } from '../../../server/seed/catalogue-data'
 
 /** mathjs types unit arithmetic as Unit | number; these expressions always stay units. */
 const asUnit = (x: Unit | number) => x as Unit
@@ -29,17 +30,8 @@ function expectRel(actual: number, expected: number, tol: number) {
   expect(Math.abs(actual - expected)).toBeLessThanOrEqual(tol * Math.abs(expected))
 }
 
-/** Small seeded generator (mulberry32) so property tests are repeatable. */
-function rng(seed: number) {
-  let a = seed >>> 0
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0
-    let t = a
-    t = Math.imul(t ^ (t >>> 15), t | 1)
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61)
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296
-  }
-}
+/** The seed's small seeded generator (mulberry32), so property tests are repeatable. */
+const rng = prng
 const between = (r: () => number, lo: number, hi: number) => lo + (hi - lo) * r()
 
 /** Published example: 100 lbf pedal, 6:1 pedal ratio, no booster. Result in psi. */
