@@ -1,7 +1,7 @@
 /**
  * Builds the bore-check input from a vehicle's original-equipment data and, when a candidate part is named, the
- * replacement from that part's specifications (shared/schemas/parts.ts). Every default filled in is listed as an
- * assumption; whatever the data lacks is listed in `missing` for the technician to enter. Plain Node.
+ * replacement from that part's specifications (shared/schemas/catalogue/specs.ts). Every default filled in is
+ * listed as an assumption; whatever the data lacks is listed in `missing` for the technician to enter. Plain Node.
  */
 import type { Transaction } from 'sequelize'
 import { Fitment, Part, Vehicle, VehicleBrake, VehicleOption } from '../models/catalogue'

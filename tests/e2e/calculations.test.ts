@@ -162,7 +162,7 @@ describe('POST /api/calculations/hydraulics', () => {
   })
 
   it('impossible input is 422 naming each field, and nothing is computed', async () => {
-    const bad = worked(0) as Record<string, any>
+    const bad = JSON.parse(JSON.stringify(worked(0)))
     bad.axles.front.frictionCoefficient = 1.5
     bad.axles.front.pistonDiametersMm = [54, -2]
     delete bad.axles.rear

@@ -17,7 +17,7 @@ const search = async (query: Record<string, string>) => {
 }
 function dbRows<T>(sql: string): Promise<T[]> {
   const d = new sqlite3.Database(env().dbPath, sqlite3.OPEN_READONLY)
-  return new Promise((res, rej) => d.all(sql, (e, rows) => { d.close(); e ? rej(e) : res(rows as T[]) }))
+  return new Promise((res, rej) => d.all(sql, (e, rows) => { d.close(); if (e) rej(e); else res(rows as T[]) }))
 }
 
 describe('search ranking', () => {
