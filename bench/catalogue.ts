@@ -1,5 +1,5 @@
 /**
- * Catalogue benchmark (issue 4): one run, figures side by side, ratios against the targets.
+ * Catalogue benchmark: one run, figures side by side, ratios against the targets.
  *
  *   npx tsx bench/catalogue.ts [--database <sqlite file>] [--output <.output dir>] [--duration 10] [--connections 50]
  *

@@ -10,6 +10,7 @@
  */
 import { resolve } from 'node:path'
 import sqlite3 from 'sqlite3'
+import { MC_BORES, WC_BORES, prng } from '../server/seed/catalogue-data'
 
 interface Args { parts: number; vehicles: number; fitments: number; database: string; seed: number }
 
@@ -34,17 +35,6 @@ function parseArgs(argv: string[]): Args {
   if (!out.database) throw new Error('Give --database <sqlite:./file.sqlite or path> or set DATABASE_URL')
   if (!out.database.startsWith('sqlite:')) out.database = `sqlite:${resolve(out.database)}`
   return out
-}
-
-function prng(seed: number) {
-  let a = seed >>> 0
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0
-    let t = a
-    t = Math.imul(t ^ (t >>> 15), t | 1)
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61)
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296
-  }
 }
 
 const esc = (v: unknown): string => {
@@ -97,8 +87,6 @@ const SKU_PREFIX: Record<string, string> = {
   disc: 'SY-D', pad_set: 'SY-P', caliper: 'SY-C', drum: 'SY-R', shoe_set: 'SY-S', wheel_cylinder: 'SY-W', hose: 'SY-H',
   fitting_kit: 'SY-K', wear_sensor: 'SY-E', master_cylinder: 'SY-M', fluid: 'SY-F',
 }
-const MC_BORES = [19.05, 20.64, 22.22, 23.81, 25.4]
-const WC_BORES = [17.46, 19.05, 20.64, 22.22, 23.81]
 const DISC_D = [240, 256, 262, 266, 276, 280, 288, 294, 300, 312, 320, 330, 340, 345, 350, 360, 380]
 
 async function main() {

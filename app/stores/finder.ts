@@ -5,8 +5,7 @@
  */
 import { defineStore } from 'pinia'
 import type { LocationQuery } from 'vue-router'
-
-const OPT = 'opt.'
+import { OPTION_PREFIX as OPT } from '#shared/schemas/catalogue/vehicle-queries'
 
 export const useFinderStore = defineStore('finder', () => {
   const make = ref<string | null>(null)
@@ -46,10 +45,8 @@ export const useFinderStore = defineStore('finder', () => {
   function chooseYear(y: number | null) { year.value = y; vehicleId.value = null; answers.value = {} }
   function chooseVehicle(id: number | null) { vehicleId.value = id; answers.value = {} }
   function answer(key: string, value: string | null) {
-    const next = { ...answers.value }
-    if (value === null) delete next[key]
-    else next[key] = value
-    answers.value = next
+    const others = Object.entries(answers.value).filter(([k]) => k !== key)
+    answers.value = Object.fromEntries(value === null ? others : [...others, [key, value]])
   }
   function reset() { chooseMake(null) }
 

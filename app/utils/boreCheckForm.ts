@@ -27,7 +27,6 @@ export interface MasterCylinderForm {
   ports: number | null
 }
 
-
 export interface BoreCheckForm {
   pedalForceN: number | null
   pedalRatio: number | null
@@ -136,11 +135,4 @@ export function hydraulicsBody(f: BoreCheckForm, pedalForceN?: number): Hydrauli
     axles: { front: axleBody(f.axles.front), rear: axleBody(f.axles.rear) },
     ...(Object.keys(replacement).length ? { replacement } : {}),
   } as HydraulicsInputRaw
-}
-
-/** Field issues -> `{ path: message }`, first message per path. */
-export function fieldMap(issues: readonly { field: string; message: string }[]): Record<string, string> {
-  const out: Record<string, string> = {}
-  for (const i of issues) out[i.field] ??= i.message
-  return out
 }

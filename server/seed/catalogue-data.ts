@@ -13,7 +13,8 @@
  *
  * Parts of the same fitting dimensions share one "component": one SKU per product line, one set of OE numbers.
  */
-import { normaliseIdentifier, type PartType } from '../../shared/schemas/parts'
+import { normaliseIdentifier } from '../../shared/schemas/catalogue/params'
+import type { PartType } from '../../shared/schemas/catalogue/part-types'
 import type { AxleName, FitmentAxle } from '../../shared/types/axles'
 
 /** mulberry32: a small, well-known 32-bit PRNG; deterministic for a given seed. */
@@ -120,8 +121,9 @@ export const BORE_MISMATCH = {
   caliper: { make: 'Veltra', model: 'Pennon', generation: 'Mk2', oePistonMm: 54, replacementPistonMm: 57, productLine: 'Carrick Uprated' },
 } as const
 
-const MC_BORES = [19.05, 20.64, 22.22, 23.81, 25.4]
-const WC_BORES = [17.46, 19.05, 20.64, 22.22, 23.81]
+/** The usual inch bores as the catalogue states them, mm: master cylinders 3/4 to 1 in, wheel cylinders 11/16 to 15/16 in. */
+export const MC_BORES = [19.05, 20.64, 22.22, 23.81, 25.4]
+export const WC_BORES = [17.46, 19.05, 20.64, 22.22, 23.81]
 
 interface DiscCfg { diameterMm: number; thicknessMm: number; minThicknessMm: number; vented: boolean; heightMm: number }
 interface CaliperCfg { caliperType: 'fixed' | 'floating'; pistonCount: number; pistonDiametersMm: number[] }

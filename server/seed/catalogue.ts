@@ -9,7 +9,8 @@ import { Branch, Organisation } from '../models/accounts'
 import {
   Fitment, Part, PartOeNumber, PartPrice, PriceVersion, StockLevel, Supersession, Vehicle, VehicleBrake, VehicleOption,
 } from '../models/catalogue'
-import { normaliseIdentifier, parseSpecs } from '../../shared/schemas/parts'
+import { normaliseIdentifier } from '../../shared/schemas/catalogue/params'
+import { parseSpecs } from '../../shared/schemas/catalogue/specs'
 import { buildCatalogue, BORE_MISMATCH } from './catalogue-data'
 
 const vehicleKey = (v: { make: string; model: string; generation: string; engineCode: string }) => `${v.make}|${v.model}|${v.generation}|${v.engineCode}`

@@ -1,7 +1,7 @@
 /**
  * Builds the bore-check input from a vehicle's original-equipment data and, when a candidate part is named, the
- * replacement from that part's specifications (shared/schemas/parts.ts). Every default filled in is listed as an
- * assumption; whatever the data lacks is listed in `missing` for the technician to enter. Plain Node.
+ * replacement from that part's specifications (shared/schemas/catalogue/specs.ts). Every default filled in is
+ * listed as an assumption; whatever the data lacks is listed in `missing` for the technician to enter. Plain Node.
  */
 import type { Transaction } from 'sequelize'
 import { Fitment, Part, Vehicle, VehicleBrake, VehicleOption } from '../models/catalogue'
@@ -9,11 +9,13 @@ import {
   nominalCoefficient, parseFrictionCode, parseTyreSize,
   type FieldIssue, type HydraulicsInputRaw,
 } from '../../shared/utils/brake'
-import { SPEC_SCHEMAS, axleOfSpecs, type CaliperSpecs, type MasterCylinderSpecs, type PartType, type WheelCylinderSpecs } from '../../shared/schemas/parts'
-import { canonicalAnswers, matchQualifiers, type Answers } from '../../shared/utils/catalogue/qualifiers'
+import type { PartType } from '../../shared/schemas/catalogue/part-types'
+import { SPEC_SCHEMAS, axleOfSpecs, type CaliperSpecs, type MasterCylinderSpecs, type WheelCylinderSpecs } from '../../shared/schemas/catalogue/specs'
+import { answerProblems, canonicalAnswers, matchQualifiers, type Answers } from '../../shared/utils/catalogue/qualifiers'
 import { qualifierCondition, vehicleLabel } from './inspections'
 import type { OeWearLimits, PartRole, PrefillResult } from '../../shared/types/prefill'
 import type { AxleName } from '../../shared/types/axles'
+import { invalidInput, notFound } from './errors'
 
 export type { OeWearLimits, PartRole, PrefillResult }
 
@@ -101,21 +103,20 @@ function missingFields(prefix: string, draft: Draft, missing: FieldIssue[]): voi
   }
 }
 
-export class PrefillNotFound extends Error {
-  constructor(readonly what: 'Vehicle' | 'Part') { super(`${what} not found.`) }
-}
-
 /**
  * The prefill for the bore-check and inspection pages.
- * @throws PrefillNotFound for an unknown vehicle or SKU
+ * @throws DomainError: not found for an unknown vehicle or SKU; invalid (`opt.<key>`) for an answer to an option the
+ *   vehicle lacks or a value it does not offer
  */
 export async function buildPrefill(vehicleId: number, sku: string | undefined, given: Answers, transaction?: Transaction): Promise<PrefillResult> {
   const vehicle = await Vehicle.findByPk(vehicleId, { transaction })
-  if (!vehicle) throw new PrefillNotFound('Vehicle')
+  if (!vehicle) throw notFound('Vehicle')
   const [options, brakes] = await Promise.all([
     VehicleOption.findAll({ where: { vehicleId }, order: [['id', 'ASC']], transaction }),
     VehicleBrake.findAll({ where: { vehicleId }, order: [['id', 'ASC']], transaction }),
   ])
+  const problems = answerProblems(options, given)
+  if (Object.keys(problems).length) throw invalidInput(problems)
   const answers = canonicalAnswers(options, given)
   const implied = new Set<string>()
   const assumptions: string[] = []
@@ -127,7 +128,7 @@ export async function buildPrefill(vehicleId: number, sku: string | undefined, g
   let partRow: Part | null = null
   if (sku) {
     partRow = await Part.findOne({ where: { sku }, transaction })
-    if (!partRow) throw new PrefillNotFound('Part')
+    if (!partRow) throw notFound('Part')
     const fitments = await Fitment.findAll({ where: { vehicleId, partId: partRow.id }, order: [['id', 'ASC']], transaction })
     const fitting = fitments.filter((f) => matchQualifiers(f.qualifiers ?? {}, answers) !== 'excluded')
     const fitment = fitting[0] ?? null

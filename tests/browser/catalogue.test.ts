@@ -1,5 +1,5 @@
 /**
- * Catalogue journeys in Chromium (issue 4): the vehicle finder from make to parts for a vehicle with an option
+ * Catalogue journeys in Chromium: the vehicle finder from make to parts for a vehicle with an option
  * question, the choice surviving a reload, and a search for an OE number typed with a slip.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'

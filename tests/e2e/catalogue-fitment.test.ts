@@ -1,6 +1,6 @@
 /**
  * Catalogue e2e: who may see it, the vehicle finder's facets, the vehicle record and fitment narrowed by option
- * answers (issue 4).
+ * answers.
  */
 import { beforeAll, describe, expect, it } from 'vitest'
 import { setup } from '@nuxt/test-utils/e2e'

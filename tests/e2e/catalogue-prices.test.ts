@@ -11,8 +11,13 @@ import { as, type Client, env, people } from '../support/api'
 await setup({ host: env().baseUrl })
 
 /**
- * Reference: list × (10000 − bp) / 10000 rounded half away from zero, in exact BigInt arithmetic (the language's
- * integer type, not our money helper); commercial rounding is the product's stated rule (common practice).
+ * Reference net price: list × (10000 − discount bp) / 10000 in whole minor units, a result between two pennies
+ * rounded half away from zero. The rounding rule is the product's stated money rule (DEVELOPERS.md "Money rule",
+ * shared/utils/money.ts: commercial rounding, common practice for invoices). Worked in exact BigInt arithmetic (the
+ * language's integer type, not our money helper). By hand, Silver 12.5 %:
+ *   list £45.99: 4599 × 8750 = 40 241 250; / 10 000 = 4024.125 -> 4024 (£40.24)
+ *   list £10.04: 1004 × 8750 = 8 785 000; / 10 000 = 878.5, a half -> 879 (£8.79)
+ * and Bronze 5 %: list £12.35: 1235 × 9500 = 11 732 500; / 10 000 = 1173.25 -> 1173 (£11.73).
  */
 function expectedNet(listMinor: number, bp: number): number {
   const num = BigInt(listMinor) * BigInt(10_000 - bp)
@@ -21,6 +26,12 @@ function expectedNet(listMinor: number, bp: number): number {
 }
 const SILVER_BP = 1250
 const BRONZE_BP = 500
+
+it('the reference net price agrees with the examples worked by hand', () => {
+  expect(expectedNet(4599, SILVER_BP)).toBe(4024)
+  expect(expectedNet(1004, SILVER_BP)).toBe(879)
+  expect(expectedNet(1235, BRONZE_BP)).toBe(1173)
+})
 
 let mgr: Client, other: Client, tech: Client, otherTech: Client, counter: Client
 let vehicleId: number

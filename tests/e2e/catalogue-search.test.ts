@@ -13,11 +13,11 @@ interface Row { sku: string; type: string; description: string; productLine: str
 const search = async (query: Record<string, string>) => {
   const r = await mgr.get(`/api/parts?${new URLSearchParams(query)}`)
   expect(r.status, r.text).toBe(200)
-  return r.body as { data: Row[]; meta: { page: number; pageSize: number; total: number; pageCount: number } }
+  return r.body as { data: Row[]; meta: { page: number; pageSize: number; total: number; pages: number } }
 }
 function dbRows<T>(sql: string): Promise<T[]> {
   const d = new sqlite3.Database(env().dbPath, sqlite3.OPEN_READONLY)
-  return new Promise((res, rej) => d.all(sql, (e, rows) => { d.close(); e ? rej(e) : res(rows as T[]) }))
+  return new Promise((res, rej) => d.all(sql, (e, rows) => { d.close(); if (e) rej(e); else res(rows as T[]) }))
 }
 
 describe('search ranking', () => {
@@ -95,13 +95,13 @@ describe('paging', () => {
   it('pages on the server with a stable order and consistent meta', async () => {
     const p1 = await search({ type: 'pad_set', pageSize: '10', page: '1' })
     const p2 = await search({ type: 'pad_set', pageSize: '10', page: '2' })
-    expect(p1.meta).toMatchObject({ page: 1, pageSize: 10, pageCount: Math.ceil(p1.meta.total / 10) })
+    expect(p1.meta).toMatchObject({ page: 1, pageSize: 10, pages: Math.ceil(p1.meta.total / 10) })
     expect(p2.meta.total).toBe(p1.meta.total)
     expect(p1.data).toHaveLength(10)
     expect(p2.data.some((x) => p1.data.some((y) => y.sku === x.sku))).toBe(false)
-    const last = await search({ type: 'pad_set', pageSize: '10', page: String(p1.meta.pageCount) })
-    expect(last.data.length).toBe(p1.meta.total - (p1.meta.pageCount - 1) * 10)
-    expect((await search({ type: 'pad_set', pageSize: '10', page: String(p1.meta.pageCount + 1) })).data).toEqual([])
+    const last = await search({ type: 'pad_set', pageSize: '10', page: String(p1.meta.pages) })
+    expect(last.data.length).toBe(p1.meta.total - (p1.meta.pages - 1) * 10)
+    expect((await search({ type: 'pad_set', pageSize: '10', page: String(p1.meta.pages + 1) })).data).toEqual([])
   })
 })
 

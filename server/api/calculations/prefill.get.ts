@@ -6,30 +6,11 @@
  *    (`assumptions`) and plain notes. Nothing is computed here: POST /api/calculations/hydraulics does that.
  * 401 signed out; 422 bad query (`vehicleId`, `sku`, `opt.<key>`); 404 unknown vehicle or part.
  */
-import { z } from 'zod'
-import { SkuSchema, answersFromQuery } from '#shared/schemas/parts'
-import { answerProblems } from '#shared/utils/catalogue/qualifiers'
-import { Vehicle, VehicleOption } from '../../models/catalogue'
-import { PrefillNotFound, buildPrefill } from '../../services/prefill'
-
-const QuerySchema = z.object({
-  vehicleId: z.coerce.number({ error: 'vehicleId must be a number' }).int({ error: 'vehicleId must be a whole number' }).positive({ error: 'vehicleId is required' }),
-  sku: z.preprocess((v) => (v === '' ? undefined : v), SkuSchema.optional()),
-})
+import { PrefillQuerySchema, answersFromQuery } from '#shared/schemas/catalogue/vehicle-queries'
+import { buildPrefill } from '../../services/prefill'
 
 export default defineEventHandler(async (event) => {
   requireAbility(event, 'calculations.use')
-  const raw = getQuery(event)
-  const query = parseWith(QuerySchema, raw)
-  const answers = answersFromQuery(raw)
-  if (!(await Vehicle.findByPk(query.vehicleId, { attributes: ['id'] }))) throw notFound('Vehicle')
-  const options = await VehicleOption.findAll({ where: { vehicleId: query.vehicleId } })
-  const problems = answerProblems(options, answers)
-  if (Object.keys(problems).length) throw invalidInput(problems)
-  try {
-    return await buildPrefill(query.vehicleId, query.sku, answers)
-  } catch (err) {
-    if (err instanceof PrefillNotFound) throw notFound(err.what)
-    throw err
-  }
+  const query = queryWith(event, PrefillQuerySchema)
+  return buildPrefill(query.vehicleId, query.sku, answersFromQuery(getQuery(event)))
 })

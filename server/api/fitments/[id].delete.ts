@@ -1,5 +1,5 @@
 /** DELETE /api/fitments/:id -> 204. Audited. */
-import { FitmentIdParamsSchema } from '#shared/schemas/parts'
+import { FitmentIdParamsSchema } from '#shared/schemas/catalogue/params'
 import { deleteFitment } from '../../services/catalogue/upkeep'
 
 export default defineEventHandler(async (event) => {

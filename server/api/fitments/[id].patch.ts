@@ -1,5 +1,6 @@
 /** PATCH /api/fitments/:id  { axle?, side?, quantity?, qualifiers?, note? } -> { id }. Same checks as adding. Audited. */
-import { FitmentIdParamsSchema, FitmentPatchSchema } from '#shared/schemas/parts'
+import { FitmentPatchSchema } from '#shared/schemas/catalogue/fitments'
+import { FitmentIdParamsSchema } from '#shared/schemas/catalogue/params'
 import { patchFitment } from '../../services/catalogue/upkeep'
 
 export default defineEventHandler(async (event) => {

@@ -4,7 +4,7 @@
  * branch, prices for callers who may see them, and `alternatives` with the same fitting dimensions within
  * `alternativesRule`. 404 for an unknown SKU.
  */
-import { SkuParamsSchema } from '#shared/schemas/parts'
+import { SkuParamsSchema } from '#shared/schemas/catalogue/params'
 import { partDetail } from '../../services/catalogue/parts'
 import { catalogueContext } from '../../services/catalogue/context'
 

@@ -2,7 +2,8 @@
  * PATCH /api/parts/:sku  { productLine?, description?, status?, specs?, oeNumbers? } -> { sku }.
  * `specs` replaces the whole specification and is checked against the part type's schema. Audited with before/after.
  */
-import { PartPatchSchema, SkuParamsSchema } from '#shared/schemas/parts'
+import { SkuParamsSchema } from '#shared/schemas/catalogue/params'
+import { PartPatchSchema } from '#shared/schemas/catalogue/upkeep'
 import { patchPart } from '../../services/catalogue/upkeep'
 
 export default defineEventHandler(async (event) => {

@@ -3,7 +3,7 @@
  * option `qualifiers` it applies to), its option questions (`options[]`), master cylinder bore, pedal and booster
  * ratios, circuit split, kerb mass and tyre size. 404 for an unknown vehicle.
  */
-import { VehicleIdParamsSchema } from '#shared/schemas/parts'
+import { VehicleIdParamsSchema } from '#shared/schemas/catalogue/params'
 import { vehicleDetail } from '../../services/catalogue/vehicles'
 
 export default defineEventHandler(async (event) => {

@@ -4,7 +4,7 @@
  * `count` is the number of vehicles (engine/variants) under that choice; a variant carries `partCount` and
  * `questionCount`. A model needs a make and a year a model (422 naming the missing one).
  */
-import { VehicleFacetsQuerySchema } from '#shared/schemas/parts'
+import { VehicleFacetsQuerySchema } from '#shared/schemas/catalogue/vehicle-queries'
 import { catalogueContext } from '../../services/catalogue/context'
 import { facetsOf, vehicleSummaries } from '../../services/catalogue/vehicles'
 

@@ -5,7 +5,8 @@
  */
 import { QueryTypes } from 'sequelize'
 import { getDb } from '../../utils/db'
-import { FITTING_RULES, type PartType } from '../../../shared/schemas/parts'
+import type { PartType } from '../../../shared/schemas/catalogue/part-types'
+import { FITTING_RULES } from '../../../shared/utils/catalogue/fitting-rules'
 import { PartSearchIndex, type IndexInput } from './search-index'
 import { readRevision } from './pricing'
 

@@ -3,10 +3,12 @@
  */
 import { QueryTypes } from 'sequelize'
 import { getDb } from '../../utils/db'
+import { pageOfList } from '../../utils/page'
 import { Part, PartOeNumber, Supersession } from '../../models/catalogue'
-import {
-  FITTING_RULES, PART_TYPE_LABELS, axleOfSpecs, sameFitting, type PartListQuery, type PartType,
-} from '../../../shared/schemas/parts'
+import type { PartListQuery } from '../../../shared/schemas/catalogue/list-query'
+import { PART_TYPE_LABELS, type PartType } from '../../../shared/schemas/catalogue/part-types'
+import { axleOfSpecs } from '../../../shared/schemas/catalogue/specs'
+import { FITTING_RULES, sameFitting } from '../../../shared/utils/catalogue/fitting-rules'
 import { getPartIndex } from './catalogue-index'
 import { planQuery } from './search-plan'
 import { priceFields, pricesFor, stockFor, type PricingContext } from './pricing'
@@ -27,14 +29,15 @@ async function pageRows(ids: number[]): Promise<Map<number, PageRow>> {
   return new Map(rows.map((r) => [r.id, r]))
 }
 
-/** GET /api/parts: `{ data, meta }`, ranked when there is a query, by SKU otherwise. */
+/**
+ * GET /api/parts: one `Page` of the hits, ranked when there is a query, by SKU otherwise; `meta` also says which
+ * price version the prices come from and how the query was read.
+ */
 export async function searchParts(query: PartListQuery, pricing: PricingContext) {
   const index = await getPartIndex(pricing.revision.catalogue)
   const plan = planQuery(query.q ?? '')
   const { hits, types } = index.search(plan, { type: query.type, axle: query.axle, ranges: query.ranges })
-  const total = hits.length
-  const start = (query.page - 1) * query.pageSize
-  const page = hits.slice(start, start + query.pageSize)
+  const { data: page, meta } = pageOfList(query, hits)
   const ids = page.map((h) => h.id)
   const oeIds = page.filter((h) => h.by === 'oe' || h.by === 'similar').map((h) => h.id)
   const [rows, prices, stock, oe] = await Promise.all([
@@ -64,7 +67,7 @@ export async function searchParts(query: PartListQuery, pricing: PricingContext)
   return {
     data,
     meta: {
-      page: query.page, pageSize: query.pageSize, total, pageCount: Math.max(1, Math.ceil(total / query.pageSize)),
+      ...meta,
       priceVersion: pricing.view.kind === 'none' ? null : pricing.priceVersion?.version ?? null,
       // how the query was read, so the page can say "front discs 300 mm"
       understood: {

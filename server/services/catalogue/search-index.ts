@@ -3,21 +3,24 @@
  * catalogue-index.ts fills it from the database and keeps it current.
  *
  * Built for a large catalogue (200k parts) on a small machine:
- * - identifiers (SKU, OE numbers, superseded SKUs) live in one sorted array: exact and prefix lookups are binary
- *   searches and a typo (one wrong, missing, extra or swapped character) is found by looking up the few hundred
- *   one-slip variants of what was typed. They never enter the text index, where 600k unique terms would cost
- *   hundreds of megabytes;
+ * - identifiers (SKU, OE numbers, superseded SKUs) live in one sorted table (identifier-table.ts);
  * - per part only compact columns are kept (type, axle, status, attribute bits, the dimensions filters use, the
- *   word ids of its description); descriptions and specs are read from the database for the page shown;
+ *   word ids of its description: part-columns.ts); descriptions and specs are read from the database for the page
+ *   shown;
  * - words: one `minisearch` index per part type holding only the words that are selective in that type (on at most
  *   {@link COMMON_DF} of its parts). Broader words keep plain posting lists and act as filters on the candidates
  *   instead of being scored, and type/axle words never get here (search-plan.ts makes them filters);
  * - a search touches only the part types it asks for; typo tolerance for words of five letters or more.
  */
 import MiniSearch from 'minisearch'
-import { axleOfSpecs, PART_TYPES, type Dimension, type DimensionRange, type PartType } from '../../../shared/schemas/parts'
-import { editDistance, indexTerms, type Attribute, type ScoredTerm, type SearchPlan } from './search-plan'
+import { DIMENSIONS, type Dimension, type DimensionRange } from '../../../shared/schemas/catalogue/list-query'
+import { PART_TYPES, type PartType } from '../../../shared/schemas/catalogue/part-types'
+import { axleOfSpecs } from '../../../shared/schemas/catalogue/specs'
+import type { FittingRule } from '../../../shared/utils/catalogue/fitting-rules'
 import type { AxleName } from '../../../shared/types/axles'
+import { ID_KIND, IdentifierTable, norm, type IdEntry } from './identifier-table'
+import { ATTR_BITS, AXLE_CODE, TYPES_WITH_DIMENSION, attributesOf, dimensionsOf, fittingKey } from './part-columns'
+import { editDistance, indexTerms, type ScoredTerm, type SearchPlan } from './search-plan'
 
 export interface IndexInput {
   id: number
@@ -50,58 +53,10 @@ export const COMMON_DF = 300
 /** Prefix lookups of identifiers stop after this many entries (a two-letter prefix matches a whole range). */
 export const MAX_PREFIX_HITS = 500
 
-const ATTR_BITS: Record<Attribute, number> = { vented: 1, solid: 2, remanufactured: 4, new: 8, electric: 16, cable: 32, tandem: 64 }
-const AXLE_CODE = { front: 1, rear: 2 } as const
-const KIND = { sku: 0, superseded: 1, oe: 2, skuDigits: 3 } as const
 const KIND_SCORE = [4e9, 3e9, 2e9, 1.5e9]
 const KIND_NAME: MatchKind[] = ['sku', 'superseded', 'oe', 'sku']
 const TYPE_CODE = new Map(PART_TYPES.map((t, i) => [t, i]))
-const DIMS: Dimension[] = ['diameter', 'bore', 'piston', 'thickness', 'width', 'length']
-
-/** Lower-case letters and digits: how identifiers are compared inside the index. */
-export const norm = (s: string) => s.toLowerCase().replace(/[^a-z0-9]/g, '')
-
-/** The dimensions of a part that numbers and range filters compare with (at most two values each). */
-export function dimensionsOf(type: PartType, s: Record<string, unknown>): Partial<Record<Dimension, number[]>> {
-  const n = (k: string) => (typeof s[k] === 'number' ? [s[k] as number] : undefined)
-  switch (type) {
-    case 'disc': return { diameter: n('diameterMm'), thickness: n('thicknessMm') }
-    case 'drum': return { diameter: n('diameterMm'), width: n('widthMm') }
-    case 'shoe_set': return { diameter: n('diameterMm'), width: n('widthMm') }
-    case 'pad_set': return { width: n('widthMm'), thickness: n('thicknessMm') }
-    case 'caliper': return { piston: Array.isArray(s.pistonDiametersMm) ? [...new Set(s.pistonDiametersMm as number[])].slice(0, 2) : undefined }
-    case 'master_cylinder':
-    case 'wheel_cylinder': return { bore: n('boreMm') }
-    case 'hose':
-    case 'wear_sensor': return { length: n('lengthMm') }
-    default: return {}
-  }
-}
-/** Which part types carry a dimension (a `boreMm` filter searches master and wheel cylinders only). */
-export const TYPES_WITH_DIMENSION: Record<Dimension, PartType[]> = {
-  diameter: ['disc', 'drum', 'shoe_set'], thickness: ['disc', 'pad_set'], width: ['pad_set', 'drum', 'shoe_set'],
-  piston: ['caliper'], bore: ['master_cylinder', 'wheel_cylinder'], length: ['hose', 'wear_sensor'],
-}
-
-function attributesOf(s: Record<string, unknown>): number {
-  let a = 0
-  if (s.vented === true) a |= ATTR_BITS.vented
-  if (s.vented === false) a |= ATTR_BITS.solid
-  if (s.condition === 'remanufactured') a |= ATTR_BITS.remanufactured
-  if (s.condition === 'new') a |= ATTR_BITS.new
-  if (s.parkingBrake === 'electric') a |= ATTR_BITS.electric
-  if (s.parkingBrake === 'cable') a |= ATTR_BITS.cable
-  if (s.tandem === true) a |= ATTR_BITS.tandem
-  return a
-}
-
-/**
- * The exact-equality part of a type's fitting rule as one string (shared/schemas/parts.ts FITTING_RULES): parts with
- * the same key are candidates for "compatible alternatives"; toleranced dimensions are checked afterwards.
- */
-export function fittingKey(type: PartType, s: Record<string, unknown>, rules: { key: string; tolerance?: number }[]): string {
-  return rules.filter((r) => !r.tolerance).map((r) => JSON.stringify(s[r.key] ?? null)).join('|')
-}
+const DIMS: readonly Dimension[] = DIMENSIONS
 
 interface TypeIndex {
   ms: MiniSearch<{ id: number; text: string }>
@@ -127,19 +82,15 @@ export class PartSearchIndex {
   private termsOf: (Int32Array | null)[] = []
   private fitKeyOf: string[] = []
   private slotOf = new Map<number, number>()
-  // identifiers: sorted keys with the slot and kind of each entry
-  private idKeys: string[] = []
-  private idSlot: number[] = []
-  private idKind: number[] = []
-  private pending: { keys: string[]; slots: number[]; kinds: number[] } | null = null
+  private ids = new IdentifierTable()
   private oldNotes = new Map<string, { oldSku: string; note: string }>()
   // words
   private vocab = new Map<string, number>()
   private vocabList: string[] = []
   private readonly types = new Map<PartType, TypeIndex>()
-  private fittingRules: Record<PartType, { key: string; tolerance?: number }[]> | null = null
+  private fittingRules: Record<PartType, FittingRule[]> | null = null
 
-  constructor(fittingRules?: Record<PartType, { key: string; tolerance?: number }[]>) {
+  constructor(fittingRules?: Record<PartType, FittingRule[]>) {
     this.fittingRules = fittingRules ?? null
     for (const t of PART_TYPES) {
       this.types.set(t, {
@@ -210,14 +161,14 @@ export class PartSearchIndex {
     return { slot, words }
   }
 
-  private identifierEntries(input: IndexInput, slot: number): [string, number, number][] {
+  private identifierEntries(input: IndexInput, slot: number): IdEntry[] {
     const sku = norm(input.sku)
-    const out: [string, number, number][] = [[sku, slot, KIND.sku]]
+    const out: IdEntry[] = [[sku, slot, ID_KIND.sku]]
     const digitsOnly = sku.replace(/^[a-z]+/, '')
-    if (digitsOnly !== sku && digitsOnly.length >= 3) out.push([digitsOnly, slot, KIND.skuDigits])
-    for (const o of input.oeNumbers) out.push([norm(o), slot, KIND.oe])
+    if (digitsOnly !== sku && digitsOnly.length >= 3) out.push([digitsOnly, slot, ID_KIND.skuDigits])
+    for (const o of input.oeNumbers) out.push([norm(o), slot, ID_KIND.oe])
     for (const r of input.replaces) {
-      out.push([norm(r.oldSku), slot, KIND.superseded])
+      out.push([norm(r.oldSku), slot, ID_KIND.superseded])
       this.oldNotes.set(`${norm(r.oldSku)}|${slot}`, r)
     }
     return out.filter((e) => e[0].length > 0)
@@ -232,11 +183,10 @@ export class PartSearchIndex {
 
   /** Bulk load, step 1 (any number of batches): columns, words and identifiers of each part. */
   addBatch(inputs: Iterable<IndexInput>): void {
-    this.pending ??= { keys: [], slots: [], kinds: [] }
     for (const input of inputs) {
       if (this.slotOf.has(input.id)) continue
       const { slot } = this.place(input)
-      for (const [k, sl, kind] of this.identifierEntries(input, slot)) { this.pending.keys.push(k); this.pending.slots.push(sl); this.pending.kinds.push(kind) }
+      this.ids.stage(this.identifierEntries(input, slot))
     }
   }
 
@@ -256,16 +206,7 @@ export class PartSearchIndex {
       arr.push({ id: slot, text: this.msText(type, terms) })
     }
     for (const [type, arr] of docs) this.types.get(type)!.ms.addAll(arr)
-    const p = this.pending
-    this.pending = null
-    if (p && p.keys.length) {
-      const keys = this.idKeys.concat(p.keys), slots = this.idSlot.concat(p.slots), kinds = this.idKind.concat(p.kinds)
-      const order = Array.from({ length: keys.length }, (_, i) => i)
-      order.sort((a, b) => (keys[a]! < keys[b]! ? -1 : keys[a]! > keys[b]! ? 1 : kinds[a]! - kinds[b]!))
-      this.idKeys = order.map((i) => keys[i]!)
-      this.idSlot = order.map((i) => slots[i]!)
-      this.idKind = order.map((i) => kinds[i]!)
-    }
+    this.ids.commit()
     for (const t of this.types.keys()) this.listOf(t)
   }
 
@@ -282,12 +223,7 @@ export class PartSearchIndex {
     const ti = this.types.get(input.type)!
     for (const w of words) ti.common.get(w)?.push(slot)
     ti.ms.add({ id: slot, text: this.msText(input.type, words) })
-    for (const e of this.identifierEntries(input, slot)) {
-      const i = this.lowerBound(e[0])
-      this.idKeys.splice(i, 0, e[0])
-      this.idSlot.splice(i, 0, e[1])
-      this.idKind.splice(i, 0, e[2])
-    }
+    this.ids.insert(this.identifierEntries(input, slot))
   }
 
   remove(partId: number): void {
@@ -306,14 +242,7 @@ export class PartSearchIndex {
     this.statusOf[slot] = 2
     this.termsOf[slot] = null
     this.slotOf.delete(partId)
-    // drop its identifier entries
-    const keep: number[] = []
-    for (let i = 0; i < this.idSlot.length; i++) if (this.idSlot[i] !== slot) keep.push(i)
-    if (keep.length !== this.idSlot.length) {
-      this.idKeys = keep.map((i) => this.idKeys[i]!)
-      this.idKind = keep.map((i) => this.idKind[i]!)
-      this.idSlot = keep.map((i) => this.idSlot[i]!)
-    }
+    this.ids.removeSlot(slot)
   }
 
   private listOf(type: PartType): number[] {
@@ -334,44 +263,6 @@ export class PartSearchIndex {
     const out: number[] = []
     for (const s of this.listOf(type)) {
       if (s !== slot && this.statusOf[s] === 0 && this.fitKeyOf[s] === key) { out.push(this.partId[s]!); if (out.length >= limit) break }
-    }
-    return out
-  }
-
-  // ---- identifiers
-
-  private lowerBound(key: string): number {
-    let lo = 0, hi = this.idKeys.length
-    while (lo < hi) { const mid = (lo + hi) >>> 1; if (this.idKeys[mid]! < key) lo = mid + 1; else hi = mid }
-    return lo
-  }
-
-  private exact(key: string): number[] {
-    const out: number[] = []
-    for (let i = this.lowerBound(key); i < this.idKeys.length && this.idKeys[i] === key; i++) out.push(i)
-    return out
-  }
-
-  /** Entries one slip away (Damerau: one substitution, deletion, insertion or swap of neighbours). */
-  private oneSlip(key: string): number[] {
-    const alphabet = 'abcdefghijklmnopqrstuvwxyz0123456789'
-    const variants = new Set<string>()
-    for (let i = 0; i < key.length; i++) {
-      variants.add(key.slice(0, i) + key.slice(i + 1))
-      if (i + 1 < key.length) variants.add(key.slice(0, i) + key[i + 1] + key[i] + key.slice(i + 2))
-      for (const c of alphabet) if (c !== key[i]) variants.add(key.slice(0, i) + c + key.slice(i + 1))
-    }
-    for (let i = 0; i <= key.length; i++) for (const c of alphabet) variants.add(key.slice(0, i) + c + key.slice(i))
-    variants.delete(key)
-    const out: number[] = []
-    for (const v of variants) for (const i of this.exact(v)) out.push(i)
-    return out
-  }
-
-  private prefixed(key: string, limit: number): number[] {
-    const out: number[] = []
-    for (let i = this.lowerBound(key); i < this.idKeys.length && this.idKeys[i]!.startsWith(key) && out.length < limit; i++) {
-      if (this.idKeys[i] !== key) out.push(i)
     }
     return out
   }
@@ -443,15 +334,16 @@ export class PartSearchIndex {
     // identifiers: exact first (SKU, then parts replacing a superseded SKU, then OE), then one-slip, then prefix
     const hits: Hit[] = []
     const seen = new Set<number>()
+    const ids = this.ids
     const push = (entry: number, score: number, by?: MatchKind) => {
-      const slot = this.idSlot[entry]!
+      const slot = ids.slot(entry)
       if (seen.has(slot) || !accept(slot) || !hasWords(slot, 'AND')) return
       seen.add(slot)
-      const kind = this.idKind[entry]!
-      const h: Hit = { id: this.partId[slot]!, score, by: by ?? KIND_NAME[kind]!, identifier: this.idKeys[entry] }
-      if (kind === KIND.superseded) {
+      const kind = ids.kind(entry)
+      const h: Hit = { id: this.partId[slot]!, score, by: by ?? KIND_NAME[kind]!, identifier: ids.key(entry) }
+      if (kind === ID_KIND.superseded) {
         // a superseded SKU, typed exactly or with a slip, lists its replacement and says so
-        const n = this.oldNotes.get(`${this.idKeys[entry]}|${slot}`)
+        const n = this.oldNotes.get(`${ids.key(entry)}|${slot}`)
         if (n) { h.oldSku = n.oldSku; h.note = n.note }
         if (by !== 'prefix') h.by = 'superseded'
       }
@@ -459,12 +351,12 @@ export class PartSearchIndex {
     }
     const identifiers = plan.terms.filter((t) => t.kind === 'identifier')
     for (const t of identifiers) {
-      const exact = this.exact(t.term).sort((a, b) => KIND_SCORE[this.idKind[b]!]! - KIND_SCORE[this.idKind[a]!]!)
+      const exact = ids.exact(t.term).sort((a, b) => KIND_SCORE[ids.kind(b)]! - KIND_SCORE[ids.kind(a)]!)
       // a discontinued SKU ranks after the part that replaced it (its superseded entry scores higher)
-      for (const e of exact) push(e, this.idKind[e] === KIND.sku && this.statusOf[this.idSlot[e]!] !== 0 ? 2.5e9 : KIND_SCORE[this.idKind[e]!]!)
+      for (const e of exact) push(e, ids.kind(e) === ID_KIND.sku && this.statusOf[ids.slot(e)] !== 0 ? 2.5e9 : KIND_SCORE[ids.kind(e)]!)
       // a typo is looked for only when nothing matched exactly
-      if (!exact.length && t.fuzzy > 0) for (const e of this.oneSlip(t.term)) push(e, 1e9 - this.idKind[e]!, 'similar')
-      if (t.prefix) for (const e of this.prefixed(t.term, MAX_PREFIX_HITS)) push(e, 5e8 - this.idKeys[e]!.length, 'prefix')
+      if (!exact.length && t.fuzzy > 0) for (const e of ids.oneSlip(t.term)) push(e, 1e9 - ids.kind(e), 'similar')
+      if (t.prefix) for (const e of ids.prefixed(t.term, MAX_PREFIX_HITS)) push(e, 5e8 - ids.key(e).length, 'prefix')
     }
     hits.sort((a, b) => b.score - a.score)
     if (identifiers.length) return { hits, types: [...types] }

@@ -5,7 +5,9 @@
  * "reman", "electric") become spec filters, stop words are dropped, and only identifiers and the remaining words
  * are scored, with fuzzy matching for identifiers and longer words only. Pure: no I/O.
  */
-import { normaliseIdentifier, type Dimension, type PartType } from '../../../shared/schemas/parts'
+import { normaliseIdentifier } from '../../../shared/schemas/catalogue/params'
+import type { Dimension } from '../../../shared/schemas/catalogue/list-query'
+import type { PartType } from '../../../shared/schemas/catalogue/part-types'
 import type { AxleName } from '../../../shared/types/axles'
 
 export type Attribute = 'vented' | 'solid' | 'remanufactured' | 'new' | 'electric' | 'cable' | 'tandem'

@@ -8,19 +8,15 @@ import { Op, type Transaction } from 'sequelize'
 import { ZodError } from 'zod'
 import { audit } from '../../utils/audit'
 import { Fitment, Part, PartOeNumber, Supersession, Vehicle, VehicleBrake, VehicleOption } from '../../models/catalogue'
-import {
-  axleOfSpecs, normaliseIdentifier, parseSpecs, type FitmentInput, type PartCreateInput, type PartPatchInput, type PartType,
-} from '../../../shared/schemas/parts'
+import type { FitmentInput } from '../../../shared/schemas/catalogue/fitments'
+import { normaliseIdentifier } from '../../../shared/schemas/catalogue/params'
+import type { PartType } from '../../../shared/schemas/catalogue/part-types'
+import { axleOfSpecs, parseSpecs } from '../../../shared/schemas/catalogue/specs'
+import type { PartCreateInput, PartPatchInput } from '../../../shared/schemas/catalogue/upkeep'
 import { answerProblems, canonicalAnswers } from '../../../shared/utils/catalogue/qualifiers'
 import { catalogueWrite } from './changes'
 import { oeDifferencesOf } from './vehicle-parts'
-import { DomainError, invalidInput, conflict } from '../errors'
-
-/** A refusal tied to fields (422), or to the whole request (404, 409) with the fields it concerns. */
-function refusal(status: 404 | 409 | 422, message: string, fields: Record<string, string> = {}): DomainError {
-  if (status === 422) return invalidInput(fields, message)
-  return new DomainError(status === 404 ? 'not_found' : 'conflict', message, { fields })
-}
+import { conflict, invalidInput, notFound } from '../errors'
 
 function specsOrThrow(type: PartType, specs: unknown) {
   try {
@@ -32,7 +28,7 @@ function specsOrThrow(type: PartType, specs: unknown) {
       if (i.code === 'unrecognized_keys') for (const k of i.keys) fields[`specs.${[...i.path, k].join('.')}`] ??= `${k} is not a ${type} specification`
       else fields[['specs', ...i.path.map(String)].join('.')] ??= i.message
     }
-    throw refusal(422, 'The specifications need attention.', fields)
+    throw invalidInput(fields, 'The specifications need attention.')
   }
 }
 
@@ -62,7 +58,7 @@ export async function createPart(actorUserId: number, input: PartCreateInput): P
   const specs = specsOrThrow(input.type, input.specs)
   return catalogueWrite(async (t) => {
     if (await Part.findOne({ where: { sku: input.sku }, transaction: t }) || await Supersession.findOne({ where: { oldSku: input.sku }, transaction: t })) {
-      throw refusal(409, `SKU ${input.sku} is already in the catalogue.`, { sku: 'this SKU is already in use' })
+      throw conflict(`SKU ${input.sku} is already in the catalogue.`, undefined, { sku: 'this SKU is already in use' })
     }
     const p = await Part.create({ sku: input.sku, type: input.type, productLine: input.productLine, description: input.description, specs, status: 'active' }, { transaction: t })
     await replaceOe(t, p.id, input.oeNumbers)
@@ -74,7 +70,7 @@ export async function createPart(actorUserId: number, input: PartCreateInput): P
 export async function patchPart(actorUserId: number, sku: string, input: PartPatchInput): Promise<Part> {
   return catalogueWrite(async (t) => {
     const p = await Part.findOne({ where: { sku }, transaction: t })
-    if (!p) throw refusal(404, `Part ${sku} not found.`)
+    if (!p) throw notFound(`Part ${sku}`)
     const before = await snapshot(t, p)
     if (input.specs !== undefined) p.specs = specsOrThrow(p.type as PartType, input.specs)
     if (input.description !== undefined) p.description = input.description
@@ -84,7 +80,7 @@ export async function patchPart(actorUserId: number, sku: string, input: PartPat
       // a spec change must not move the part to another axle under its existing fitment
       const axle = axleOfSpecs(p.type as PartType, p.specs) ?? 'all'
       const clash = await Fitment.count({ where: { partId: p.id, axle: { [Op.ne]: axle } }, transaction: t })
-      if (clash) throw refusal(422, 'The specifications need attention.', { [`specs.${'axle' in p.specs ? 'axle' : 'position'}`]: `this part is fitted on another axle on ${clash} vehicle(s); change that fitment first` })
+      if (clash) throw invalidInput({ [`specs.${'axle' in p.specs ? 'axle' : 'position'}`]: `this part is fitted on another axle on ${clash} vehicle(s); change that fitment first` }, 'The specifications need attention.')
     }
     await p.save({ transaction: t })
     if (input.oeNumbers !== undefined) await replaceOe(t, p.id, input.oeNumbers)
@@ -97,13 +93,13 @@ export async function patchPart(actorUserId: number, sku: string, input: PartPat
 /** Checks a fitment against its part and vehicle; returns canonical qualifiers. */
 async function checkFitment(t: Transaction, part: Part, f: Pick<FitmentInput, 'vehicleId' | 'axle' | 'qualifiers' | 'note'>) {
   const vehicle = await Vehicle.findByPk(f.vehicleId, { transaction: t })
-  if (!vehicle) throw refusal(422, 'The fitment needs attention.', { vehicleId: `there is no vehicle ${f.vehicleId}` })
+  if (!vehicle) throw invalidInput({ vehicleId: `there is no vehicle ${f.vehicleId}` }, 'The fitment needs attention.')
   const expected = axleOfSpecs(part.type as PartType, part.specs) ?? 'all'
-  if (f.axle !== expected) throw refusal(422, 'The fitment needs attention.', { axle: expected === 'all' ? 'this part serves the whole vehicle: use axle "all"' : `this part is made for the ${expected} axle` })
+  if (f.axle !== expected) throw invalidInput({ axle: expected === 'all' ? 'this part serves the whole vehicle: use axle "all"' : `this part is made for the ${expected} axle` }, 'The fitment needs attention.')
   const options = (await VehicleOption.findAll({ where: { vehicleId: vehicle.id }, transaction: t })).map((o) => ({ key: o.key, label: o.label, question: o.question, values: o.values }))
   const problems = answerProblems(options, f.qualifiers)
   if (Object.keys(problems).length) {
-    throw refusal(422, 'The fitment needs attention.', Object.fromEntries(Object.entries(problems).map(([k, v]) => [`qualifiers.${k.slice(4)}`, v])))
+    throw invalidInput(Object.fromEntries(Object.entries(problems).map(([k, v]) => [`qualifiers.${k.slice(4)}`, v])), 'The fitment needs attention.')
   }
   const qualifiers = canonicalAnswers(options, f.qualifiers)
   // a part whose bore or size differs from the vehicle's original equipment is listed only with a note saying so
@@ -114,7 +110,7 @@ async function checkFitment(t: Transaction, part: Part, f: Pick<FitmentInput, 'v
   const differences = oeDifferencesOf(part.type as PartType, part.specs, f.axle, qualifiers, { mcBoreMm: vehicle.mcBoreMm, brakes } as never)
   if (differences.length && !f.note.trim()) {
     const d = differences[0]!
-    throw refusal(422, 'The fitment needs attention.', { note: `the part's ${d.label} (${String(d.part)} mm) differs from this vehicle's original (${String(d.oe)} mm): say so in the note` })
+    throw invalidInput({ note: `the part's ${d.label} (${String(d.part)} mm) differs from this vehicle's original (${String(d.oe)} mm): say so in the note` }, 'The fitment needs attention.')
   }
   return { vehicle, qualifiers }
 }
@@ -125,11 +121,11 @@ const fitmentKey = (f: { vehicleId: number; axle: string; side: string; qualifie
 export async function addFitment(actorUserId: number, sku: string, input: FitmentInput): Promise<Fitment> {
   return catalogueWrite(async (t) => {
     const part = await Part.findOne({ where: { sku }, transaction: t })
-    if (!part) throw refusal(404, `Part ${sku} not found.`)
+    if (!part) throw notFound(`Part ${sku}`)
     const { qualifiers } = await checkFitment(t, part, input)
     const existing = await Fitment.findAll({ where: { partId: part.id, vehicleId: input.vehicleId }, transaction: t })
     if (existing.some((e) => fitmentKey(e) === fitmentKey({ ...input, qualifiers }))) {
-      throw refusal(409, 'This part is already fitted to that vehicle in the same place.', { vehicleId: 'already fitted with these qualifiers' })
+      throw conflict('This part is already fitted to that vehicle in the same place.', undefined, { vehicleId: 'already fitted with these qualifiers' })
     }
     const f = await Fitment.create({ vehicleId: input.vehicleId, partId: part.id, axle: input.axle, side: input.side, quantity: input.quantity, qualifiers, note: input.note }, { transaction: t })
     await audit(t, { actorUserId, action: 'catalogue.fitment.create', entity: 'fitment', entityId: f.id, changes: { sku, vehicleId: f.vehicleId, axle: f.axle, side: f.side, quantity: f.quantity, qualifiers, note: f.note } })
@@ -140,7 +136,7 @@ export async function addFitment(actorUserId: number, sku: string, input: Fitmen
 export async function patchFitment(actorUserId: number, id: number, input: Partial<FitmentInput>): Promise<Fitment> {
   return catalogueWrite(async (t) => {
     const f = await Fitment.findByPk(id, { transaction: t })
-    if (!f) throw refusal(404, 'Fitment not found.')
+    if (!f) throw notFound('Fitment')
     const part = (await Part.findByPk(f.partId, { transaction: t }))!
     const before = { axle: f.axle, side: f.side, quantity: f.quantity, qualifiers: f.qualifiers, note: f.note }
     const next = { vehicleId: f.vehicleId, axle: (input.axle ?? f.axle) as FitmentInput['axle'], side: input.side ?? f.side, quantity: input.quantity ?? f.quantity, qualifiers: input.qualifiers ?? f.qualifiers, note: input.note ?? f.note }
@@ -155,7 +151,7 @@ export async function patchFitment(actorUserId: number, id: number, input: Parti
 export async function deleteFitment(actorUserId: number, id: number): Promise<void> {
   await catalogueWrite(async (t) => {
     const f = await Fitment.findByPk(id, { transaction: t })
-    if (!f) throw refusal(404, 'Fitment not found.')
+    if (!f) throw notFound('Fitment')
     const part = await Part.findByPk(f.partId, { transaction: t })
     await f.destroy({ transaction: t })
     await audit(t, { actorUserId, action: 'catalogue.fitment.delete', entity: 'fitment', entityId: id, changes: { sku: part?.sku, vehicleId: f.vehicleId, axle: f.axle, side: f.side, qualifiers: f.qualifiers } })
@@ -167,13 +163,13 @@ export async function deleteFitment(actorUserId: number, id: number): Promise<vo
 export async function supersedePart(actorUserId: number, sku: string, newSku: string, note: string): Promise<void> {
   await catalogueWrite(async (t) => {
     const old = await Part.findOne({ where: { sku }, transaction: t })
-    if (!old) throw refusal(404, `Part ${sku} not found.`)
+    if (!old) throw notFound(`Part ${sku}`)
     const next = await Part.findOne({ where: { sku: newSku }, transaction: t })
-    if (!next) throw refusal(422, 'The supersession needs attention.', { newSku: `there is no part ${newSku}` })
-    if (next.id === old.id) throw refusal(422, 'The supersession needs attention.', { newSku: 'a part cannot replace itself' })
-    if (next.type !== old.type) throw refusal(422, 'The supersession needs attention.', { newSku: `${newSku} is a ${next.type}, ${sku} a ${old.type}` })
-    if (next.status !== 'active') throw refusal(422, 'The supersession needs attention.', { newSku: `${newSku} is discontinued itself` })
-    if (await Supersession.findOne({ where: { oldSku: sku }, transaction: t })) throw refusal(409, `${sku} is already superseded.`)
+    if (!next) throw invalidInput({ newSku: `there is no part ${newSku}` }, 'The supersession needs attention.')
+    if (next.id === old.id) throw invalidInput({ newSku: 'a part cannot replace itself' }, 'The supersession needs attention.')
+    if (next.type !== old.type) throw invalidInput({ newSku: `${newSku} is a ${next.type}, ${sku} a ${old.type}` }, 'The supersession needs attention.')
+    if (next.status !== 'active') throw invalidInput({ newSku: `${newSku} is discontinued itself` }, 'The supersession needs attention.')
+    if (await Supersession.findOne({ where: { oldSku: sku }, transaction: t })) throw conflict(`${sku} is already superseded.`)
     const text = note || `${sku} was replaced by ${newSku}.`
     await Supersession.create({ oldSku: sku, newPartId: next.id, note: text }, { transaction: t })
     // earlier SKUs that pointed at the old part now point at the new one

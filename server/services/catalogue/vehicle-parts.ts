@@ -11,14 +11,14 @@
  */
 import { QueryTypes } from 'sequelize'
 import { getDb } from '../../utils/db'
-import { PART_TYPES, PART_TYPE_LABELS, type PartType } from '../../../shared/schemas/parts'
+import { PART_TYPES, PART_TYPE_LABELS, type PartType } from '../../../shared/schemas/catalogue/part-types'
 import {
   answerProblems, canonicalAnswers, matchQualifiers, openQuestions, type Answers, type OptionQuestion, type Qualifiers,
 } from '../../../shared/utils/catalogue/qualifiers'
 import { priceFields, viewKey, type PricingContext, type StoredPrice } from './pricing'
 import { vehicleDetail, type VehicleDetail } from './vehicles'
 import type { FitmentAxle } from '../../../shared/types/axles'
-import { DomainError, invalidInput } from '../errors'
+import { invalidInput } from '../errors'
 
 export const STOCK_TTL_MS = 10 * 60_000
 const MAX_BASES = 5_000

@@ -5,7 +5,7 @@
 import { QueryTypes, type InferAttributes } from 'sequelize'
 import { getDb } from '../../utils/db'
 import { Vehicle, VehicleBrake, VehicleOption } from '../../models/catalogue'
-import type { VehicleFacetsQuery } from '../../../shared/schemas/parts'
+import type { VehicleFacetsQuery } from '../../../shared/schemas/catalogue/vehicle-queries'
 
 export interface VehicleSummary {
   id: number; make: string; model: string; generation: string; body: string; yearFrom: number; yearTo: number | null

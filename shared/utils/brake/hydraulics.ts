@@ -154,14 +154,23 @@ export function computeAxle(axle: Axle, pressureKPa: number, masterCylinderBoreM
     : computeDrumAxle(axle, pressureKPa, masterCylinderBoreMm)
 }
 
-function tyrePart(axle: Axle, torquePerWheelNm: number) {
+/**
+ * The figures every axle has from its torque and pistons: torque per wheel and axle, tyre force, hydraulic ratio and
+ * piston travel (as given, or the default for its kind).
+ */
+function wheelFigures(axle: Axle, torquePerWheelNm: number, pistonAreaMm2: number, mcBoreMm: number) {
   const radius = axleRollingRadiusMm(axle)
   const perWheel = radius ? tyreForceN(torquePerWheelNm, radius.radiusMm) : null
   return {
+    torquePerWheelNm,
+    torquePerAxleNm: 2 * torquePerWheelNm,
     tyreRollingRadiusMm: radius?.radiusMm ?? null,
     tyreRollingRadiusSource: radius?.source ?? null,
     tyreForceN: perWheel,
     axleTyreForceN: perWheel === null ? null : 2 * perWheel,
+    hydraulicRatio: hydraulicRatio(pistonAreaMm2, mcBoreMm),
+    pistonTravelMm: axle.pistonTravelMm ?? DEFAULT_PISTON_TRAVEL_MM[axle.kind],
+    pistonTravelSource: axle.pistonTravelMm === undefined ? ('default' as const) : ('given' as const),
   }
 }
 
@@ -171,8 +180,7 @@ function computeDiscAxle(axle: DiscAxle, pressureKPa: number, mcBoreMm: number):
   const padForce = pistonForceN(pressureKPa, areaPerPad)
   const given = axle.effectiveRadiusMm
   const rEff = given ?? workshopEffectiveRadiusMm(axle.discDiameterMm, Math.max(...axle.pistonDiametersMm))
-  const torque = discTorqueNm(axle.frictionCoefficient, padForce, rEff)
-  const travel = axle.pistonTravelMm ?? DEFAULT_PISTON_TRAVEL_MM.disc
+  const wheel = wheelFigures(axle, discTorqueNm(axle.frictionCoefficient, padForce, rEff), areaPerPad, mcBoreMm)
   // A fixed caliper has the same pistons again on the other side; they move and take fluid too.
   const wheelArea = axle.caliper === 'fixed' ? 2 * areaPerPad : areaPerPad
   return {
@@ -184,21 +192,15 @@ function computeDiscAxle(axle: DiscAxle, pressureKPa: number, mcBoreMm: number):
     applyForceN: padForce,
     effectiveRadiusMm: rEff,
     effectiveRadiusSource: given === undefined ? 'workshop-rule' : 'given',
-    torquePerWheelNm: torque,
-    torquePerAxleNm: 2 * torque,
-    ...tyrePart(axle, torque),
-    hydraulicRatio: hydraulicRatio(areaPerPad, mcBoreMm),
-    pistonTravelMm: travel,
-    pistonTravelSource: axle.pistonTravelMm === undefined ? 'default' : 'given',
-    fluidVolumeMm3: 2 * fluidVolumeMm3(wheelArea, travel),
+    ...wheel,
+    fluidVolumeMm3: 2 * fluidVolumeMm3(wheelArea, wheel.pistonTravelMm),
   }
 }
 
 function computeDrumAxle(axle: DrumAxle, pressureKPa: number, mcBoreMm: number): AxleResult {
   const area = circleAreaMm2(axle.wheelCylinderBoreMm)
   const shoeForce = pistonForceN(pressureKPa, area)
-  const torque = drumTorqueNm(shoeForce, axle.brakeFactor, axle.drumDiameterMm)
-  const travel = axle.pistonTravelMm ?? DEFAULT_PISTON_TRAVEL_MM.drum
+  const wheel = wheelFigures(axle, drumTorqueNm(shoeForce, axle.brakeFactor, axle.drumDiameterMm), area, mcBoreMm)
   return {
     kind: 'drum',
     caliper: null,
@@ -208,14 +210,9 @@ function computeDrumAxle(axle: DrumAxle, pressureKPa: number, mcBoreMm: number):
     applyForceN: shoeForce,
     effectiveRadiusMm: axle.drumDiameterMm / 2,
     effectiveRadiusSource: 'drum-radius',
-    torquePerWheelNm: torque,
-    torquePerAxleNm: 2 * torque,
-    ...tyrePart(axle, torque),
-    hydraulicRatio: hydraulicRatio(area, mcBoreMm),
-    pistonTravelMm: travel,
-    pistonTravelSource: axle.pistonTravelMm === undefined ? 'default' : 'given',
+    ...wheel,
     // Double-acting wheel cylinder: two pistons per wheel, two wheels per axle.
-    fluidVolumeMm3: 2 * 2 * fluidVolumeMm3(area, travel),
+    fluidVolumeMm3: 2 * 2 * fluidVolumeMm3(area, wheel.pistonTravelMm),
   }
 }
 

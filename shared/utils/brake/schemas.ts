@@ -7,6 +7,7 @@
  * Upper limits are plausibility ranges (common practice) meant to catch unit slips such as a bore typed in inches.
  */
 import { z } from 'zod'
+import { AXLES } from '../../types/axles'
 import { parseTyreSize } from './units'
 
 /** One problem with an input, for a 422 response and for showing next to the form field. */
@@ -81,7 +82,7 @@ export const CIRCUIT_SPLITS = ['front-rear', 'diagonal'] as const
 export type CaliperType = (typeof CALIPER_TYPES)[number]
 export type CircuitSplit = (typeof CIRCUIT_SPLITS)[number]
 
-/** Friction coefficient range accepted (issue 5): below 0.05 or above 1.0 is not a brake lining. */
+/** Friction coefficient range accepted: below 0.05 or above 1.0 is not a brake lining (common practice). */
 export const FRICTION_COEFFICIENT_RANGE = { min: 0.05, max: 1.0 } as const
 
 const tyreFields = {
@@ -223,10 +224,8 @@ export type HydraulicsInputRaw = z.input<typeof hydraulicsInputSchema>
 // Wear and fluid
 
 export const WHEEL_POSITIONS = ['front-left', 'front-right', 'rear-left', 'rear-right'] as const
-export const AXLE_NAMES = ['front', 'rear'] as const
 export const FLUID_GRADE_NAMES = ['DOT 3', 'DOT 4', 'DOT 5.1', 'DOT 5'] as const
 export type WheelPosition = (typeof WHEEL_POSITIONS)[number]
-export type AxleName = (typeof AXLE_NAMES)[number]
 export type FluidGradeName = (typeof FLUID_GRADE_NAMES)[number]
 
 /** Accepts "DOT 4", "dot4", "DOT-5.1" and stores the canonical "DOT 4" / "DOT 5.1". */
@@ -266,7 +265,7 @@ export const discWearSchema = z.object({
 })
 
 export const padWearSchema = z.object({
-  axle: enumOf('pad axle', AXLE_NAMES),
+  axle: enumOf('pad axle', AXLES),
   side: enumOf('pad side', ['left', 'right'] as const).optional(),
   /** Friction material left (backing plate excluded), mm. */
   innerMm: nonNegative('inner pad friction material', 'mm', 30),
@@ -327,14 +326,25 @@ export type WearInputRaw = z.input<typeof wearInputSchema>
 /** Result of a parse: the data, or the field issues for a 422. */
 export type ParseResult<T> = { ok: true; data: T } | { ok: false; issues: FieldIssue[] }
 
-/** Validates a hydraulics request body. */
-export function parseHydraulicsInput(body: unknown): ParseResult<HydraulicsInput> {
-  const r = hydraulicsInputSchema.safeParse(body)
-  return r.success ? { ok: true, data: r.data } : { ok: false, issues: fieldIssues(r.error) }
+function parserOf<T>(schema: z.ZodType<T>): (body: unknown) => ParseResult<T> {
+  return (body) => {
+    const r = schema.safeParse(body)
+    return r.success ? { ok: true, data: r.data } : { ok: false, issues: fieldIssues(r.error) }
+  }
 }
 
+/** Validates a hydraulics request body. */
+export const parseHydraulicsInput: (body: unknown) => ParseResult<HydraulicsInput> = parserOf(hydraulicsInputSchema)
+
 /** Validates a wear-check request body. */
-export function parseWearInput(body: unknown): ParseResult<WearInput> {
-  const r = wearInputSchema.safeParse(body)
-  return r.success ? { ok: true, data: r.data } : { ok: false, issues: fieldIssues(r.error) }
+export const parseWearInput: (body: unknown) => ParseResult<WearInput> = parserOf(wearInputSchema)
+
+/**
+ * The validated input of a computation.
+ * @throws BrakeInputError (with field issues) when it does not pass: nothing is computed from half an input.
+ */
+export function validInput<T>(parse: (body: unknown) => ParseResult<T>, raw: unknown): T {
+  const parsed = parse(raw)
+  if (!parsed.ok) throw new BrakeInputError(parsed.issues)
+  return parsed.data
 }

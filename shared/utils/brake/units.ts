@@ -27,55 +27,21 @@ export type LengthUnit = 'mm' | 'in'
 export type ForceUnit = 'N' | 'lbf'
 export type PressureUnit = 'kPa' | 'bar' | 'psi'
 
-/** Inches to millimetres. */
-export function inchToMm(inches: number): number {
-  return inches * MM_PER_INCH
+/** Both ways of one exact factor: `[multiply by it, divide by it]`. */
+function byFactor(factor: number): [(value: number) => number, (value: number) => number] {
+  return [(value) => value * factor, (value) => value / factor]
 }
 
-/** Millimetres to inches. */
-export function mmToInch(mm: number): number {
-  return mm / MM_PER_INCH
-}
-
-/** Square inches to mm² (piston areas quoted in in²). */
-export function squareInchToMm2(in2: number): number {
-  return in2 * MM2_PER_SQUARE_INCH
-}
-
-/** mm² to square inches. */
-export function mm2ToSquareInch(mm2: number): number {
-  return mm2 / MM2_PER_SQUARE_INCH
-}
-
-/** Pound-force to newtons. */
-export function lbfToN(lbf: number): number {
-  return lbf * N_PER_LBF
-}
-
-/** Newtons to pound-force. */
-export function nToLbf(newtons: number): number {
-  return newtons / N_PER_LBF
-}
-
-/** psi to kPa. */
-export function psiToKPa(psi: number): number {
-  return psi * KPA_PER_PSI
-}
-
-/** kPa to psi. */
-export function kPaToPsi(kPa: number): number {
-  return kPa / KPA_PER_PSI
-}
-
-/** bar to kPa. */
-export function barToKPa(bar: number): number {
-  return bar * KPA_PER_BAR
-}
-
-/** kPa to bar. */
-export function kPaToBar(kPa: number): number {
-  return kPa / KPA_PER_BAR
-}
+/** Inches to millimetres and back. */
+export const [inchToMm, mmToInch] = byFactor(MM_PER_INCH)
+/** Square inches to mm² (piston areas quoted in in²) and back. */
+export const [squareInchToMm2, mm2ToSquareInch] = byFactor(MM2_PER_SQUARE_INCH)
+/** Pound-force to newtons and back. */
+export const [lbfToN, nToLbf] = byFactor(N_PER_LBF)
+/** psi to kPa and back. */
+export const [psiToKPa, kPaToPsi] = byFactor(KPA_PER_PSI)
+/** bar to kPa and back. */
+export const [barToKPa, kPaToBar] = byFactor(KPA_PER_BAR)
 
 /** °C to °F (exact definition: °F = °C × 9/5 + 32); used to show the FMVSS No. 116 boiling points both ways. */
 export function celsiusToFahrenheit(celsius: number): number {

@@ -1,5 +1,6 @@
 /** How specifications read for people: a one-line summary for lists and label/value/unit rows for the part page. */
-import { SPEC_FIELDS, type PartType } from '../../schemas/parts'
+import type { PartType } from '../../schemas/catalogue/part-types'
+import { SPEC_FIELDS } from '../../schemas/catalogue/spec-fields'
 
 const n = (v: unknown) => (typeof v === 'number' ? (Number.isInteger(v) ? String(v) : String(Number(v.toFixed(2)))) : '')
 
@@ -41,4 +42,9 @@ export function specRows(type: string, s: Record<string, unknown>): SpecRow[] {
     rows.push({ key: f.key, label: f.label, value, unit: f.unit ?? '' })
   }
   return rows
+}
+
+/** A fitment's option qualifiers for people: `{ front_disc_diameter_mm: "300" }` -> "front disc diameter 300 mm". */
+export function qualifierText(q: Record<string, string>): string {
+  return Object.entries(q).map(([k, v]) => (k.endsWith('_mm') ? `${k.slice(0, -3).replace(/_/g, ' ')} ${v} mm` : `${k.replace(/_/g, ' ')} ${v}`)).join(', ')
 }

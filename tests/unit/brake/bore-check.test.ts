@@ -7,7 +7,9 @@ import {
   type BoreCheckFinding,
   type HydraulicsInputRaw,
 } from '#shared/utils/brake'
-import { circleAreaMm2 } from '#shared/utils/brake/hydraulics'
+
+/** A = π d² / 4 (check-values.md), worked here rather than with the library. */
+const pistonArea = (d: number) => (Math.PI * d * d) / 4
 
 function expectRel(actual: number, expected: number, tol: number) {
   expect(Math.abs(actual - expected)).toBeLessThanOrEqual(tol * Math.abs(expected))
@@ -55,8 +57,8 @@ describe('computeHydraulics without a replacement', () => {
 
   it('line pressure follows P = F / A', () => {
     // Pascal's law, check-values.md: pushrod = pedal × pedal ratio × booster ratio
-    expectRel(r.original.linePressureKPa, ((300 * 4 * 4) / circleAreaMm2(22.22)) * 1000, 1e-12)
-    expectRel(r.original.axles.front.padForceN!, (r.original.linePressureKPa / 1000) * circleAreaMm2(57), 1e-12)
+    expectRel(r.original.linePressureKPa, ((300 * 4 * 4) / pistonArea(22.22)) * 1000, 1e-12)
+    expectRel(r.original.axles.front.padForceN!, (r.original.linePressureKPa / 1000) * pistonArea(57), 1e-12)
   })
 
   it('a healthy original system gives no warnings or dangers', () => {

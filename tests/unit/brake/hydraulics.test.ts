@@ -1,7 +1,6 @@
 import { describe, it, expect } from 'vitest'
 import { unit, type Unit } from 'mathjs'
 import {
-  circleAreaMm2,
   computeAxle,
   computeChain,
   discTorqueNm,
@@ -21,6 +20,7 @@ import {
 } from '#shared/utils/brake/hydraulics'
 import type { Axle, DiscAxle } from '#shared/utils/brake/schemas'
 import { inchToMm, kPaToPsi, lbfToN } from '#shared/utils/brake/units'
+import { prng } from '../../../server/seed/catalogue-data'
 
 /** mathjs types unit arithmetic as Unit | number; these expressions always stay units. */
 const asUnit = (x: Unit | number) => x as Unit
@@ -29,18 +29,11 @@ function expectRel(actual: number, expected: number, tol: number) {
   expect(Math.abs(actual - expected)).toBeLessThanOrEqual(tol * Math.abs(expected))
 }
 
-/** Small seeded generator (mulberry32) so property tests are repeatable. */
-function rng(seed: number) {
-  let a = seed >>> 0
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0
-    let t = a
-    t = Math.imul(t ^ (t >>> 15), t | 1)
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61)
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296
-  }
-}
+/** The seed's small seeded generator (mulberry32), so property tests are repeatable. */
+const rng = prng
 const between = (r: () => number, lo: number, hi: number) => lo + (hi - lo) * r()
+/** A = π d² / 4 (check-values.md), worked here, not with the library. */
+const pistonArea = (d: number) => (Math.PI * d * d) / 4
 
 /** Published example: 100 lbf pedal, 6:1 pedal ratio, no booster. Result in psi. */
 function examplePsi(boreInch: number): number {
@@ -117,7 +110,7 @@ describe('chain formulas against mathjs units', () => {
   it('pad force, torque and tyre force', () => {
     // mathjs 15 units as a general-purpose reference, 1e-9 relative
     const p = 9000 // kPa
-    const area = circleAreaMm2(57)
+    const area = pistonArea(57)
     const pad = pistonForceN(p, area)
     expectRel(pad, unit(p, 'kPa').multiply(unit(area, 'mm^2')).toNumber('N'), 1e-9)
     const torque = discTorqueNm(0.42, pad, 120)
@@ -129,7 +122,7 @@ describe('chain formulas against mathjs units', () => {
 
   it('fluid volume, MC stroke and pedal travel', () => {
     // Fluid volume = piston area × travel; stroke = volume / MC area (check-values.md, Pascal's law chain)
-    const volume = 2 * circleAreaMm2(54) * 0.5
+    const volume = 2 * pistonArea(54) * 0.5
     const stroke = masterCylinderStrokeMm(volume, 22.22)
     expectRel(stroke, volume / ((Math.PI * 22.22 ** 2) / 4), 1e-12)
     expect(pedalTravelMm(stroke, 4)).toBeCloseTo(4 * stroke, 12)
@@ -144,19 +137,19 @@ describe('chain formulas against mathjs units', () => {
     expect(fixed.padForceN).toBeCloseTo(floating.padForceN!, 9)
     expect(fixed.fluidVolumeMm3).toBeCloseTo(2 * floating.fluidVolumeMm3, 9)
     // per axle: 2 wheels × 2 sides × area × travel
-    expect(fixed.fluidVolumeMm3).toBeCloseTo(2 * 2 * circleAreaMm2(44) * 0.5, 9)
+    expect(fixed.fluidVolumeMm3).toBeCloseTo(2 * 2 * pistonArea(44) * 0.5, 9)
   })
 
   it('drum: double-acting wheel cylinder, shoe force and torque', () => {
     const r = computeAxle({ kind: 'drum', wheelCylinderBoreMm: 20.64, drumDiameterMm: 230, brakeFactor: 2, pistonTravelMm: 1 }, 7000, 22)
     expect(r.padForceN).toBeNull()
-    expect(r.shoeForceN).toBeCloseTo(7 * circleAreaMm2(20.64), 9)
+    expect(r.shoeForceN).toBeCloseTo(7 * pistonArea(20.64), 9)
     expect(r.torquePerWheelNm).toBeCloseTo((r.shoeForceN! * 2 * 115) / 1000, 9)
-    expect(r.fluidVolumeMm3).toBeCloseTo(2 * 2 * circleAreaMm2(20.64), 9)
+    expect(r.fluidVolumeMm3).toBeCloseTo(2 * 2 * pistonArea(20.64), 9)
   })
 
   it('hydraulic ratio is wheel area / MC area', () => {
-    expect(hydraulicRatio(circleAreaMm2(54), 22.22)).toBeCloseTo((54 / 22.22) ** 2, 12)
+    expect(hydraulicRatio(pistonArea(54), 22.22)).toBeCloseTo((54 / 22.22) ** 2, 12)
   })
 })
 

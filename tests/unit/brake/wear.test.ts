@@ -1,17 +1,14 @@
 import { describe, it, expect } from 'vitest'
 import { unit } from 'mathjs'
 import {
-  FMVSS_116_GRADES,
   WEAR_DEFAULTS,
   checkDisc,
   checkDrum,
-  checkFluid,
   checkPads,
   computeWear,
-  fluidBoilingPoints,
-  fluidGradesMix,
   worstVerdict,
 } from '#shared/utils/brake/wear'
+import { FMVSS_116_GRADES, checkFluid, fluidBoilingPoints, fluidGradesMix } from '#shared/utils/brake/fluid'
 import { BrakeInputError, FLUID_GRADE_NAMES, type DiscWear } from '#shared/utils/brake/schemas'
 
 describe('FMVSS No. 116 minimum boiling points', () => {

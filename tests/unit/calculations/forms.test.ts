@@ -4,7 +4,7 @@
  */
 import { describe, expect, it } from 'vitest'
 import { computeHydraulics, parseHydraulicsInput, parseWearInput } from '#shared/utils/brake'
-import { formFromDraft, hydraulicsBody, fieldMap } from '~/utils/boreCheckForm'
+import { formFromDraft, hydraulicsBody } from '~/utils/boreCheckForm'
 import { formErrors, inspectionForm, wearBody, withNewLimits } from '~/utils/inspectionForm'
 import { fieldMessages } from '../../../shared/utils/field-messages'
 import { qualifierCondition } from '../../../server/services/inspections'
@@ -34,7 +34,7 @@ describe('bore-check form', () => {
     form.axles.front.pistonDiametersMm = [48, null]
     const r = parseHydraulicsInput(JSON.parse(JSON.stringify(hydraulicsBody(form))))
     expect(r.ok).toBe(false)
-    const fields = fieldMap(r.ok ? [] : r.issues)
+    const fields = fieldMessages(r.ok ? [] : r.issues)
     expect(fields['masterCylinder.boreMm']).toMatch(/required/)
     expect(fields['axles.front.frictionCoefficient']).toMatch(/number/)
     expect(fields['axles.front.pistonDiametersMm[1]']).toMatch(/number/)

@@ -1,8 +1,13 @@
 import { describe, expect, it } from 'vitest'
+import { PART_TYPES } from '#shared/schemas/catalogue/part-types'
 import {
-  answersFromQuery, CaliperSpecsSchema, DiscSpecsSchema, FrictionCodeSchema, MasterCylinderSpecsSchema, PART_TYPES, PartCreateSchema,
-  parsePartListQuery, parseSpecs, sameFitting, SPEC_FIELDS, SPEC_SCHEMAS, VehicleFacetsQuerySchema,
-} from '#shared/schemas/parts'
+  CaliperSpecsSchema, DiscSpecsSchema, FrictionCodeSchema, MasterCylinderSpecsSchema, parseSpecs, SPEC_SCHEMAS,
+} from '#shared/schemas/catalogue/specs'
+import { SPEC_FIELDS } from '#shared/schemas/catalogue/spec-fields'
+import { PartCreateSchema } from '#shared/schemas/catalogue/upkeep'
+import { parsePartListQuery } from '#shared/schemas/catalogue/list-query'
+import { answersFromQuery, VehicleFacetsQuerySchema } from '#shared/schemas/catalogue/vehicle-queries'
+import { sameFitting } from '#shared/utils/catalogue/fitting-rules'
 
 const disc = { axle: 'front', diameterMm: 300, thicknessMm: 25, minThicknessMm: 23, heightMm: 40.5, centreBoreMm: 57.1, boltHoles: 5, pcdMm: 112, vented: true }
 const caliper = { position: 'front-left', caliperType: 'floating', pistonCount: 1, pistonDiametersMm: [57], padShape: 'PS-V151-62-195', parkingBrake: 'none', condition: 'new', coreDepositApplies: false }

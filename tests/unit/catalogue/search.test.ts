@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest'
-import { FITTING_RULES, type PartType } from '#shared/schemas/parts'
+import type { PartType } from '#shared/schemas/catalogue/part-types'
+import { FITTING_RULES } from '#shared/utils/catalogue/fitting-rules'
 import { editDistance, fuzzyFor, indexTerms, planQuery } from '../../../server/services/catalogue/search-plan'
 import { COMMON_DF, PartSearchIndex, type IndexInput } from '../../../server/services/catalogue/search-index'
 
@@ -19,7 +20,7 @@ describe('search query planning', () => {
     expect(planQuery('rear disc 260x10').numbers.map((n) => n.value)).toEqual([260, 10])
     expect(planQuery('disc 300 × 25 x 12').numbers.map((n) => n.value)).toEqual([300, 25, 12])
     // an x inside an OE number is one of its letters, not a size separator (common practice: OE numbers mix
-    // letters and digits); found when a generated OE number "ZQ 66MU9X 01" was searched as "ZQ66MU901"
+    // letters and digits), or "ZQ 66MU9X 01" would be searched as "ZQ66MU901"
     expect(planQuery('ZQ 66MU9X 01').terms.map((t) => t.term)).toEqual(['zq66mu9x01'])
     expect(planQuery('brake fluid').types).toEqual(['fluid'])
   })

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest'
-import { parseSpecs, type PartType } from '#shared/schemas/parts'
+import type { PartType } from '#shared/schemas/catalogue/part-types'
+import { parseSpecs } from '#shared/schemas/catalogue/specs'
 import { matchQualifiers } from '#shared/utils/catalogue/qualifiers'
 import { BORE_MISMATCH, buildCatalogue, MAKES } from '../../../server/seed/catalogue-data'
 

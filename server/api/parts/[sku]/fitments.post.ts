@@ -3,7 +3,8 @@
  * -> 201 { id }. The axle must be the part's own (or "all" for master cylinders and fluid), qualifiers must name the
  * vehicle's options and values, and a part whose bore or size differs from the vehicle's original needs a note.
  */
-import { FitmentInputSchema, SkuParamsSchema } from '#shared/schemas/parts'
+import { FitmentInputSchema } from '#shared/schemas/catalogue/fitments'
+import { SkuParamsSchema } from '#shared/schemas/catalogue/params'
 import { addFitment } from '../../../services/catalogue/upkeep'
 
 export default defineEventHandler(async (event) => {

@@ -2,7 +2,8 @@
  * POST /api/parts/:sku/supersede  { newSku, note } -> { sku, replacedBy }. The part becomes
  * discontinued; searching its SKU finds `newSku` and says so. Audited.
  */
-import { SkuParamsSchema, SupersedeSchema } from '#shared/schemas/parts'
+import { SkuParamsSchema } from '#shared/schemas/catalogue/params'
+import { SupersedeSchema } from '#shared/schemas/catalogue/upkeep'
 import { supersedePart } from '../../../services/catalogue/upkeep'
 
 export default defineEventHandler(async (event) => {

@@ -6,7 +6,8 @@
  * `tradeCostMinor` for distributor staff) appear only for callers who may see prices.
  * 404 unknown vehicle; 422 (`data.fields["opt.<key>"]`) for an option the vehicle lacks or a value it does not offer.
  */
-import { answersFromQuery, VehicleIdParamsSchema } from '#shared/schemas/parts'
+import { VehicleIdParamsSchema } from '#shared/schemas/catalogue/params'
+import { answersFromQuery } from '#shared/schemas/catalogue/vehicle-queries'
 import { catalogueContext } from '../../../services/catalogue/context'
 import { vehiclePartsBody } from '../../../services/catalogue/vehicle-parts'
 
