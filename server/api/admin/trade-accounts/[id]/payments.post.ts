@@ -25,7 +25,7 @@ export default defineEventHandler(async (event) => {
     ...accountMail.paymentReceived({
       businessName: out.org.name, amountMinor: out.amountMinor, reference: body.reference, receivedOn: body.receivedOn,
       balanceMinor: out.balanceMinor, availableMinor: out.availableMinor, statementUrl: appLink('/statement'),
-    }, { currency: quoteCurrency(), locale: 'en-GB' }),
+    }, { currency: serverFormats().currency, locale: 'en-GB' }),
   })
   setResponseStatus(event, 201)
   return { entryId: out.entryId, amountMinor: out.amountMinor, balanceMinor: out.balanceMinor, availableMinor: out.availableMinor }
