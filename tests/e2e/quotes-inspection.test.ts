@@ -5,7 +5,7 @@
  */
 import { beforeAll, describe, expect, it } from 'vitest'
 import { setup } from '@nuxt/test-utils/e2e'
-import { Client, as, env, people } from '../support/api'
+import { type Client, as, env, people } from '../support/api'
 import { VEHICLE_ID, ownerEmail } from '../support/quotes'
 
 await setup({ host: env().baseUrl })
