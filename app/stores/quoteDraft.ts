@@ -1,7 +1,9 @@
 /**
- * The quote being edited: the server's latest answer and the state of the change in flight. Every change goes
- * to the server, which prices it and answers the whole quote; when the quote had left draft the answer is a new
- * revision, and the editor moves to its address.
+ * The quote editor's own state: which change is in flight, the server's field messages and summary for it, and
+ * the note shown after a change made a new revision. The quote itself is the server's and lives in the keyed
+ * fetch (`useQuote`): every change goes to the server, which prices it and answers the whole quote; the answer
+ * is written back there, or, when the quote had left draft and the answer is a new revision, the editor moves
+ * to its address.
  */
 import { defineStore } from 'pinia'
 import type { QuoteDetail } from '#shared/types/quotes'
@@ -9,15 +11,11 @@ import type { QuoteDetail } from '#shared/types/quotes'
 type FetchError = { statusCode?: number; data?: { message?: string; data?: { fields?: Record<string, string> } } }
 
 export const useQuoteDraftStore = defineStore('quoteDraft', () => {
-  const quote = ref<QuoteDetail | null>(null)
   const busy = ref('')
   const fields = ref<Record<string, string>>({})
   const problem = ref('')
-  const notice = ref('')
-
-  function load(q: QuoteDetail | null | undefined) {
-    if (q) quote.value = q
-  }
+  /** said on the revision a change made, once the editor shows it */
+  const notice = ref<{ quoteId: number; text: string } | null>(null)
 
   function clearFeedback() {
     fields.value = {}
@@ -25,19 +23,19 @@ export const useQuoteDraftStore = defineStore('quoteDraft', () => {
   }
 
   /**
-   * Sends one change (`what` names it for the busy state). Returns the answer, or null when it failed (the
-   * server's field messages are in `fields`, its message in `problem`).
+   * Sends one change to `from` (`what` names it for the busy state). Returns the answer, or null when it failed
+   * (the server's field messages are in `fields`, its message in `problem`).
    */
-  async function change<T extends QuoteDetail>(what: string, request: () => Promise<T>): Promise<T | null> {
-    const before = quote.value
+  async function change<T extends QuoteDetail>(what: string, from: QuoteDetail, request: () => Promise<T>): Promise<T | null> {
     busy.value = what
     clearFeedback()
-    notice.value = ''
+    notice.value = null
     try {
       const answer = await request()
-      quote.value = answer
-      if (before && answer.id !== before.id) {
-        notice.value = `This quote had been sent, so the change was made in a new revision (revision ${answer.revision}); revision ${before.revision} is kept as it was.`
+      if (answer.id === from.id) {
+        useNuxtData<QuoteDetail>(quoteKey(answer.id)).data.value = answer
+      } else {
+        notice.value = { quoteId: answer.id, text: `This quote had been sent, so the change was made in a new revision (revision ${answer.revision}); revision ${from.revision} is kept as it was.` }
         await navigateTo(`/quotes/${answer.id}`, { replace: true })
       }
       return answer
@@ -51,5 +49,5 @@ export const useQuoteDraftStore = defineStore('quoteDraft', () => {
     }
   }
 
-  return { quote, busy, fields, problem, notice, load, clearFeedback, change }
+  return { busy, fields, problem, notice, clearFeedback, change }
 })

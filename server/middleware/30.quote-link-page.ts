@@ -20,7 +20,7 @@ export default defineEventHandler(async (event) => {
   setResponseHeaders(event, { 'x-robots-tag': 'noindex', 'x-frame-options': 'DENY' })
   try {
     const { quote } = await loadLinkedQuote(event, decodeURIComponent(m[1]!))
-    event.context.quoteLink = { view: await ownerView(quote, quoteCurrency()) }
+    event.context.quoteLink = { view: await ownerView(quote, serverFormats().currency) }
   } catch (err) {
     const answer = httpAnswerOf(err)
     if (answer?.statusCode !== 404 && answer?.statusCode !== 429) throw err

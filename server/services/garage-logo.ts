@@ -1,6 +1,7 @@
 /**
- * The garage's logo: uploaded with formidable (multipart only, one file, under 2 MB), recognised from its bytes
- * (file-type for PNG and JPEG; SVG by parsing its start), stored as `<uploads>/logos/<32 hex>.<png|jpg|svg>`.
+ * The garage's logo: received through the one upload intake (multipart, one file field `logo`, under 2 MB),
+ * recognised from its bytes (file-type for PNG and JPEG; SVG by parsing its start), stored as
+ * `<uploads>/logos/<32 hex>.<png|jpg|svg>`.
  *
  * SVG is a document that can carry script, so instead of trying to clean one we refuse any SVG that holds
  * anything beyond drawing: script, foreignObject, event handler attributes, links or references outside the
@@ -8,62 +9,20 @@
  * and with nosniff (see the logo routes).
  */
 import { createReadStream } from 'node:fs'
-import { mkdir, readFile, rm, stat } from 'node:fs/promises'
-import { tmpdir } from 'node:os'
-import { join } from 'node:path'
-import { moveIntoStore, newStoredName, storeDir, storedPath, type FileStore } from './stored-files'
+import { readFile, rm, stat } from 'node:fs/promises'
 import type { IncomingMessage } from 'node:http'
-import formidable, { errors as formidableErrors, multipart, type File } from 'formidable'
+import { join } from 'node:path'
 import { fileTypeFromFile } from 'file-type'
+import { moveIntoStore, newStoredName, storeDir, storedPath, type FileStore } from './stored-files'
+import { receiveUpload, uploadRefusal, type ReceivedUpload } from './upload-intake'
+import { isDomainError } from './errors'
 import { LOGO_LIMITS } from '../../shared/schemas/quotes'
-import { DomainError } from './errors'
 
 export const LOGO_FIELD = 'logo'
-const INCOMING = join(tmpdir(), 'boreline-incoming')
 const EXT: Record<string, string> = { 'image/png': 'png', 'image/jpeg': 'jpg', 'image/svg+xml': 'svg' }
+const TOO_LARGE = 'The logo must be smaller than 2 MB.'
 
-/** A refusal of the upload, named on the `logo` field. */
-function logoError(statusCode: 413 | 415 | 422, message: string): DomainError {
-  return new DomainError(statusCode === 413 ? 'too_large' : statusCode === 415 ? 'unsupported' : 'invalid', message, { fields: { [LOGO_FIELD]: message } })
-}
-
-/** Parses the multipart body; every temporary file is removed on every path (the caller calls cleanup too). */
-export async function parseLogoUpload(req: IncomingMessage): Promise<{ file: File | null; cleanup: () => Promise<void> }> {
-  await mkdir(INCOMING, { recursive: true })
-  const temporary = new Set<string>()
-  const cleanup = async () => { await Promise.all([...temporary].map((p) => rm(p, { force: true }))) }
-  const form = formidable({
-    enabledPlugins: [multipart], // a raw octet-stream body would otherwise skip maxFileSize and filter
-    uploadDir: INCOMING,
-    maxFiles: 1,
-    maxFileSize: LOGO_LIMITS.maxBytes,
-    maxTotalFileSize: LOGO_LIMITS.maxBytes,
-    maxFields: 5,
-    maxFieldsSize: 8 * 1024,
-    allowEmptyFiles: true,
-    minFileSize: 0,
-    keepExtensions: false,
-    filter: (part) => part.name === LOGO_FIELD,
-  })
-  form.on('fileBegin', (_name, file) => { temporary.add(file.filepath) })
-  try {
-    const [, files] = await form.parse(req)
-    return { file: files[LOGO_FIELD]?.[0] ?? null, cleanup }
-  } catch (err) {
-    req.resume()
-    await cleanup()
-    setTimeout(() => { void cleanup() }, 50)
-    const code = (err as { code?: number }).code
-    if (code === formidableErrors.biggerThanMaxFileSize || code === formidableErrors.biggerThanTotalMaxFileSize) {
-      throw logoError(413, 'The logo must be smaller than 2 MB.')
-    }
-    if (code === formidableErrors.maxFilesExceeded) throw logoError(422, 'Choose one logo file.')
-    if (code === formidableErrors.noParser || code === formidableErrors.missingContentType || code === formidableErrors.missingMultipartBoundary) {
-      throw logoError(415, 'Send the logo as multipart/form-data.')
-    }
-    throw logoError(422, 'The upload arrived incomplete. Please try again.')
-  }
-}
+const logoRefusal = (status: 413 | 415 | 422, message: string) => uploadRefusal(status, LOGO_FIELD, message)
 
 /** What in an SVG makes us refuse it (null when it only draws). Exported for the unit tests. */
 export function svgProblem(text: string): string | null {
@@ -84,23 +43,25 @@ export function svgProblem(text: string): string | null {
   return null
 }
 
+export interface CheckedLogo { mime: string; ext: string; size: number }
+
 /** Checks the uploaded file by its bytes; returns the type to store it as. */
-export async function checkLogoFile(file: File | null): Promise<{ mime: string; ext: string; size: number }> {
-  if (!file) throw logoError(422, 'Choose a logo file (PNG, JPEG or SVG).')
-  const size = file.size ?? (await stat(file.filepath)).size
-  if (size === 0) throw logoError(415, 'The file is empty. Choose the logo again.')
-  if (size > LOGO_LIMITS.maxBytes) throw logoError(413, 'The logo must be smaller than 2 MB.')
-  const detected = await fileTypeFromFile(file.filepath)
+export async function checkLogoFile(file: ReceivedUpload['file']): Promise<CheckedLogo> {
+  if (!file) throw logoRefusal(422, 'Choose a logo file (PNG, JPEG or SVG).')
+  const size = file.size ?? (await stat(file.path)).size
+  if (size === 0) throw logoRefusal(415, 'The file is empty. Choose the logo again.')
+  if (size > LOGO_LIMITS.maxBytes) throw logoRefusal(413, TOO_LARGE)
+  const detected = await fileTypeFromFile(file.path)
   if (detected && (detected.mime === 'image/png' || detected.mime === 'image/jpeg')) {
     return { mime: detected.mime, ext: EXT[detected.mime]!, size }
   }
   // an SVG that starts with an XML declaration is recognised as XML; it is checked as an SVG below
   if (detected && detected.mime !== 'application/xml' && detected.mime !== 'image/svg+xml') {
-    throw logoError(415, `The logo must be PNG, JPEG or SVG (this file is ${detected.ext.toUpperCase()}).`)
+    throw logoRefusal(415, `The logo must be PNG, JPEG or SVG (this file is ${detected.ext.toUpperCase()}).`)
   }
-  const text = await readFile(file.filepath, 'utf8')
+  const text = await readFile(file.path, 'utf8')
   const problem = svgProblem(text)
-  if (problem) throw logoError(415, problem === 'This is not an SVG image.' ? 'The logo must be PNG, JPEG or SVG.' : problem)
+  if (problem) throw logoRefusal(415, problem === 'This is not an SVG image.' ? 'The logo must be PNG, JPEG or SVG.' : problem)
   return { mime: 'image/svg+xml', ext: 'svg', size }
 }
 
@@ -115,12 +76,42 @@ export function logoPath(uploadsDir: string, storedName: string): string {
   return storedPath(uploadsDir, LOGOS, storedName)
 }
 
-export function newLogoName(ext: string): string {
-  return newStoredName(ext)
-}
+export interface StoredLogo extends CheckedLogo { file: string }
 
-export async function storeLogo(tempPath: string, uploadsDir: string, storedName: string): Promise<void> {
-  await moveIntoStore(tempPath, uploadsDir, LOGOS, storedName)
+/**
+ * Receives, checks and stores an uploaded logo under a new name. On every path the temporary file is gone;
+ * nothing is stored when the file is refused.
+ */
+export async function receiveLogo(req: IncomingMessage, uploadsDir: string): Promise<StoredLogo> {
+  let upload: ReceivedUpload | undefined
+  try {
+    upload = await receiveUpload(req, {
+      field: LOGO_FIELD,
+      tempDir: join(uploadsDir, '.incoming'),
+      maxBytes: LOGO_LIMITS.maxBytes,
+      maxFields: 5,
+      maxFieldsBytes: 8 * 1024,
+      messages: {
+        tooLarge: TOO_LARGE,
+        notMultipart: 'Send the logo as multipart/form-data.',
+        oneFileOnly: 'Choose one logo file.',
+        incomplete: 'The upload arrived incomplete. Please try again.',
+      },
+    })
+    const checked = await checkLogoFile(upload.file)
+    const file = newStoredName(checked.ext)
+    await moveIntoStore(upload.file!.path, uploadsDir, LOGOS, file)
+    return { file, ...checked }
+  } catch (err) {
+    // the logo form has one field: a refusal of the form as a whole is shown beside it
+    if (isDomainError(err) && err.fields._ && !err.fields[LOGO_FIELD]) {
+      err.fields[LOGO_FIELD] = err.fields._
+      delete err.fields._
+    }
+    throw err
+  } finally {
+    await upload?.cleanup()
+  }
 }
 
 export async function removeLogo(uploadsDir: string, storedName: string | null | undefined): Promise<void> {

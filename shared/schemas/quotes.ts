@@ -5,6 +5,7 @@
  */
 import { z } from 'zod'
 import { QUOTE_STATUSES } from '../utils/quote-states'
+import { PageQuerySchema } from './page'
 import { hoursToHundredths } from '../utils/quote-totals'
 
 const text = (max: number, label: string) =>
@@ -47,13 +48,12 @@ export const QuoteUpdateSchema = z.strictObject({
 }).refine((v) => Object.keys(v).length > 0, { error: 'Nothing to change.' })
 export type QuoteUpdateInput = z.input<typeof QuoteUpdateSchema>
 
-/** GET /api/quotes */
-export const QuoteListQuerySchema = z.object({
+/** GET /api/quotes: a page of the garage's quotes, by state (`open` = draft or sent) and registration or owner */
+export const QuoteListQuerySchema = PageQuerySchema.extend({
   status: z.union([z.enum(QUOTE_STATUSES), z.literal('open'), z.literal('')], { error: 'Unknown status.' }).optional(),
   q: z.string().trim().max(60).optional(),
-  page: z.coerce.number({ error: 'Page must be a number.' }).int().min(1).max(10_000).default(1),
-  pageSize: z.coerce.number().int().min(1).max(100).default(20),
 })
+export type QuoteListQuery = z.output<typeof QuoteListQuerySchema>
 
 export const QuoteParamsSchema = z.object({ id: z.coerce.number({ error: 'Not a quote number.' }).int().positive() })
 export const QuoteLineParamsSchema = z.object({

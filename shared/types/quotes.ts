@@ -98,6 +98,16 @@ export interface QuoteDetail extends QuoteSummary {
   warnings: string[]
 }
 
+/** A line as the owner sees it: what it is and what it costs, never its trade price, markup or stock. */
+export type OwnerQuoteLine = Pick<QuoteLineView,
+  'id' | 'kind' | 'description' | 'quantity' | 'hours' | 'unitPriceMinor' | 'amountMinor' | 'taxBp' | 'taxMinor' |
+  'recommendation' | 'reason' | 'coreCharge' | 'parentLineId' | 'ownerDecision'> & {
+  /** the owner chooses this line (parts, labour, sundries); core deposits follow their part, discounts apply */
+  decidable: boolean
+  /** required lines cannot be declined unless the garage recorded that the owner was told */
+  declinable: boolean
+}
+
 /** The owner's view through the link: nothing of the garage beyond its name, contact and this quote. */
 export interface OwnerQuoteView {
   state: 'open' | 'decided' | 'superseded'
@@ -115,26 +125,7 @@ export interface OwnerQuoteView {
   findings: InspectionFinding[]
   messageToOwner: string
   terms: string
-  lines: {
-    id: number
-    kind: QuoteLineKind
-    description: string
-    quantity: number
-    hours: number | null
-    unitPriceMinor: number
-    amountMinor: number
-    taxBp: number
-    taxMinor: number
-    recommendation: Recommendation | null
-    reason: string | null
-    coreCharge: 'charged' | 'absorbed' | null
-    parentLineId: number | null
-    /** the owner chooses this line (parts, labour, sundries); core deposits follow their part, discounts apply */
-    decidable: boolean
-    /** required lines cannot be declined unless the garage recorded that the owner was told */
-    declinable: boolean
-    ownerDecision: OwnerDecision | null
-  }[]
+  lines: OwnerQuoteLine[]
   totals: Totals
   approvedTotals: Totals | null
   currency: string

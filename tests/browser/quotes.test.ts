@@ -89,6 +89,10 @@ describe('a quote from the workshop to the owner\'s phone', () => {
     await page.locator('[data-sent-note]').waitFor()
     expect(await page.locator('[data-status]').first().getAttribute('data-status')).toBe('sent')
     await shot(page, 'quote-manager-sent')
+    // a full reload shows the quote as the server has it
+    await page.reload()
+    await page.locator('[data-status="sent"]').first().waitFor()
+    expect(await page.locator('tr[data-kind="part"]').filter({ hasText: '45 %' }).count()).toBeGreaterThanOrEqual(1)
     const mail = await waitForMail(owner, /Your quote from Millbrook Motor Works/)
     link = /https?:\/\/\S+\/q\/[A-Za-z0-9_-]{43}/.exec(mail.text)![0]
     expect(mail.attachments).toHaveLength(1)

@@ -5,18 +5,36 @@
  */
 import { beforeAll, describe, expect, it } from 'vitest'
 import { setup } from '@nuxt/test-utils/e2e'
-import { computeWear, type WearInputRaw } from '#shared/utils/brake'
-import { plainFinding } from '#shared/utils/quote-wording'
-import { Client, as, env, people } from '../support/api'
+import { type Client, as, env, people } from '../support/api'
 import { VEHICLE_ID, ownerEmail } from '../support/quotes'
 
 await setup({ host: env().baseUrl })
 
-// front disc under its minimum (fail), fluid with some water (advise): the vehicle's own limits
-const wear: WearInputRaw = {
+/*
+ * The measurements and what they must give, worked by hand:
+ *  - Front left disc, readings 22.4 / 22.5 / 22.45 mm. Its discard thickness is 23 mm: the vehicle maker's
+ *    minimum in the seed data (Veltra Pennon Mk1 front discs are 25 mm vented, 2 mm of wear allowed:
+ *    server/seed/catalogue-data.ts). Thinnest 22.4 mm < 23 mm, 0.6 mm under it: fail.
+ *  - Its thickness variation: 22.5 - 22.4 = 0.1 mm, over the 0.02 mm limit used when the vehicle data gives none
+ *    (common practice; service manuals give 0.009-0.030 mm): fail.
+ *  - Brake fluid with 2.5 % water: at least 2 % (change soon) and under 3 % (replace now): advise (common practice).
+ * So the front axle needs discs, and with new discs new pads (common practice): both required; the fluid is
+ * advised. Findings list the two disc failures first, then the fluid.
+ */
+const wear = {
   discs: [{ position: 'front-left', thicknessReadingsMm: [22.4, 22.5, 22.45], minThicknessMm: 23 }],
   fluid: { gradeInSystem: 'DOT 4', waterPercent: 2.5 },
 }
+const EXPECTED_LINES: Record<string, 'required' | 'advised'> = {
+  'front discs': 'required',
+  'front pads': 'required',
+  'system brake-fluid': 'advised',
+}
+const EXPECTED_FINDINGS: { verdict: 'fail' | 'advise'; text: RegExp }[] = [
+  { verdict: 'fail', text: /front left brake disc has worn thinner than its safe minimum \(22\.4 mm; the minimum is 23 mm\)/ },
+  { verdict: 'fail', text: /front left brake disc is uneven in thickness/ },
+  { verdict: 'advise', text: /brake fluid has taken up some water \(2\.5 %\)/ },
+]
 
 let tech: Client, other: Client
 let inspection: { id: number; recommendedParts: { axle: string; partType: string; verdict: 'advise' | 'fail'; parts: { sku: string; condition: string | null }[] }[] }
@@ -30,9 +48,8 @@ beforeAll(async () => {
 
 describe('a quote drafted from an inspection', () => {
   it('turns fail verdicts into required lines and advise verdicts into advised ones', async () => {
-    const result = computeWear(wear)
-    expect(result.recommendedParts.some((p) => p.verdict === 'fail')).toBe(true)
-    expect(result.recommendedParts.some((p) => p.verdict === 'advise')).toBe(true)
+    expect(Object.fromEntries(inspection.recommendedParts.map((rec) => [`${rec.axle} ${rec.partType}`, rec.verdict === 'fail' ? 'required' : 'advised'])))
+      .toEqual(EXPECTED_LINES)
     const r = await tech.post('/api/quotes', { vehicleId: VEHICLE_ID, ownerName: 'Ines Quill', ownerEmail: ownerEmail(), inspectionId: inspection.id })
     expect(r.status, r.text).toBe(201)
     expect(r.body).toMatchObject({ inspectionId: inspection.id, registration: 'IN55 PEC', odometer: '77 000 mi' })
@@ -42,14 +59,16 @@ describe('a quote drafted from an inspection', () => {
       if (!pick) continue
       const line = parts.find((l: { sku: string }) => l.sku === pick.sku)
       expect(line, `${rec.axle} ${rec.partType}`).toBeTruthy()
-      expect(line.recommendation).toBe(rec.verdict === 'fail' ? 'required' : 'advised')
+      expect(line.recommendation).toBe(EXPECTED_LINES[`${rec.axle} ${rec.partType}`])
       expect(line.reason).toBeTruthy()
     }
     expect(parts.length).toBeGreaterThanOrEqual(2)
     // findings in plain words, the failures first
-    expect(r.body.findings[0].verdict).toBe('fail')
-    expect(r.body.findings.map((f: { text: string }) => f.text)).toEqual(expect.arrayContaining(result.items.filter((i) => i.verdict === 'fail').map(plainFinding)))
-    expect(r.body.findings[0].text).toMatch(/front left brake disc has worn thinner than its safe minimum \(22\.4 mm; the minimum is 23 mm\)/)
+    expect(r.body.findings).toHaveLength(EXPECTED_FINDINGS.length)
+    EXPECTED_FINDINGS.forEach((f, i) => {
+      expect(r.body.findings[i].verdict).toBe(f.verdict)
+      expect(r.body.findings[i].text).toMatch(f.text)
+    })
   })
 
   it('adds the recommendations to an existing quote, skipping parts already on it', async () => {

@@ -6,7 +6,7 @@ import { beforeAll, describe, expect, it } from 'vitest'
 import { setup } from '@nuxt/test-utils/e2e'
 // pdf-parse v1's library entry (its index.js runs a self-test when imported)
 import pdf from 'pdf-parse/lib/pdf-parse.js'
-import { Client, as, env, people } from '../support/api'
+import { type Client, as, env, people } from '../support/api'
 import { sendAndReadLink, startQuote } from '../support/quotes'
 import { makePart } from '../support/orders'
 import { QUOTE_SAFETY_CAUTION } from '#shared/utils/quote-wording'

@@ -8,7 +8,7 @@ import { request } from 'node:http'
 import { getDb, withWrite } from '../../server/utils/db'
 import { initModels } from '../../server/models/index'
 import { Quote } from '../../server/models/quotes'
-import { env, waitForMail, type Client } from './api'
+import { env, waitForMail, type Client, type Res } from './api'
 
 let bound = false
 /** Binds the app's models to the e2e database (the same file the server uses). */
@@ -33,7 +33,7 @@ export async function startQuote(c: Client, extra: Record<string, unknown> = {})
 }
 
 /** Sends the quote as `manager` and returns the token from the e-mail the owner received. */
-export async function sendAndReadLink(manager: Client, quoteId: number, to: string): Promise<{ token: string; mail: Awaited<ReturnType<typeof waitForMail>>; body: any }> {
+export async function sendAndReadLink(manager: Client, quoteId: number, to: string): Promise<{ token: string; mail: Awaited<ReturnType<typeof waitForMail>>; body: Res['body'] }> {
   const r = await manager.post(`/api/quotes/${quoteId}/send`, {})
   if (r.status !== 200) throw new Error(`send: ${r.status} ${r.text}`)
   const mail = await waitForMail(to, /Your quote from/)

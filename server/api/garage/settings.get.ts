@@ -8,5 +8,5 @@ import { garageSettingsView } from '../../services/garage-settings'
 
 export default defineEventHandler(async (event) => {
   const { org } = requireAbility(event, 'garage.settings')
-  return garageSettingsView(org, quoteCurrency())
+  return garageSettingsView(org, serverFormats().currency)
 })

@@ -8,7 +8,7 @@ const dir = mkdtempSync(join(tmpdir(), 'logo-test-'))
 const file = (name: string, data: Buffer | string) => {
   const p = join(dir, name)
   writeFileSync(p, data)
-  return { filepath: p, size: Buffer.byteLength(data), originalFilename: name } as never
+  return { path: p, size: Buffer.byteLength(data), originalName: name }
 }
 
 describe('SVG logos', () => {

@@ -4,7 +4,7 @@ import { describe, expect, it } from 'vitest'
 // pdf-parse v1: the library entry (its index.js runs a self-test when imported directly)
 import pdf from 'pdf-parse/lib/pdf-parse.js'
 import PDFDocument from 'pdfkit'
-import { renderQuotePdf } from '../../../server/services/quote-pdf'
+import { renderQuotePdf } from '../../../server/services/quotes/pdf'
 import { drawSvgLogo } from '../../../server/services/svg-to-pdf'
 import { QUOTE_SAFETY_CAUTION } from '#shared/utils/quote-wording'
 import type { OwnerQuoteView } from '#shared/types/quotes'

@@ -9,5 +9,5 @@ import { ownerView } from '../../../services/quotes'
 
 export default defineEventHandler(async (event) => {
   const { quote } = await loadLinkedQuote(event)
-  return ownerView(quote, quoteCurrency())
+  return ownerView(quote, serverFormats().currency)
 })

@@ -6,6 +6,5 @@ import { settingsOf } from '../../../services/quotes'
 
 export default defineEventHandler(async (event) => {
   const { quote } = await loadLinkedQuote(event)
-  const settings = await settingsOf(quote.organisationId)
-  return sendGarageLogo(event, settings, 'no-store')
+  return sendGarageLogo(event, await settingsOf(quote.organisationId), 'no-store')
 })

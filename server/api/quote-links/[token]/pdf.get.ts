@@ -4,11 +4,5 @@
  */
 export default defineEventHandler(async (event) => {
   const { quote } = await loadLinkedQuote(event)
-  const pdf = await quotePdf(quote)
-  setResponseHeaders(event, {
-    'content-type': 'application/pdf',
-    'content-disposition': `attachment; filename="${quotePdfName(quote)}"`,
-    'x-content-type-options': 'nosniff',
-  })
-  return pdf
+  return sendQuotePdf(event, quote)
 })

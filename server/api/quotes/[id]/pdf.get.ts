@@ -4,12 +4,5 @@
  */
 export default defineEventHandler(async (event) => {
   const { quote } = await loadOwnQuote(event)
-  const pdf = await quotePdf(quote)
-  setResponseHeaders(event, {
-    'content-type': 'application/pdf',
-    'content-disposition': `attachment; filename="${quotePdfName(quote)}"`,
-    'x-content-type-options': 'nosniff',
-    'cache-control': 'private, no-store',
-  })
-  return pdf
+  return sendQuotePdf(event, quote)
 })

@@ -10,26 +10,13 @@
  * 401; 422 with `data.fields`; 404 not this garage's quote; 403 pricing by a technician; 409 a replaced revision.
  */
 import { QuoteLineCreateSchema } from '#shared/schemas/quotes'
-import { addLine, assertDiscountsFit, editableQuote } from '../../../../services/quotes'
+import { addQuoteLine } from '../../../../services/quotes'
 
 export default defineEventHandler(async (event) => {
   requireAuth(event)
   const body = await bodyWith(event, QuoteLineCreateSchema)
   const { auth, quote } = await loadOwnQuote(event)
-  if (body.kind === 'discount') requirePricing(event, 'give a discount')
-  if (body.markupBp !== undefined || body.rateMinor !== undefined || body.taxBp !== undefined || body.amountMinor !== undefined) {
-    requirePricing(event, 'set prices, markups, rates or tax')
-  }
-  const { target, added } = await withWrite(async (t) => {
-    const { quote: q } = await editableQuote(t, quote, auth.user.id)
-    const lines = await addLine(t, q, auth.org, body)
-    await assertDiscountsFit(t, q.id)
-    await audit(t, {
-      actorUserId: auth.user.id, organisationId: auth.org.id, action: 'quote.line.add', entity: 'quote', entityId: q.id,
-      changes: { kind: body.kind, sku: lines[0]!.sku, quantity: lines[0]!.quantity, amountMinor: lines[0]!.amountMinor, lines: lines.map((l) => l.id) },
-    })
-    return { target: q, added: lines.map((l) => l.id) }
-  })
+  const { quote: target, addedLineIds } = await addQuoteLine(quote, auth, body)
   setResponseStatus(event, 201)
-  return { ...(await quoteAnswer(target, auth)), addedLineIds: added }
+  return { ...(await quoteAnswer(target, auth)), addedLineIds }
 })

@@ -1,15 +1,15 @@
 /**
- * The quote as a PDF (pdfkit), in the app's own typeface (Inter from @fontsource, WOFF, passed in by the
- * caller so this stays plain Node): garage header and logo, vehicle, findings, lines, tax, totals, validity,
- * terms and the safety caution. Figures come from the same serialised view the owner's page uses.
+ * Drawing the quote as a PDF (pdfkit) from the same view the owner's page uses: garage header and logo,
+ * vehicle, findings, lines, tax, totals, validity, terms and the safety caution. The fonts (pdfFonts()) and the
+ * formats (serverFormats()) are passed in, so this stays plain Node.
  */
-import { formatMinor } from '../../shared/utils/money'
-import { formatBp } from '../../shared/utils/quote-totals'
-import { QUOTE_STATUS_LABELS } from '../../shared/utils/quote-states'
-import { FINDING_WORDS, QUOTE_SAFETY_CAUTION, RECOMMENDATION_WORDS } from '../../shared/utils/quote-wording'
-import type { OwnerQuoteView } from '../../shared/types/quotes'
-import { drawSvgLogo } from './svg-to-pdf'
-import { newPdf, PDF_COLOURS, type PdfFonts } from './pdf/document'
+import { formatsFor, type Formats } from '../../../shared/utils/format'
+import { formatBp } from '../../../shared/utils/quote-totals'
+import { QUOTE_STATUS_LABELS } from '../../../shared/utils/quote-states'
+import { FINDING_WORDS, QUOTE_SAFETY_CAUTION, RECOMMENDATION_WORDS } from '../../../shared/utils/quote-wording'
+import type { OwnerQuoteView } from '../../../shared/types/quotes'
+import { drawSvgLogo } from '../svg-to-pdf'
+import { newPdf, PDF_COLOURS, type PdfFonts } from '../pdf/document'
 
 export type { PdfFonts }
 export interface PdfGarage { name: string; address: string; phone: string; email: string; taxNumber: string }
@@ -17,10 +17,9 @@ export interface PdfLogo { data: Buffer; mime: string }
 
 const { ink: INK, soft: SOFT, line: LINE, accent: ACCENT, fail: FAIL } = PDF_COLOURS
 
-/** Renders the quote; resolves with the PDF bytes. */
-export function renderQuotePdf(view: OwnerQuoteView, garage: PdfGarage, fonts: PdfFonts, logo: PdfLogo | null, locale = 'en-GB'): Promise<Buffer> {
-  const money = (m: number) => formatMinor(m, view.currency, locale)
-  const date = (d: string | null) => (d ? new Intl.DateTimeFormat(locale, { dateStyle: 'long' }).format(new Date(d)) : '')
+/** Renders the quote; resolves with the PDF bytes. Money in the view's currency, dates as `formats` writes them. */
+export function renderQuotePdf(view: OwnerQuoteView, garage: PdfGarage, fonts: PdfFonts, logo: PdfLogo | null, formats: Formats = formatsFor()): Promise<Buffer> {
+  const { money, day: date } = formatsFor({ currency: view.currency, locale: formats.locale, timeZone: formats.timeZone })
   const page = newPdf(fonts, { title: `Quote ${view.reference} from ${garage.name}`, author: garage.name, subject: view.vehicle })
   const { doc, left, width, ensure, heading, totalRow } = page
   const bottom = () => doc.page.height - doc.page.margins.bottom - 24

@@ -1,0 +1,71 @@
+/**
+ * The quote's e-mails, sent after the commit (a failed send is reported, never rolls anything back): to the
+ * owner, the link and the PDF; to the garage, the owner's decision line by line.
+ */
+import { Organisation, User } from '../../models/accounts'
+import type { Quote } from '../../models/quotes'
+import { QUOTE_SAFETY_CAUTION } from '../../../shared/utils/quote-wording'
+import { quotePdf, type QuoteOutput } from './document'
+import { ownerView } from './owner-view'
+import { quotePdfName, quoteReference } from './references'
+
+const plate = (q: Pick<Quote, 'registration'>) => (q.registration ? ` (${q.registration})` : '')
+
+/** E-mails the owner the link and the PDF. */
+export async function mailQuoteToOwner(q: Quote, token: string, out: QuoteOutput): Promise<boolean> {
+  const { money, day } = out.formats
+  const [org, pdf, view] = await Promise.all([Organisation.findByPk(q.organisationId), quotePdf(q, out), ownerView(q, out.formats.currency)])
+  const garage = org?.name ?? 'Your garage'
+  const until = day(q.expiresAt)
+  const required = view.lines.filter((l) => l.recommendation === 'required').length
+  const text = [
+    `Hello ${q.ownerName},`,
+    '',
+    `${garage} has prepared a quote for your ${view.vehicle}${plate(q)}: ${quoteReference(q)}, ${money(view.totals.grossMinor)} including tax.`,
+    required ? `${required} of the lines ${required === 1 ? 'is' : 'are'} marked as required for safety.` : '',
+    '',
+    'Open this link to see each line, approve or decline it, and sign:',
+    out.appLink(`/q/${token}`),
+    '',
+    until ? `The link works until ${until}. The quote is attached as a PDF.` : 'The quote is attached as a PDF.',
+    '',
+    QUOTE_SAFETY_CAUTION,
+    '',
+    `${garage}${org?.phone ? ` · ${org.phone}` : ''}`,
+  ].filter((l, i, all) => !(l === '' && all[i - 1] === '')).join('\n')
+  return out.sendMail({
+    to: q.ownerEmail,
+    subject: `Your quote from ${garage}${q.registration ? ` for ${q.registration}` : ''}`,
+    text,
+    attachments: [{ filename: quotePdfName(q), content: pdf, contentType: 'application/pdf' }],
+  })
+}
+
+const OUTCOME_WORDS: Record<string, string> = { approved: 'approved', partly_approved: 'partly approved', declined: 'declined' }
+
+/** Tells the garage the owner has decided (the person who sent it and the garage's own address). */
+export async function mailDecisionToGarage(q: Quote, out: QuoteOutput): Promise<boolean> {
+  const [org, sender, view] = await Promise.all([
+    Organisation.findByPk(q.organisationId),
+    q.sentByUserId ? User.findByPk(q.sentByUserId) : null,
+    ownerView(q, out.formats.currency),
+  ])
+  const to = [...new Set([sender?.email, org?.email].filter((e): e is string => !!e))]
+  if (!to.length) return false
+  const { money } = out.formats
+  const outcome = OUTCOME_WORDS[q.status] ?? q.status
+  const lines = view.lines.filter((l) => l.decidable).map((l) => `  ${l.ownerDecision === 'approved' ? 'approved' : 'declined'}  ${l.description}  ${money(l.amountMinor)}`)
+  return out.sendMail({
+    to,
+    subject: `Quote ${quoteReference(q)}${plate(q)} ${outcome} by the owner`,
+    text: [
+      `${q.signedName ?? q.ownerName} ${outcome} quote ${quoteReference(q)} for ${view.vehicle}${plate(q)}.`,
+      '',
+      ...lines,
+      '',
+      `Approved total: ${money(view.approvedTotals?.grossMinor ?? 0)} including tax.`,
+      '',
+      `See it in Boreline: ${out.appLink(`/quotes/${q.id}`)}`,
+    ].join('\n'),
+  })
+}
