@@ -1,4 +1,4 @@
-/** Trade-account models added by migration 0003-accounts: proof-of-trade documents and single-use links. */
+/** Proof-of-trade documents and the single-use links of a person's account (tables of migration 0003-accounts). */
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
 import { Organisation, User } from './accounts'
 

@@ -36,7 +36,7 @@ export class Organisation extends Model<InferAttributes<Organisation>, InferCrea
   declare homeBranchId: CreationOptional<number | null>
   declare decisionReason: CreationOptional<string | null>
   declare decidedAt: CreationOptional<Date | null>
-  /** garage setting: technicians see trade prices in the catalogue (column added by 0004-catalogue-extra) */
+  /** garage setting: technicians see trade prices in the catalogue (column of migration 0004-catalogue-extra) */
   declare techniciansSeePrices: CreationOptional<boolean>
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
@@ -93,12 +93,12 @@ export function initAccountModels(sequelize: Sequelize): void {
     phone: DataTypes.STRING, email: DataTypes.STRING, tierId: DataTypes.INTEGER,
     paymentTerms: DataTypes.STRING, creditLimitMinor: DataTypes.INTEGER, paymentDays: DataTypes.INTEGER,
     homeBranchId: DataTypes.INTEGER, decisionReason: DataTypes.TEXT, decidedAt: DataTypes.DATE,
-    techniciansSeePrices: { type: DataTypes.BOOLEAN, defaultValue: false }, // column added by 0004-catalogue-extra
+    techniciansSeePrices: { type: DataTypes.BOOLEAN, defaultValue: false }, // column of migration 0004-catalogue-extra
     ...stamps,
   }, { sequelize, tableName: 'organisations' })
   User.init({
     id, organisationId: DataTypes.INTEGER, email: DataTypes.STRING, name: DataTypes.STRING, role: DataTypes.STRING,
-    phone: { type: DataTypes.STRING, defaultValue: '' }, // column added by 0003-accounts
+    phone: { type: DataTypes.STRING, defaultValue: '' }, // column of migration 0003-accounts
     passwordHash: DataTypes.TEXT, status: DataTypes.STRING, sessionVersion: DataTypes.INTEGER,
     lastSignInAt: DataTypes.DATE, ...stamps,
   }, { sequelize, tableName: 'users' })

@@ -27,7 +27,14 @@ interface DemoOrg {
   phone: string
   email: string
   reason?: string
-  people: { email: string; name: string; role: Role }[]
+  people: DemoPerson[]
+}
+
+interface DemoPerson { email: string; name: string; role: Role }
+
+/** An organisation's people by name and role; each signs in as first.last@ its domain. */
+function peopleAt(domain: string, roles: Record<string, Role>): DemoPerson[] {
+  return Object.entries(roles).map(([name, role]) => ({ email: `${name.toLowerCase().replace(/\s+/g, '.')}@${domain}`, name, role }))
 }
 
 export const DEMO_ORGS: DemoOrg[] = [
@@ -35,43 +42,32 @@ export const DEMO_ORGS: DemoOrg[] = [
     name: DEMO_DISTRIBUTOR, kind: 'distributor', status: 'approved', taxNumber: 'GB 900 1234 56',
     address: 'Unit 4, Quarry Lane Trade Park, Northgate NG7 2KF', contact: 'Rowan Pike', phone: '0161 555 0140',
     email: 'trade@kestrel-friction.test',
-    people: [
-      { email: 'rowan.pike@kestrel-friction.test', name: 'Rowan Pike', role: 'distributor_admin' },
-      { email: 'ines.okafor@kestrel-friction.test', name: 'Ines Okafor', role: 'counter_staff' },
-      { email: 'dev.sandhu@kestrel-friction.test', name: 'Dev Sandhu', role: 'counter_staff' },
-    ],
+    people: peopleAt('kestrel-friction.test', { 'Rowan Pike': 'distributor_admin', 'Ines Okafor': 'counter_staff', 'Dev Sandhu': 'counter_staff' }),
   },
   {
     name: 'Millbrook Motor Works', kind: 'garage', status: 'approved', tier: 'Silver', terms: 'account',
     creditLimitMinor: 500_000, paymentDays: 30, homeBranch: 'NGT', taxNumber: 'GB 311 4477 02',
     address: '12 Millbrook Road, Northgate NG3 5TA', contact: 'Hattie Corran', phone: '0161 555 0192',
     email: 'office@millbrook-motors.test',
-    people: [
-      { email: 'hattie.corran@millbrook-motors.test', name: 'Hattie Corran', role: 'garage_manager' },
-      { email: 'sol.brennan@millbrook-motors.test', name: 'Sol Brennan', role: 'garage_technician' },
-      { email: 'priya.natt@millbrook-motors.test', name: 'Priya Natt', role: 'garage_technician' },
-    ],
+    people: peopleAt('millbrook-motors.test', { 'Hattie Corran': 'garage_manager', 'Sol Brennan': 'garage_technician', 'Priya Natt': 'garage_technician' }),
   },
   {
     name: 'Tannery Yard Autos', kind: 'garage', status: 'approved', tier: 'Bronze', terms: 'card',
     homeBranch: 'RVS', taxNumber: 'GB 522 9081 33', address: '3 Tannery Yard, Riverside RV1 8PQ',
     contact: 'Marek Dowling', phone: '0161 555 0175', email: 'hello@tannery-yard.test',
-    people: [
-      { email: 'marek.dowling@tannery-yard.test', name: 'Marek Dowling', role: 'garage_manager' },
-      { email: 'ada.finch@tannery-yard.test', name: 'Ada Finch', role: 'garage_technician' },
-    ],
+    people: peopleAt('tannery-yard.test', { 'Marek Dowling': 'garage_manager', 'Ada Finch': 'garage_technician' }),
   },
   {
     name: 'Ashcombe Car Care', kind: 'garage', status: 'pending', taxNumber: 'GB 733 1200 41',
     address: '88 Ashcombe Parade, Northgate NG9 1LB', contact: 'Lena Voss', phone: '0161 555 0133',
     email: 'lena@ashcombe-carcare.test',
-    people: [{ email: 'lena.voss@ashcombe-carcare.test', name: 'Lena Voss', role: 'garage_manager' }],
+    people: peopleAt('ashcombe-carcare.test', { 'Lena Voss': 'garage_manager' }),
   },
   {
     name: 'Fernside Vehicle Repairs', kind: 'garage', status: 'rejected', taxNumber: 'GB 000 0000 00',
     address: 'Fernside Industrial Estate, Riverside RV4 2DD', contact: 'Colm Ruddy', phone: '0161 555 0108',
     email: 'colm@fernside-repairs.test', reason: 'The tax number could not be verified. Please re-apply with a current registration.',
-    people: [{ email: 'colm.ruddy@fernside-repairs.test', name: 'Colm Ruddy', role: 'garage_manager' }],
+    people: peopleAt('fernside-repairs.test', { 'Colm Ruddy': 'garage_manager' }),
   },
 ]
 

@@ -1,6 +1,7 @@
 /**
- * The e-mails of the trade-account life cycle, as plain data (subject, text, html) so routes send them after
- * their commit with `sendMail`. Anything that came from a person is escaped before it goes into HTML.
+ * The e-mails of the trade-account life cycle and of a person's sign-in links, as plain data (subject, text,
+ * html) that services send after their commit with `sendMail`. Anything that came from a person is escaped
+ * before it goes into HTML.
  */
 import { formatMinor } from '../../shared/utils/money'
 import { ROLE_LABELS, type PaymentTerms, type Role } from '../../shared/types/accounts'
@@ -25,9 +26,10 @@ function compose(subject: string, paras: Para[]): MailContent {
 
 export interface Money { currency: string; locale: string }
 
-export function termsSentence(terms: PaymentTerms, creditLimitMinor: number, paymentDays: number, money: Money): string {
+/** The payment terms in a sentence; `money` writes an amount (`serverFormats().money`). */
+export function termsSentence(terms: PaymentTerms, creditLimitMinor: number, paymentDays: number, money: (minor: number) => string): string {
   return terms === 'account'
-    ? `Trade account: credit limit ${formatMinor(creditLimitMinor, money.currency, money.locale)}, payment within ${paymentDays} days.`
+    ? `Trade account: credit limit ${money(creditLimitMinor)}, payment within ${paymentDays} days.`
     : 'Payment by card when you order.'
 }
 

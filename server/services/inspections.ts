@@ -3,13 +3,10 @@
  * catalogue lists as fitting that vehicle on that axle, honouring the option answers given. Plain Node.
  */
 import { Op, type Transaction } from 'sequelize'
-import { Fitment, Part, Vehicle, VehicleOption } from '../models/catalogue'
+import { Fitment, Part, VehicleOption, type Vehicle } from '../models/catalogue'
 import type { RecommendedPart } from '../../shared/utils/brake'
 import { matchQualifiers, sameValue } from '../../shared/utils/catalogue/qualifiers'
-import type { Inspection } from '../models/inspections'
-import {
-  CATALOGUE_TYPE_OF, type InspectionDetail, type InspectionRecommendation, type InspectionSummary, type RecommendedCataloguePart,
-} from '../../shared/schemas/inspections'
+import { CATALOGUE_TYPE_OF, type InspectionRecommendation, type RecommendedCataloguePart } from '../../shared/schemas/inspections'
 
 /** Short vehicle name for lists: "Make Model generation (2015-2019)". */
 export function vehicleLabel(v: Pick<Vehicle, 'make' | 'model' | 'generation' | 'yearFrom' | 'yearTo'>): string {
@@ -84,30 +81,4 @@ export async function cataloguePartsFor(
     parts.sort((a, b) => Number(a.condition !== null) - Number(b.condition !== null) || a.sku.localeCompare(b.sku))
     return { ...rec, catalogueType, parts }
   })
-}
-
-/** The list row of an inspection (vehicle and author loaded). */
-export function inspectionSummary(row: Inspection): InspectionSummary {
-  return {
-    id: row.id,
-    vehicleId: row.vehicleId,
-    vehicle: row.vehicle ? vehicleLabel(row.vehicle) : `Vehicle ${row.vehicleId}`,
-    registration: row.registration ?? '',
-    odometer: row.odometer ?? '',
-    overall: row.overall,
-    author: row.author?.name ?? '',
-    createdAt: new Date(row.createdAt).toISOString(),
-    recommendedCount: (row.recommendedParts ?? []).length,
-  }
-}
-
-/** The full record: readings, verdicts and the catalogue parts recommended. */
-export function inspectionDetail(row: Inspection): InspectionDetail {
-  return {
-    ...inspectionSummary(row),
-    answers: row.answers ?? {},
-    wearInput: row.wearInput,
-    result: row.result,
-    recommendedParts: row.recommendedParts ?? [],
-  }
 }

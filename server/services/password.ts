@@ -16,7 +16,10 @@ export const SCRYPT_OPTIONS = {
 let hasher: Hash | undefined
 const h = () => (hasher ??= new Hash(new Scrypt({ ...SCRYPT_OPTIONS })))
 
-/** The same hash `hashPassword` makes inside the server, for scripts that run outside Nitro. */
+/**
+ * The same hash nuxt-auth-utils' `hashPassword` makes (same scrypt options, same format), without Nitro: for the
+ * services and for scripts.
+ */
 export function hashPasswordOutsideNitro(password: string): Promise<string> {
   return h().make(password)
 }

@@ -7,6 +7,7 @@
  * socket's, never `X-Forwarded-For` (anyone can send that header).
  */
 import { RateLimiterMemory, RateLimiterRes } from 'rate-limiter-flexible'
+import { DomainError } from './errors'
 
 export const SIGN_IN_LIMIT = { points: 10, durationSeconds: 15 * 60 }
 
@@ -41,6 +42,17 @@ export async function countSignInAttempt(email: string, address: string): Promis
       await Promise.all([byEmail.reward(email, 1), byAddress.reward(address || 'unknown', 1)])
     },
   }
+}
+
+/**
+ * Counts an attempt with a password (a sign-in, or the current password a password change asks for): 429 with
+ * the wait once this e-mail or address is over the limit. Returns `release`, to call when the password was right.
+ */
+export async function passwordAttempt(email: string, address: string): Promise<() => Promise<void>> {
+  const attempt = await countSignInAttempt(email, address)
+  if (attempt.ok) return attempt.release
+  const seconds = attempt.retryAfterSeconds
+  throw new DomainError('too_many', retryMessage(seconds), { retryAfterSeconds: seconds, details: { retryAfterSeconds: seconds } })
 }
 
 /** After a password reset the owner of the address has proved themselves: let them sign in at once. */

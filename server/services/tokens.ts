@@ -6,6 +6,7 @@
 import { createHash, randomBytes } from 'node:crypto'
 import { Op, type Transaction } from 'sequelize'
 import { AccountToken, type AccountTokenKind } from '../models/accounts-extra'
+import { DomainError } from './errors'
 
 export const TOKEN_LIFETIME_MS: Record<AccountTokenKind, number> = {
   reset: 60 * 60 * 1000, // one hour
@@ -52,3 +53,8 @@ export async function voidTokensOf(t: Transaction, userIds: number[]): Promise<v
 }
 
 export const DEAD_LINK_MESSAGE = 'This link has expired or has already been used. Ask for a new one.'
+
+/** 410: the link is expired, used, unknown, or its person is no longer who it was made for. */
+export function deadLink(): DomainError {
+  return new DomainError('gone', DEAD_LINK_MESSAGE)
+}

@@ -1,26 +1,34 @@
 /**
- * Reading garages for the distributor: the paginated list behind the applications queue and the accounts
- * list, and the detail (document, people, decision history). Serialisers give the shapes in
- * shared/types/trade-accounts.ts.
+ * Reading garages for the distributor: the paged list behind the applications queue and the trade-accounts list,
+ * and the detail (document, people, decision history). Serialisers give the shapes in
+ * shared/types/trade-accounts.ts. Plain Node.
  */
 import { Op, Sequelize, type Order, type WhereOptions } from 'sequelize'
 import { AuditEntry, DiscountTier, Organisation, User } from '../models/accounts'
 import { ProofDocument } from '../models/accounts-extra'
 import { LedgerEntry } from '../models/orders'
+import { pageOf } from '../utils/page'
+import { notFound } from './errors'
+import { personView } from './staff'
 import type { TradeAccountListQuery } from '../../shared/schemas/accounts'
-import type { AuditView, TradeAccountDetail, TradeAccountSummary, PageOf, PersonView, ProofDocumentView, TierView } from '../../shared/types/trade-accounts'
+import type { Page } from '../../shared/types/page'
+import type { AuditView, TradeAccountDetail, TradeAccountSummary, ProofDocumentView, TierView } from '../../shared/types/trade-accounts'
 
-const iso = (d: Date | null | undefined) => (d ? new Date(d).toISOString() : null)
+/** A garage organisation with its discount tier loaded. */
+export type Garage = Organisation & { tier?: DiscountTier | null }
+
+export const iso = (d: Date | null | undefined) => (d ? new Date(d).toISOString() : null)
 
 export function tierView(t: DiscountTier | null | undefined): TierView | null {
   return t ? { id: t.id, name: t.name, percentBp: t.percentBp } : null
 }
 
-export function personView(u: User): PersonView {
-  return { id: u.id, name: u.name, email: u.email, phone: u.phone ?? '', role: u.role, status: u.status, lastSignInAt: iso(u.lastSignInAt) }
+/** "Silver (12.5 %)": how the audit log names a tier. */
+export function tierLabel(t: Pick<DiscountTier, 'name' | 'percentBp'>): string {
+  return `${t.name} (${t.percentBp / 100} %)`
 }
 
-export function tradeAccountSummary(o: Organisation & { tier?: DiscountTier | null }): TradeAccountSummary {
+export function tradeAccountSummary(o: Garage): TradeAccountSummary {
   return {
     id: o.id, name: o.name, status: o.status, contactName: o.contactName, email: o.email,
     submittedAt: iso(o.createdAt)!, decidedAt: iso(o.decidedAt),
@@ -42,8 +50,11 @@ function contains(column: string, q: string) {
   return Sequelize.where(Sequelize.fn('instr', Sequelize.fn('lower', Sequelize.col(`Organisation.${column}`)), q.toLowerCase()), Op.gt, 0)
 }
 
-/** Garages filtered by status and a search over name, contact and e-mail; sorted and paged on the server. */
-export async function listTradeAccounts(query: TradeAccountListQuery, defaults: { status: TradeAccountListQuery['status']; sort: NonNullable<TradeAccountListQuery['sort']> }): Promise<PageOf<TradeAccountSummary>> {
+/** Garages filtered by status and a search over name, contact, e-mail and tax number; sorted and paged on the server. */
+export async function listTradeAccounts(
+  query: TradeAccountListQuery,
+  defaults: { status: TradeAccountListQuery['status']; sort: NonNullable<TradeAccountListQuery['sort']> },
+): Promise<Page<TradeAccountSummary>> {
   const status = query.status ?? defaults.status
   const where: WhereOptions = { kind: 'garage' }
   if (status && status !== 'all') Object.assign(where, { status })
@@ -51,20 +62,23 @@ export async function listTradeAccounts(query: TradeAccountListQuery, defaults: 
     const q = query.q
     Object.assign(where, { [Op.or]: ['name', 'contact_name', 'email', 'tax_number'].map((c) => contains(c, q)) })
   }
-  const { page, pageSize } = query
-  const { rows, count } = await Organisation.findAndCountAll({
-    where,
-    include: [{ model: DiscountTier, as: 'tier' }],
-    order: ORDER[query.sort ?? defaults.sort],
-    limit: pageSize,
-    offset: (page - 1) * pageSize,
-  })
-  return { data: rows.map((o) => tradeAccountSummary(o as Organisation & { tier?: DiscountTier | null })), meta: { page, pageSize, total: count } }
+  return pageOf(
+    query,
+    (window) => Organisation.findAndCountAll({ where, include: [{ model: DiscountTier, as: 'tier' }], order: ORDER[query.sort ?? defaults.sort], ...window }),
+    (rows) => rows.map((o) => tradeAccountSummary(o as Garage)),
+  )
 }
 
-/** A garage by id (404 for the caller when null: ids of the distributor itself are not garages). */
-export async function findGarage(id: number): Promise<(Organisation & { tier?: DiscountTier | null }) | null> {
-  return Organisation.findOne({ where: { id, kind: 'garage' }, include: [{ model: DiscountTier, as: 'tier' }] }) as Promise<(Organisation & { tier?: DiscountTier | null }) | null>
+/** A garage by id, or null (ids of the distributor itself are not garages). */
+export async function findGarage(id: number): Promise<Garage | null> {
+  return Organisation.findOne({ where: { id, kind: 'garage' }, include: [{ model: DiscountTier, as: 'tier' }] }) as Promise<Garage | null>
+}
+
+/** A garage by id; 404 naming `what` ("Trade account", "Application") when there is none. */
+export async function garageOr404(id: number, what = 'Trade account'): Promise<Garage> {
+  const garage = await findGarage(id)
+  if (!garage) throw notFound(what)
+  return garage
 }
 
 export async function latestProof(organisationId: number): Promise<ProofDocument | null> {
@@ -89,7 +103,7 @@ export async function historyOf(entity: string, entityId: number | string): Prom
 }
 
 /** The garage in full; the decision history only for those who may read the audit log. */
-export async function tradeAccountDetail(o: Organisation & { tier?: DiscountTier | null }, withHistory = true): Promise<TradeAccountDetail> {
+export async function tradeAccountDetail(o: Garage, withHistory = true): Promise<TradeAccountDetail> {
   const [doc, people, history, balance] = await Promise.all([
     latestProof(o.id),
     User.findAll({ where: { organisationId: o.id }, order: [['name', 'ASC']] }),
@@ -103,17 +117,8 @@ export async function tradeAccountDetail(o: Organisation & { tier?: DiscountTier
   }
 }
 
-/** The managers who should hear about their garage's account (active people with the manager role). */
+/** The managers who should hear about their garage's trade account (active people with the manager role). */
 export async function garageRecipients(o: Organisation): Promise<string[]> {
   const managers = await User.findAll({ where: { organisationId: o.id, role: 'garage_manager', status: 'active' }, attributes: ['email'] })
   return [...new Set([o.email, ...managers.map((m) => m.email)].filter(Boolean).map((e) => e.toLowerCase()))]
-}
-
-/** `{ field: { from, to } }` for the fields whose value changes: what the audit log records. */
-export function diff(before: Record<string, unknown>, after: Record<string, unknown>): Record<string, { from: unknown; to: unknown }> {
-  const out: Record<string, { from: unknown; to: unknown }> = {}
-  for (const k of Object.keys(after)) {
-    if (after[k] !== undefined && before[k] !== after[k]) out[k] = { from: before[k] ?? null, to: after[k] }
-  }
-  return out
 }

@@ -4,6 +4,7 @@
  */
 import { z } from 'zod'
 import { EmailSchema } from './auth'
+import { PageQuerySchema } from './page'
 import { ROLES } from '../types/accounts'
 
 const text = (what: string, min: number, max: number) =>
@@ -51,13 +52,11 @@ export const PROOF_ACCEPT = '.pdf,.jpg,.jpeg,.png,application/pdf,image/jpeg,ima
 export const GARAGE_STATUSES = ['pending', 'approved', 'rejected', 'suspended'] as const
 export const GARAGE_SORTS = ['submitted', '-submitted', 'name', '-name', 'decided', '-decided'] as const
 
-/** Query of the garage lists (applications queue, accounts): filter, search, sort and page on the server. */
-export const TradeAccountListQuerySchema = z.object({
+/** Query of the garage lists (applications queue, trade accounts): filter, search, sort and page on the server. */
+export const TradeAccountListQuerySchema = PageQuerySchema.extend({
   status: z.enum([...GARAGE_STATUSES, 'all'], { message: 'Choose a status from the list.' }).optional(),
   q: z.string().trim().max(100, 'Keep the search under 100 characters.').optional(),
   sort: z.enum(GARAGE_SORTS, { message: 'Choose a sort order from the list.' }).optional(),
-  page: z.coerce.number({ message: 'Page must be a number.' }).int().min(1, 'Page starts at 1.').max(10_000).default(1),
-  pageSize: z.coerce.number({ message: 'Page size must be a number.' }).int().min(1).max(100, 'At most 100 per page.').default(20),
 })
 export type TradeAccountListQuery = z.infer<typeof TradeAccountListQuerySchema>
 
@@ -69,16 +68,25 @@ const money = z.number({ message: 'Enter an amount.' }).int('Use whole minor uni
 const days = z.number({ message: 'Enter the days to pay.' }).int('Use whole days.').min(1, 'At least 1 day.').max(120, 'At most 120 days.')
 export const PAYMENT_TERMS = ['card', 'account'] as const
 
-/** Terms must agree with each other: `account` needs a credit limit and days to pay; `card` has neither. */
-function termsProblems(v: { terms?: string; creditLimitMinor?: number; paymentDays?: number }, ctx: z.RefinementCtx) {
+/**
+ * Terms must agree with each other: `account` needs a credit limit and days to pay; `card` has neither. Field ->
+ * message for each disagreement; the server checks the terms an account ends up with by the same rule.
+ */
+export function termsDisagreements(v: { terms: string; creditLimitMinor?: number; paymentDays?: number }): Record<string, string> {
+  const out: Record<string, string> = {}
   if (v.terms === 'account') {
-    if (!v.creditLimitMinor) ctx.addIssue({ code: 'custom', path: ['creditLimitMinor'], message: 'A trade account needs a credit limit above zero.' })
-    if (v.paymentDays === undefined) ctx.addIssue({ code: 'custom', path: ['paymentDays'], message: 'A trade account needs the days to pay.' })
+    if (!v.creditLimitMinor) out.creditLimitMinor = 'A trade account needs a credit limit above zero.'
+    if (!v.paymentDays) out.paymentDays = 'A trade account needs the days to pay.'
   }
   if (v.terms === 'card') {
-    if (v.creditLimitMinor) ctx.addIssue({ code: 'custom', path: ['creditLimitMinor'], message: 'Card-only accounts have no credit limit.' })
-    if (v.paymentDays) ctx.addIssue({ code: 'custom', path: ['paymentDays'], message: 'Card-only accounts have no days to pay.' })
+    if (v.creditLimitMinor) out.creditLimitMinor = 'Card-only trade accounts have no credit limit.'
+    if (v.paymentDays) out.paymentDays = 'Card-only trade accounts have no days to pay.'
   }
+  return out
+}
+
+function termsProblems(v: { terms: string; creditLimitMinor?: number; paymentDays?: number }, ctx: z.RefinementCtx) {
+  for (const [path, message] of Object.entries(termsDisagreements(v))) ctx.addIssue({ code: 'custom', path: [path], message })
 }
 
 export const DecisionSchema = z.discriminatedUnion('decision', [
@@ -98,7 +106,7 @@ export const DecisionSchema = z.discriminatedUnion('decision', [
 ], { message: 'Choose approve or reject.' })
 export type DecisionInput = z.infer<typeof DecisionSchema>
 
-/** `PATCH /api/admin/trade-accounts/:id`: change tier and/or terms of an approved or suspended account. */
+/** `PATCH /api/admin/trade-accounts/:id`: change tier and/or terms of an approved or suspended trade account. */
 export const TradeTermsSchema = z.strictObject({
   tierId: z.number({ message: 'Choose a discount tier.' }).int().positive('Choose a discount tier.').optional(),
   terms: z.enum(PAYMENT_TERMS, { message: 'Choose card or trade account.' }).optional(),
@@ -108,8 +116,8 @@ export const TradeTermsSchema = z.strictObject({
 export type TradeTermsInput = z.infer<typeof TradeTermsSchema>
 
 export const SuspendSchema = z.strictObject({
-  reason: z.string({ message: 'Say why the account is suspended.' }).trim()
-    .min(5, 'Say why the account is suspended (the garage reads this).').max(1000, 'Keep the reason under 1000 characters.'),
+  reason: z.string({ message: 'Say why the trade account is suspended.' }).trim()
+    .min(5, 'Say why the trade account is suspended (the garage reads this).').max(1000, 'Keep the reason under 1000 characters.'),
 })
 export const ReactivateSchema = z.strictObject({
   note: z.string().trim().max(1000, 'Keep the note under 1000 characters.').optional(),

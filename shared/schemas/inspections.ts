@@ -6,6 +6,7 @@
 import { z } from 'zod'
 import type { PartType, RecommendedPart, WearInput, WearResult } from '../utils/brake'
 import { QualifiersSchema } from './parts'
+import { PageQuerySchema } from './page'
 
 /** Wear-check part types -> catalogue part types (parts.type). */
 export const CATALOGUE_TYPE_OF: Record<PartType, string> = {
@@ -15,7 +16,6 @@ export const CATALOGUE_TYPE_OF: Record<PartType, string> = {
   shoes: 'shoe_set',
   'brake-fluid': 'fluid',
 }
-
 
 /** POST /api/inspections */
 export const InspectionCreateSchema = z
@@ -31,11 +31,11 @@ export const InspectionCreateSchema = z
   .strict()
 export type InspectionCreateInput = z.input<typeof InspectionCreateSchema>
 
-/** GET /api/inspections */
-export const InspectionListQuerySchema = z.object({
+/** GET /api/inspections: one page of the garage's inspections, optionally of one vehicle. */
+export const InspectionListQuerySchema = PageQuerySchema.extend({
   vehicleId: z.coerce.number().int().positive().optional(),
-  page: z.coerce.number().int().min(1).max(10_000).default(1),
 })
+export type InspectionListQuery = z.infer<typeof InspectionListQuerySchema>
 
 /** GET /api/inspections/:id */
 export const InspectionParamsSchema = z.object({ id: z.coerce.number().int().positive() })

@@ -1,11 +1,6 @@
-/** What the trade-account routes answer (server serialisers and pages share these shapes). */
+/** What the trade-account, staff and account routes answer (server serialisers and pages share these shapes). */
 import type { OrgStatus, PaymentTerms, Role, UserStatus } from './accounts'
-
-/** The one paginated list contract: `{ data, meta: { page, pageSize, total } }`. */
-export interface PageOf<T> {
-  data: T[]
-  meta: { page: number; pageSize: number; total: number }
-}
+import type { Page } from './page'
 
 export interface TierView {
   id: number
@@ -94,8 +89,14 @@ export interface ApplicationStatusView {
   document: { originalName: string; sizeBytes: number } | null
 }
 
-export interface StaffList {
+export interface StaffMember extends PersonView {
+  /** the caller may change this person's role or remove them */
+  manageable: boolean
+  isYou: boolean
+}
+
+/** `GET /api/staff`: one page of the caller's own organisation's people. */
+export interface StaffList extends Page<StaffMember> {
   /** roles the caller may give when inviting or changing a role */
   assignableRoles: Role[]
-  data: (PersonView & { manageable: boolean; isYou: boolean })[]
 }

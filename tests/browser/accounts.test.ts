@@ -58,7 +58,7 @@ describe('trade accounts in the browser', () => {
     await page.getByLabel('Credit limit', { exact: true }).fill('1500.00')
     await page.getByLabel('Days to pay').fill('30')
     await shot(page, 'accounts-decide')
-    await page.getByRole('button', { name: 'Approve and open the account' }).click()
+    await page.getByRole('button', { name: 'Approve and open the trade account' }).click()
     await visible(page, 'The garage has been told by e-mail.')
     const mail = await waitForMail(garage.email, /your trade account is open/)
     expect(mail.text).toContain('£1,500.00')

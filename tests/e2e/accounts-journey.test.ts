@@ -59,7 +59,7 @@ describe('apply -> approve -> sign in', () => {
   it('shows the admin the queue, filtered, sorted and paged, and the application with its document', async () => {
     const list = await admin.get(`/api/admin/trade-applications?status=pending&q=${encodeURIComponent(fields.businessName.slice(0, 20))}`)
     expect(list.status).toBe(200)
-    expect(list.body.meta).toEqual({ page: 1, pageSize: 20, total: 1 })
+    expect(list.body.meta).toEqual({ page: 1, pageSize: 20, total: 1, pages: 1 })
     expect(list.body.data[0]).toMatchObject({ id, name: fields.businessName, status: 'pending' })
 
     const paged = await admin.get('/api/admin/trade-applications?status=all&sort=-submitted&page=1&pageSize=2')

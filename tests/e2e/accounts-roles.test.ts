@@ -119,7 +119,7 @@ describe('every route, as anonymous and as each role', () => {
 
   it('leaves out no route file of these domains', () => {
     const apiDir = join(import.meta.dirname, '../../server/api')
-    const owned = [/^\/api\/auth\//, /^\/api\/account(\/|$)/, /^\/api\/staff(\/|$)/, /^\/api\/trade-applications(\/|$)/, /^\/api\/admin\/(trade-applications|accounts|tiers)(\/|$)/, /^\/api\/(me|health)$/]
+    const owned = [/^\/api\/auth\//, /^\/api\/account(\/|$)/, /^\/api\/staff(\/|$)/, /^\/api\/trade-applications(\/|$)/, /^\/api\/admin\/(trade-applications|trade-accounts|tiers)(\/|$)/, /^\/api\/(me|health)$/]
     const found: string[] = []
     const walk = (dir: string) => {
       for (const name of readdirSync(dir)) {

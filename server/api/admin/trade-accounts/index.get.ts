@@ -1,7 +1,7 @@
 /**
  * GET /api/admin/trade-accounts?status=approved|suspended|pending|rejected|all&q=&sort=&page=&pageSize=
- * -> { data: TradeAccountSummary[], meta }. Every garage by default, by name. Distributor staff (counter staff
- * read terms when working orders; only the admin changes them).
+ * -> Page<TradeAccountSummary>. Every garage by default, by name. Distributor staff (counter staff read terms
+ * when working orders; only the admin changes them); 422 bad query.
  */
 import { TradeAccountListQuerySchema } from '#shared/schemas/accounts'
 import { listTradeAccounts } from '../../../services/trade-accounts'

@@ -1,7 +1,6 @@
 /**
  * GET /api/admin/trade-applications?status=pending|approved|rejected|suspended|all&q=&sort=&page=&pageSize=
- * -> { data: TradeAccountSummary[], meta: { page, pageSize, total } }. The queue defaults to pending, oldest first.
- * Distributor admin only.
+ * -> Page<TradeAccountSummary>. The queue defaults to pending, oldest first. Distributor admin only; 422 bad query.
  */
 import { TradeAccountListQuerySchema } from '#shared/schemas/accounts'
 import { listTradeAccounts } from '../../../services/trade-accounts'

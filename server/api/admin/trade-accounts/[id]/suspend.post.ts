@@ -1,29 +1,15 @@
 /**
- * POST /api/admin/trade-accounts/:id/suspend { reason } -> TradeAccountDetail. Approved -> suspended (409 otherwise).
- * From the next request on, every route refuses the garage's people with 403 (status is read from the
- * database on every request): no new sign-in needed, and they still see why on their status page.
+ * POST /api/admin/trade-accounts/:id/suspend { reason } -> TradeAccountDetail. Approved -> suspended. Distributor
+ * admin; 404 unknown; 409 when not approved; 422 without a reason. From the garage's next request on, every route
+ * refuses its people with 403 (no new sign-in needed); they still read why on their status page. Audited, e-mailed.
  */
 import { IdParamSchema, SuspendSchema } from '#shared/schemas/accounts'
-import { Organisation } from '../../../../models/accounts'
-import { findGarage, tradeAccountDetail, garageRecipients } from '../../../../services/trade-accounts'
-import { accountMail } from '../../../../services/account-mail'
+import { garageOr404 } from '../../../../services/trade-accounts'
+import { changeStanding } from '../../../../services/trade-account-changes'
 
 export default defineEventHandler(async (event) => {
   const { user } = requireAbility(event, 'tradeAccounts.decide')
   const { id } = paramsWith(event, IdParamSchema)
   const { reason } = await bodyWith(event, SuspendSchema)
-  const org = await findGarage(id)
-  if (!org) throw notFound('Trade account')
-  if (org.status !== 'approved') throw conflict(`Only an approved account can be suspended (this one is ${org.status}).`)
-  await withWrite(async (t) => {
-    const [changed] = await Organisation.update({ status: 'suspended', decisionReason: reason }, { where: { id: org.id, status: 'approved' }, transaction: t })
-    if (changed !== 1) throw conflict('The account changed meanwhile; reload and try again.')
-    await audit(t, {
-      actorUserId: user.id, organisationId: org.id, entity: 'organisation', entityId: org.id, action: 'account.suspended',
-      changes: { status: { from: 'approved', to: 'suspended' }, reason },
-    })
-  })
-  const fresh = (await findGarage(org.id))!
-  await sendMail({ to: await garageRecipients(fresh), ...accountMail.suspended({ businessName: fresh.name, reason }) })
-  return tradeAccountDetail(fresh)
+  return changeStanding(await garageOr404(id), { move: 'suspend', reason }, user.id)
 })

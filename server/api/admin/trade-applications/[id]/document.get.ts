@@ -1,12 +1,13 @@
 /**
  * GET /api/admin/trade-applications/:id/document -> the garage's proof-of-trade document, as a download.
- * Distributor staff only. Served as an attachment with the type detected at upload, `nosniff` and a
- * sandboxing CSP, so a crafted file cannot run in Boreline's origin.
+ * Distributor staff only; 404 when the garage or its document is missing. Served as an attachment with the type
+ * detected at upload, `nosniff` and a sandboxing CSP, so a crafted file cannot run in Boreline's origin; streamed,
+ * with the original (possibly non-ASCII) name kept in `filename*`.
  */
 import { stat } from 'node:fs/promises'
 import { IdParamSchema } from '#shared/schemas/accounts'
 import { findGarage, latestProof } from '../../../../services/trade-accounts'
-import { openProof, proofPath } from '../../../../services/proof-upload'
+import { openProof, proofPath } from '../../../../services/proof-store'
 
 export default defineEventHandler(async (event) => {
   requireAbility(event, 'tradeAccounts.view')

@@ -3,12 +3,10 @@
  * decision history). Distributor admin only; 404 when no garage has this id.
  */
 import { IdParamSchema } from '#shared/schemas/accounts'
-import { findGarage, tradeAccountDetail } from '../../../../services/trade-accounts'
+import { garageOr404, tradeAccountDetail } from '../../../../services/trade-accounts'
 
 export default defineEventHandler(async (event) => {
   requireAbility(event, 'tradeAccounts.decide')
   const { id } = paramsWith(event, IdParamSchema)
-  const org = await findGarage(id)
-  if (!org) throw notFound('Application')
-  return tradeAccountDetail(org)
+  return tradeAccountDetail(await garageOr404(id, 'Application'))
 })
