@@ -6,7 +6,7 @@
 export function useSignOut() {
   const { clear } = useUserSession()
   return async function signOut(): Promise<void> {
-    await $fetch('/api/auth/sign-out', { method: 'POST' }).catch(() => {})
+    await api('/api/auth/sign-out', { method: 'POST' }).catch(() => {})
     await clear()
     await navigateTo('/sign-in')
   }

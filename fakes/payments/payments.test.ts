@@ -55,7 +55,6 @@ let port: number
 let stripe: Stripe
 let receiver: Awaited<ReturnType<typeof startReceiver>>
 
-// eslint-disable-next-line @typescript-eslint/no-explicit-any -- control-route answers are read loosely
 type Loose = any
 
 async function call(method: 'GET' | 'POST', path: string, body?: unknown): Promise<{ status: number; json: Loose }> {

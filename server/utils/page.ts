@@ -1,13 +1,13 @@
 /** The server half of the list contract (shared/schemas/page.ts): limit/offset in, `Page<T>` out. */
 import type { PageQuery } from '../../shared/schemas/page'
-import type { Page, PageMeta } from '../../shared/types/page'
+import type { Page, PageInfo } from '../../shared/types/page'
 
 /** `LIMIT`/`OFFSET` for a page query (Sequelize's `limit`/`offset` options). */
 export function pageWindow(query: PageQuery): { limit: number; offset: number } {
   return { limit: query.pageSize, offset: (query.page - 1) * query.pageSize }
 }
 
-export function pageMeta(query: PageQuery, total: number): PageMeta {
+export function pageMeta(query: PageQuery, total: number): PageInfo {
   return { page: query.page, pageSize: query.pageSize, total, pages: Math.max(1, Math.ceil(total / query.pageSize)) }
 }
 

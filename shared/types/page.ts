@@ -1,10 +1,10 @@
 /** One page of a list, as every list route answers (see shared/schemas/page.ts). */
 export interface Page<T> {
   data: T[]
-  meta: PageMeta
+  meta: PageInfo
 }
 
-export interface PageMeta {
+export interface PageInfo {
   page: number
   pageSize: number
   total: number

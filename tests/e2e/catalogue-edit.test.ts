@@ -22,7 +22,7 @@ beforeAll(async () => {
 })
 function audits(entityId: string): Promise<{ action: string; actor: number; changes: string }[]> {
   const d = new sqlite3.Database(env().dbPath, sqlite3.OPEN_READONLY)
-  return new Promise((res, rej) => d.all('SELECT action, actor_user_id AS actor, changes FROM audit_log WHERE entity_id = ? ORDER BY id', [entityId], (e, rows) => { d.close(); e ? rej(e) : res(rows as never) }))
+  return new Promise((res, rej) => d.all('SELECT action, actor_user_id AS actor, changes FROM audit_log WHERE entity_id = ? ORDER BY id', [entityId], (e, rows) => { d.close(); if (e) rej(e); else res(rows as never) }))
 }
 const skus = (body: { data: { sku: string }[] }) => body.data.map((r) => r.sku)
 

@@ -10,7 +10,7 @@ import { parse as parseCsvSync } from 'csv-parse/sync'
 import { all as mathAll, create } from 'mathjs'
 import { existsSync, readdirSync } from 'node:fs'
 import { join, resolve } from 'node:path'
-import type { PageMeta } from '#shared/types/page'
+import type { PageInfo } from '#shared/types/page'
 import type { PriceChangeRow, PriceFileDetail, PriceVersionSummary } from '#shared/types/price-files'
 import { Client, as, env, people, waitForMail, type Res } from '../support/api'
 import { buildZip } from '../unit/price-files/zip-fixture'
@@ -79,7 +79,7 @@ async function changes(c: Client, id: number, kind: string, extra = '') {
   for (const [k, v] of new URLSearchParams(extra)) query.set(k, v)
   const r = await c.get(`/api/price-files/${id}/changes?${query}`)
   expect(r.status).toBe(200)
-  return r.body as { data: PriceChangeRow[]; meta: PageMeta }
+  return r.body as { data: PriceChangeRow[]; meta: PageInfo }
 }
 
 const rollback = (c: Client, id: number) => c.post(`/api/price-files/${id}/rollback`)

@@ -155,7 +155,6 @@ export async function snapshot(orderId: number, organisationId: number) {
 
 // ---- the payment fake and the webhook ------------------------------------------------------------
 
-/* eslint-disable @typescript-eslint/no-explicit-any -- control-route answers are read loosely */
 export async function fake(method: 'GET' | 'POST', path: string, body?: unknown): Promise<{ status: number; json: any }> {
   const res = await fetch(`${env().paymentsUrl}${path}`, {
     method,

@@ -11,7 +11,7 @@ const db = join(dir, 'seed.sqlite')
 const seed = () => spawnSync('npx', ['tsx', 'scripts/db-seed.ts'], { cwd: root, env: { ...process.env, DATABASE_URL: `sqlite:${db}` }, encoding: 'utf8', timeout: 120_000 })
 function one<T>(sql: string): Promise<T> {
   const d = new sqlite3.Database(db, sqlite3.OPEN_READONLY)
-  return new Promise((res, rej) => d.get(sql, (e, row) => { d.close(); e ? rej(e) : res(row as T) }))
+  return new Promise((res, rej) => d.get(sql, (e, row) => { d.close(); if (e) rej(e); else res(row as T) }))
 }
 const counts = () => one<Record<string, number>>(`SELECT (SELECT COUNT(*) FROM vehicles) AS vehicles, (SELECT COUNT(*) FROM vehicle_options) AS options,
   (SELECT COUNT(*) FROM vehicle_brakes) AS brakes, (SELECT COUNT(*) FROM parts) AS parts, (SELECT COUNT(*) FROM part_oe_numbers) AS oe,

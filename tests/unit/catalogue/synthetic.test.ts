@@ -11,7 +11,7 @@ const db = join(dir, 'syn.sqlite')
 const run = (args: string[]) => spawnSync('npx', ['tsx', 'scripts/catalogue-synthetic.ts', ...args], { cwd: root, env: { ...process.env, DATABASE_URL: '' }, encoding: 'utf8', timeout: 120_000 })
 function query<T>(sql: string): Promise<T[]> {
   const d = new sqlite3.Database(db, sqlite3.OPEN_READONLY)
-  return new Promise((res, rej) => d.all(sql, (e, rows) => { d.close(); e ? rej(e) : res(rows as T[]) }))
+  return new Promise((res, rej) => d.all(sql, (e, rows) => { d.close(); if (e) rej(e); else res(rows as T[]) }))
 }
 afterAll(() => rmSync(dir, { recursive: true, force: true }))
 
