@@ -11,7 +11,7 @@ export function termsPayload(d: TermsDraft): { payload: { tierId?: number; terms
   if (d.tierId) payload.tierId = d.tierId
   else fields.tierId = 'Choose a discount tier.'
   if (d.terms === 'account') {
-    const limit = parseMoneyToMinor(d.creditLimit.replace(/[£,\s]/g, ''))
+    const limit = parseMoneyToMinor(d.creditLimit.replace(/[^\d.-]/g, '')) // the currency sign, spaces and thousands commas go
     if (limit === null || limit <= 0) fields.creditLimitMinor = 'Enter the credit limit, e.g. 2500.00.'
     else payload.creditLimitMinor = limit
     const days = Number(d.paymentDays)

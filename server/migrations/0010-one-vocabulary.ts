@@ -7,6 +7,7 @@ import type { QueryInterface } from 'sequelize'
  * - the prices in use stay `part_prices`; `prices`, the complete copies kept from before migration 0009 and read
  *   by nothing, goes;
  * - an order that is paid or on account and waits to be picked is `confirmed` (it was stored as `queued`).
+ * - a garage's standing is its *trade account* and its request a *trade application*, in audit actions too.
  * Audit rows are renamed too, so the history reads in the same words.
  */
 export async function up(qi: QueryInterface): Promise<void> {
@@ -34,10 +35,14 @@ export async function up(qi: QueryInterface): Promise<void> {
   await q(`UPDATE audit_log SET action = 'priceVersion.' || substr(action, 11) WHERE action LIKE 'priceList.%'`)
   await q(`UPDATE audit_log SET entity = 'price_version' WHERE entity = 'price_list'`)
   await q(`UPDATE audit_log SET entity = 'price_file' WHERE entity = 'price_upload'`)
+  await q(`UPDATE audit_log SET action = 'tradeAccount.' || substr(action, 9) WHERE action LIKE 'account.%'`)
+  await q(`UPDATE audit_log SET action = 'tradeApplication.' || substr(action, 13) WHERE action LIKE 'application.%'`)
 }
 
 export async function down(qi: QueryInterface): Promise<void> {
   const q = (sql: string) => qi.sequelize.query(sql)
+  await q(`UPDATE audit_log SET action = 'application.' || substr(action, 18) WHERE action LIKE 'tradeApplication.%'`)
+  await q(`UPDATE audit_log SET action = 'account.' || substr(action, 14) WHERE action LIKE 'tradeAccount.%'`)
   await q(`UPDATE audit_log SET entity = 'price_upload' WHERE entity = 'price_file'`)
   await q(`UPDATE audit_log SET entity = 'price_list' WHERE entity = 'price_version'`)
   await q(`UPDATE audit_log SET action = 'priceList.' || substr(action, 14) WHERE action LIKE 'priceVersion.%'`)

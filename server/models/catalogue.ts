@@ -3,18 +3,9 @@
  * exposed parsed through getters/setters, validated by the zod schemas in shared/schemas before writing.
  */
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
+import { jsonColumn } from './json-column'
 import type { AxleName } from '../../shared/types/axles'
 
-const json = (field: string, fallback: unknown) => ({
-  type: DataTypes.TEXT,
-  get(this: Model) {
-    const raw = this.getDataValue(field) as string | null
-    return raw == null ? fallback : JSON.parse(raw)
-  },
-  set(this: Model, v: unknown) {
-    this.setDataValue(field, v == null ? null : JSON.stringify(v))
-  },
-})
 
 export type Qualifiers = Record<string, string>
 
@@ -159,23 +150,23 @@ export function initCatalogueModels(sequelize: Sequelize): void {
     pedalRatio: FLOAT, boosterRatio: FLOAT, parkingBrake: STRING, ...stamps,
   }, { sequelize, tableName: 'vehicles' })
   VehicleOption.init({
-    id, vehicleId: INTEGER, key: STRING, label: STRING, question: STRING, values: json('values', []), ...stamps,
+    id, vehicleId: INTEGER, key: STRING, label: STRING, question: STRING, values: jsonColumn('values', []), ...stamps,
   }, { sequelize, tableName: 'vehicle_options' })
   VehicleBrake.init({
-    id, vehicleId: INTEGER, axle: STRING, qualifiers: json('qualifiers', {}), kind: STRING,
+    id, vehicleId: INTEGER, axle: STRING, qualifiers: jsonColumn('qualifiers', {}), kind: STRING,
     discDiameterMm: FLOAT, discThicknessMm: FLOAT, discMinThicknessMm: FLOAT, discVented: BOOLEAN,
     drumDiameterMm: FLOAT, drumMaxDiameterMm: FLOAT, caliperType: STRING,
-    pistonDiametersMm: json('pistonDiametersMm', null), wheelCylinderBoreMm: FLOAT,
+    pistonDiametersMm: jsonColumn('pistonDiametersMm', null), wheelCylinderBoreMm: FLOAT,
     maxRunoutMm: FLOAT, maxThicknessVariationMm: FLOAT, ...stamps,
   }, { sequelize, tableName: 'vehicle_brakes' })
   Part.init({
-    id, sku: STRING, type: STRING, productLine: STRING, description: STRING, specs: json('specs', {}), status: STRING, ...stamps,
+    id, sku: STRING, type: STRING, productLine: STRING, description: STRING, specs: jsonColumn('specs', {}), status: STRING, ...stamps,
   }, { sequelize, tableName: 'parts' })
   PartOeNumber.init({ id, partId: INTEGER, oeNumber: STRING, oeNormalised: STRING, maker: STRING }, { sequelize, tableName: 'part_oe_numbers', timestamps: false })
   Supersession.init({ id, oldSku: STRING, newPartId: INTEGER, note: STRING, createdAt: DATE }, { sequelize, tableName: 'supersessions', updatedAt: false })
   Fitment.init({
     id, vehicleId: INTEGER, partId: INTEGER, axle: STRING, side: STRING, quantity: INTEGER,
-    qualifiers: json('qualifiers', {}), note: STRING, ...stamps,
+    qualifiers: jsonColumn('qualifiers', {}), note: STRING, ...stamps,
   }, { sequelize, tableName: 'fitments' })
   StockLevel.init({
     partId: { type: INTEGER, primaryKey: true }, branchId: { type: INTEGER, primaryKey: true }, quantity: INTEGER, updatedAt: DATE,

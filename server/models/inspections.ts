@@ -3,21 +3,12 @@
  * Always query with `organisationId` of the caller: a garage sees only its own inspections.
  */
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
+import { jsonColumn } from './json-column'
 import type { WearInput, WearResult } from '../../shared/utils/brake'
 import { User } from './accounts'
 import { Vehicle } from './catalogue'
 import type { InspectionRecommendation } from '../../shared/schemas/inspections'
 
-const json = (field: string, fallback: unknown) => ({
-  type: DataTypes.TEXT,
-  get(this: Model) {
-    const raw = this.getDataValue(field) as string | null
-    return raw == null ? fallback : JSON.parse(raw)
-  },
-  set(this: Model, v: unknown) {
-    this.setDataValue(field, v == null ? null : JSON.stringify(v))
-  },
-})
 
 export class Inspection extends Model<InferAttributes<Inspection>, InferCreationAttributes<Inspection>> {
   declare id: CreationOptional<number>
@@ -42,8 +33,8 @@ export function initInspectionModels(sequelize: Sequelize): void {
     id: { type: INTEGER, primaryKey: true, autoIncrement: true },
     organisationId: INTEGER, vehicleId: INTEGER, authorUserId: INTEGER,
     registration: STRING, odometer: STRING,
-    answers: json('answers', {}), wearInput: json('wearInput', null), result: json('result', null),
-    overall: STRING, recommendedParts: json('recommendedParts', []), createdAt: DATE,
+    answers: jsonColumn('answers', {}), wearInput: jsonColumn('wearInput', null), result: jsonColumn('result', null),
+    overall: STRING, recommendedParts: jsonColumn('recommendedParts', []), createdAt: DATE,
   }, { sequelize, tableName: 'inspections', updatedAt: false })
   // bound after the account and catalogue models (initModels order)
   Inspection.belongsTo(Vehicle, { as: 'vehicle', foreignKey: 'vehicleId' })

@@ -4,18 +4,9 @@
  * and read as JSON chunks by server/services/price-files/findings.ts (no model: never one row at a time).
  */
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
+import { jsonColumn } from './json-column'
 import type { ColumnMapping, MissingAction, PriceFileStatus } from '../../shared/types/price-files'
 
-const json = (field: string, fallback: unknown) => ({
-  type: DataTypes.TEXT,
-  get(this: Model) {
-    const raw = this.getDataValue(field) as string | null
-    return raw == null ? fallback : JSON.parse(raw)
-  },
-  set(this: Model, v: unknown) {
-    this.setDataValue(field, v == null ? null : JSON.stringify(v))
-  },
-})
 
 export class PriceFile extends Model<InferAttributes<PriceFile>, InferCreationAttributes<PriceFile>> {
   declare id: CreationOptional<number>
@@ -79,14 +70,14 @@ export function initPriceFileModels(sequelize: Sequelize): void {
     countRejected: INTEGER, countLarge: INTEGER,
     fileName: STRING, storedName: STRING, fileSize: INTEGER, fileFormat: STRING,
     delimiter: STRING, delimiterChosen: BOOLEAN, decimalMark: STRING, encoding: STRING,
-    headers: json('headers', []), mapping: json('mapping', null), supplierName: STRING, errorMessage: TEXT,
+    headers: jsonColumn('headers', []), mapping: jsonColumn('mapping', null), supplierName: STRING, errorMessage: TEXT,
     basePriceVersionId: INTEGER, priceVersionId: INTEGER, previousPriceVersionId: INTEGER,
     missingAction: STRING, excludeRejected: BOOLEAN, effectiveAt: DATE,
     createdByUserId: INTEGER, appliedByUserId: INTEGER, appliedAt: DATE,
     rolledBackByUserId: INTEGER, rolledBackAt: DATE, ...stamps,
   }, { sequelize, tableName: 'price_files' })
   PriceColumnMapping.init({
-    id, supplierKey: STRING, supplierName: STRING, mapping: json('mapping', {}), delimiter: STRING,
+    id, supplierKey: STRING, supplierName: STRING, mapping: jsonColumn('mapping', {}), delimiter: STRING,
     decimalMark: STRING, updatedByUserId: INTEGER, ...stamps,
   }, { sequelize, tableName: 'price_column_mappings' })
 

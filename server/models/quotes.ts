@@ -4,6 +4,7 @@
  * exposed parsed.
  */
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
+import { jsonColumn } from './json-column'
 import type { QuoteStatus } from '../../shared/utils/quote-states'
 import type { QuoteLineKind } from '../../shared/utils/quote-totals'
 import type { MarkupRules } from '../../shared/utils/quote-markup'
@@ -11,16 +12,6 @@ import type { OwnerDecision, InspectionFinding, Recommendation } from '../../sha
 import { Organisation, User } from './accounts'
 import { Part, Vehicle } from './catalogue'
 
-const json = (field: string, fallback: unknown) => ({
-  type: DataTypes.TEXT,
-  get(this: Model) {
-    const raw = this.getDataValue(field) as string | null
-    return raw == null ? fallback : JSON.parse(raw)
-  },
-  set(this: Model, v: unknown) {
-    this.setDataValue(field, v == null ? null : JSON.stringify(v))
-  },
-})
 
 export class GarageSettings extends Model<InferAttributes<GarageSettings>, InferCreationAttributes<GarageSettings>> {
   declare id: CreationOptional<number>
@@ -106,14 +97,14 @@ export function initQuoteModels(sequelize: Sequelize): void {
   // defaults repeat the migration's, so a created instance holds what the row holds
   const d = <T>(type: T, defaultValue: unknown) => ({ type, defaultValue })
   GarageSettings.init({
-    id, organisationId: INTEGER, labourRateMinor: d(INTEGER, 0), markupRules: json('markupRules', null), taxRateBp: d(INTEGER, 2000),
+    id, organisationId: INTEGER, labourRateMinor: d(INTEGER, 0), markupRules: jsonColumn('markupRules', null), taxRateBp: d(INTEGER, 2000),
     quoteValidityDays: d(INTEGER, 30), quoteTerms: d(TEXT, ''), logoFile: STRING, logoMime: STRING, logoUpdatedAt: DATE, ...stamps,
   }, { sequelize, tableName: 'garage_settings' })
   Quote.init({
     id, organisationId: INTEGER, number: INTEGER, revision: d(INTEGER, 1), supersedesQuoteId: INTEGER, status: d(STRING, 'draft'),
     vehicleId: INTEGER, vehicleLabel: d(STRING, ''), registration: d(STRING, ''), odometer: d(STRING, ''),
     ownerName: STRING, ownerEmail: STRING, ownerPhone: d(STRING, ''), inspectionId: INTEGER,
-    findings: json('findings', []), messageToOwner: d(TEXT, ''), tokenHash: STRING, sentAt: DATE, sentByUserId: INTEGER, expiresAt: DATE, decidedAt: DATE,
+    findings: jsonColumn('findings', []), messageToOwner: d(TEXT, ''), tokenHash: STRING, sentAt: DATE, sentByUserId: INTEGER, expiresAt: DATE, decidedAt: DATE,
     decisionIp: STRING, decisionUserAgent: STRING, signedName: STRING, createdByUserId: INTEGER, ...stamps,
   }, { sequelize, tableName: 'quotes' })
   QuoteLine.init({

@@ -3,14 +3,13 @@
  * html) that services send after their commit with `sendMail`. Anything that came from a person is escaped
  * before it goes into HTML.
  */
-import { formatMinor } from '../../shared/utils/money'
+import { escapeHtml } from '@vue/shared'
+import type { Formats } from '../../shared/utils/format'
 import { ROLE_LABELS, type PaymentTerms, type Role } from '../../shared/types/accounts'
 
-export interface MailContent { subject: string; text: string; html: string }
+export { escapeHtml }
 
-export function escapeHtml(s: string): string {
-  return s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', '\'': '&#39;' }[c]!))
-}
+export interface MailContent { subject: string; text: string; html: string }
 
 /** Paragraphs of text; a paragraph may carry one link, given as [label, url]. */
 type Para = string | [string, string]
@@ -24,7 +23,6 @@ function compose(subject: string, paras: Para[]): MailContent {
   return { subject: `Boreline: ${subject}`, text, html }
 }
 
-export interface Money { currency: string; locale: string }
 
 /** The payment terms in a sentence; `money` writes an amount (`serverFormats().money`). */
 export function termsSentence(terms: PaymentTerms, creditLimitMinor: number, paymentDays: number, money: (minor: number) => string): string {
@@ -74,8 +72,8 @@ export const accountMail = {
       ['Sign in', o.signInUrl],
     ])
   },
-  paymentReceived(o: { businessName: string; amountMinor: number; reference: string; receivedOn: string; balanceMinor: number; availableMinor: number | null; statementUrl: string }, money: Money): MailContent {
-    const m = (minor: number) => formatMinor(minor, money.currency, money.locale)
+  paymentReceived(o: { businessName: string; amountMinor: number; reference: string; receivedOn: string; balanceMinor: number; availableMinor: number | null; statementUrl: string }, formats: Pick<Formats, 'money'>): MailContent {
+    const m = formats.money
     return compose(`payment of ${m(o.amountMinor)} received`, [
       `The distributor has booked a payment of ${m(o.amountMinor)} from ${o.businessName} to your trade account (reference ${o.reference}, received ${o.receivedOn}).`,
       `Balance now owed: ${m(o.balanceMinor)}.${o.availableMinor === null ? '' : ` Credit available for orders on account: ${m(o.availableMinor)}.`}`,

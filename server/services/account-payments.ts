@@ -49,7 +49,7 @@ function book(organisationId: number, input: AccountPaymentInput, actorUserId: n
     }, { transaction: t })
     const balanceMinor = owed - input.amountMinor
     await audit(t, {
-      actorUserId, organisationId: org.id, entity: 'ledger_entry', entityId: entry.id, action: 'account.payment_recorded',
+      actorUserId, organisationId: org.id, entity: 'ledger_entry', entityId: entry.id, action: 'tradeAccount.payment_recorded',
       changes: { amountMinor: input.amountMinor, reference: input.reference, receivedOn: input.receivedOn, balanceMinor: { from: owed, to: balanceMinor } },
     })
     const availableMinor = org.paymentTerms === 'account' ? (org.creditLimitMinor ?? 0) - balanceMinor : null

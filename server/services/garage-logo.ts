@@ -15,7 +15,6 @@ import { join } from 'node:path'
 import { fileTypeFromFile } from 'file-type'
 import { moveIntoStore, newStoredName, storeDir, storedPath, type FileStore } from './stored-files'
 import { receiveUpload, uploadRefusal, type ReceivedUpload } from './upload-intake'
-import { isDomainError } from './errors'
 import { LOGO_LIMITS } from '../../shared/schemas/quotes'
 
 export const LOGO_FIELD = 'logo'
@@ -91,6 +90,7 @@ export async function receiveLogo(req: IncomingMessage, uploadsDir: string): Pro
       maxBytes: LOGO_LIMITS.maxBytes,
       maxFields: 5,
       maxFieldsBytes: 8 * 1024,
+      formField: LOGO_FIELD, // the logo form has one field: a refusal of the form is shown beside it
       messages: {
         tooLarge: TOO_LARGE,
         notMultipart: 'Send the logo as multipart/form-data.',
@@ -102,13 +102,6 @@ export async function receiveLogo(req: IncomingMessage, uploadsDir: string): Pro
     const file = newStoredName(checked.ext)
     await moveIntoStore(upload.file!.path, uploadsDir, LOGOS, file)
     return { file, ...checked }
-  } catch (err) {
-    // the logo form has one field: a refusal of the form as a whole is shown beside it
-    if (isDomainError(err) && err.fields._ && !err.fields[LOGO_FIELD]) {
-      err.fields[LOGO_FIELD] = err.fields._
-      delete err.fields._
-    }
-    throw err
   } finally {
     await upload?.cleanup()
   }

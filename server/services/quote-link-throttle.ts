@@ -6,7 +6,8 @@
  *    address is refused until the window ends, so tokens cannot be guessed even slowly from one address.
  * Guessing is hopeless anyway (256-bit tokens); this keeps the cost of trying, and the noise, down.
  */
-import { RateLimiterMemory, RateLimiterRes } from 'rate-limiter-flexible'
+import { RateLimiterMemory } from 'rate-limiter-flexible'
+import { take } from './throttle'
 
 export const LINK_LIMITS = {
   requests: { points: 60, durationSeconds: 60 },
@@ -21,20 +22,10 @@ export async function admitLinkRequest(address: string): Promise<number | null> 
   const key = address || 'unknown'
   const missed = await misses.get(key)
   if (missed && missed.consumedPoints >= LINK_LIMITS.misses.points) return Math.max(1, Math.ceil(missed.msBeforeNext / 1000))
-  try {
-    await requests.consume(key, 1)
-    return null
-  } catch (res) {
-    if (res instanceof RateLimiterRes) return Math.max(1, Math.ceil(res.msBeforeNext / 1000))
-    throw res
-  }
+  return take(requests, key)
 }
 
 /** Counts a link that was not valid. */
 export async function countLinkMiss(address: string): Promise<void> {
-  try {
-    await misses.consume(address || 'unknown', 1)
-  } catch (res) {
-    if (!(res instanceof RateLimiterRes)) throw res
-  }
+  await take(misses, address || 'unknown')
 }

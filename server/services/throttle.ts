@@ -19,7 +19,8 @@ const resetByAddress = new RateLimiterMemory({ keyPrefix: 'reset-ip', points: 20
 
 export type Attempt = { ok: true; release: () => Promise<void> } | { ok: false; retryAfterSeconds: number }
 
-async function take(limiter: RateLimiterMemory, key: string): Promise<number | null> {
+/** Takes one point for `key`: null when it was free, else the seconds until the next one is. */
+export async function take(limiter: RateLimiterMemory, key: string): Promise<number | null> {
   try {
     await limiter.consume(key, 1)
     return null

@@ -75,7 +75,7 @@ export async function changeTradeTerms(garage: Garage, input: TradeTermsInput, a
   if (!Object.keys(changes).length) return tradeAccountDetail(garage)
   if (changes.tierId) changes.tierId = { from: garage.tier ? tierLabel(garage.tier) : null, to: tierLabel(tier!) }
 
-  const fresh = await commitGarageChange(garage, next, { action: 'account.terms_changed', changes, actorId })
+  const fresh = await commitGarageChange(garage, next, { action: 'tradeAccount.terms_changed', changes, actorId })
   await tellGarage(fresh, accountMail.termsChanged({
     businessName: fresh.name, tierName: fresh.tier?.name ?? 'none', percentBp: fresh.tier?.percentBp ?? 0, terms: termsOf(fresh),
   }))
@@ -99,7 +99,7 @@ export async function changeStanding(garage: Garage, change: StandingChange, act
   }
   const why = suspend ? { reason: change.reason } : change.note ? { note: change.note } : {}
   const fresh = await commitGarageChange(garage, { status: to, decisionReason: suspend ? change.reason : null }, {
-    action: suspend ? 'account.suspended' : 'account.reactivated', changes: { status: { from, to }, ...why }, actorId,
+    action: suspend ? 'tradeAccount.suspended' : 'tradeAccount.reactivated', changes: { status: { from, to }, ...why }, actorId,
   })
   await tellGarage(fresh, suspend
     ? accountMail.suspended({ businessName: fresh.name, reason: change.reason })

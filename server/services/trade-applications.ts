@@ -75,7 +75,7 @@ async function createApplication(input: TradeApplicationInput, passwordHash: str
       organisationId: org.id, storedName: proof.storedName, originalName: proof.originalName, mime: proof.mime, sizeBytes: proof.size,
     }, { transaction: t })
     await audit(t, {
-      actorUserId: user.id, organisationId: org.id, action: 'application.submitted', entity: 'organisation', entityId: org.id,
+      actorUserId: user.id, organisationId: org.id, action: 'tradeApplication.submitted', entity: 'organisation', entityId: org.id,
       changes: { status: { from: null, to: 'pending' }, document: { from: null, to: proof.originalName } },
     })
     return { org, user }
@@ -115,7 +115,7 @@ async function approve(garage: Garage, input: Extract<DecisionInput, { decision:
     decisionReason: input.reason || null, decidedAt: new Date(),
   }
   const fresh = await commitGarageChange(garage, values, {
-    action: 'application.approved', actorId, stale: DECIDED,
+    action: 'tradeApplication.approved', actorId, stale: DECIDED,
     changes: {
       status: { from: 'pending', to: 'approved' }, tier: { from: null, to: tierLabel(tier) }, terms: { from: null, to: values.paymentTerms },
       creditLimitMinor: { from: 0, to: values.creditLimitMinor }, paymentDays: { from: 0, to: values.paymentDays },
@@ -130,7 +130,7 @@ async function approve(garage: Garage, input: Extract<DecisionInput, { decision:
 
 async function reject(garage: Garage, reason: string, actorId: number): Promise<TradeAccountDetail> {
   const fresh = await commitGarageChange(garage, { status: 'rejected', decisionReason: reason, decidedAt: new Date() }, {
-    action: 'application.rejected', actorId, stale: DECIDED, changes: { status: { from: 'pending', to: 'rejected' }, reason },
+    action: 'tradeApplication.rejected', actorId, stale: DECIDED, changes: { status: { from: 'pending', to: 'rejected' }, reason },
   })
   await tellGarage(fresh, accountMail.rejected({ businessName: fresh.name, reason: fresh.decisionReason ?? '', applyUrl: appLink('/apply') }))
   return tradeAccountDetail(fresh)

@@ -22,6 +22,8 @@ export interface UploadSpec {
   /** text fields allowed beside the file, and their total size */
   maxFields?: number
   maxFieldsBytes?: number
+  /** where a refusal of the form as a whole is shown: `_` (above the form) unless the form is only this field */
+  formField?: string
   messages: {
     tooLarge: string
     notMultipart: string
@@ -49,7 +51,7 @@ export async function receiveUpload(req: IncomingMessage, spec: UploadSpec): Pro
   const type = String(req.headers['content-type'] ?? '')
   if (!/^multipart\/form-data/i.test(type)) {
     req.resume()
-    throw uploadRefusal(415, '_', spec.messages.notMultipart)
+    throw uploadRefusal(415, spec.formField ?? '_', spec.messages.notMultipart)
   }
   await mkdir(spec.tempDir, { recursive: true })
   const temporary = new Set<string>()
@@ -107,12 +109,12 @@ function refusalOf(err: unknown, spec: UploadSpec): Error {
       return uploadRefusal(422, spec.field, spec.messages.oneFileOnly)
     case formidableErrors.maxFieldsSizeExceeded:
     case formidableErrors.maxFieldsExceeded:
-      return uploadRefusal(413, '_', 'The form has more text than expected.')
+      return uploadRefusal(413, spec.formField ?? '_', 'The form has more text than expected.')
     case formidableErrors.noParser:
     case formidableErrors.missingContentType:
     case formidableErrors.missingMultipartBoundary:
-      return uploadRefusal(415, '_', spec.messages.notMultipart)
+      return uploadRefusal(415, spec.formField ?? '_', spec.messages.notMultipart)
     default:
-      return uploadRefusal(422, '_', spec.messages.incomplete)
+      return uploadRefusal(422, spec.formField ?? '_', spec.messages.incomplete)
   }
 }

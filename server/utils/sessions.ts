@@ -6,7 +6,7 @@
 import { randomBytes } from 'node:crypto'
 import type { H3Event } from 'h3'
 import { getRequestIP, getRequestHeader } from 'h3'
-import { Op, type Model } from 'sequelize'
+import type { Model } from 'sequelize'
 import { Organisation, SessionRecord, User } from '../models/accounts'
 import { withWrite } from './db'
 import { cachedSessionRows, rememberSessionRows, rowsGeneration, type SessionRows } from './session-cache'
@@ -85,13 +85,4 @@ export async function touchSessionRecord(record: SessionRecord, now = new Date()
 
 export async function revokeSessionRecord(sid: string): Promise<void> {
   await withWrite((t) => SessionRecord.update({ revokedAt: new Date() }, { where: { id: sid, revokedAt: null }, transaction: t }))
-}
-
-/** Ends every session of these users (optionally keeping one), e.g. after a password reset or a suspension. */
-export async function revokeSessionsOfUsers(userIds: number[], exceptSid?: string): Promise<void> {
-  if (!userIds.length) return
-  await withWrite((t) => SessionRecord.update({ revokedAt: new Date() }, {
-    where: { userId: { [Op.in]: userIds }, revokedAt: null, ...(exceptSid ? { id: { [Op.ne]: exceptSid } } : {}) },
-    transaction: t,
-  }))
 }

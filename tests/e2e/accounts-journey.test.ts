@@ -125,7 +125,7 @@ describe('apply -> approve -> sign in', () => {
     const adminId = dbValue<number>(`SELECT id FROM users WHERE email = '${people.admin}'`)
     const entries = dbRows<{ action: string; actor_user_id: number; changes: string; created_at: string }>(
       `SELECT action, actor_user_id, changes, created_at FROM audit_log WHERE entity = 'organisation' AND entity_id = '${id}' ORDER BY id`)
-    expect(entries.map((e) => e.action)).toEqual(['application.submitted', 'application.approved'])
+    expect(entries.map((e) => e.action)).toEqual(['tradeApplication.submitted', 'tradeApplication.approved'])
     const approved = entries[1]!
     expect(approved.actor_user_id).toBe(adminId)
     expect(Date.now() - new Date(approved.created_at).getTime()).toBeLessThan(5 * 60_000)
@@ -160,7 +160,7 @@ describe('rejection', () => {
     expect((await garage.get('/api/account')).status).toBe(403)
     expect((await admin.post(`/api/admin/trade-applications/${id}/decision`, { decision: 'approve', tierId: tier('Bronze').id, terms: 'card' })).status).toBe(409)
     const last = dbRows<{ action: string; changes: string }>(`SELECT action, changes FROM audit_log WHERE entity_id = '${id}' AND entity = 'organisation' ORDER BY id DESC LIMIT 1`)[0]!
-    expect(last.action).toBe('application.rejected')
+    expect(last.action).toBe('tradeApplication.rejected')
     expect(JSON.parse(last.changes).reason).toBe(reason)
   })
 
@@ -191,7 +191,7 @@ describe('suspension, reactivation and terms', () => {
     await waitForMail(fields.email, /active again/)
     expect((await admin.post(`/api/admin/trade-accounts/${id}/reactivate`, {})).status).toBe(409)
     const actions = dbRows<{ action: string }>(`SELECT action FROM audit_log WHERE entity = 'organisation' AND entity_id = '${id}' ORDER BY id`).map((r) => r.action)
-    expect(actions).toEqual(['application.submitted', 'application.approved', 'account.suspended', 'account.reactivated'])
+    expect(actions).toEqual(['tradeApplication.submitted', 'tradeApplication.approved', 'tradeAccount.suspended', 'tradeAccount.reactivated'])
   })
 
   it('changes tier and terms, audits only what changed and tells the garage', async () => {
@@ -201,7 +201,7 @@ describe('suspension, reactivation and terms', () => {
     expect(r.body).toMatchObject({ tier: { name: 'Gold' }, terms: 'account', creditLimitMinor: 120_000, paymentDays: 45 })
     const mail = await waitForMail(fields.email, /trade terms have changed/)
     expect(mail.text).toContain('Gold (20 % off list prices)')
-    const entry = dbRows<{ changes: string; actor_user_id: number }>(`SELECT changes, actor_user_id FROM audit_log WHERE entity = 'organisation' AND entity_id = '${id}' AND action = 'account.terms_changed'`)
+    const entry = dbRows<{ changes: string; actor_user_id: number }>(`SELECT changes, actor_user_id FROM audit_log WHERE entity = 'organisation' AND entity_id = '${id}' AND action = 'tradeAccount.terms_changed'`)
     expect(entry).toHaveLength(1)
     expect(JSON.parse(entry[0]!.changes)).toEqual({
       tierId: { from: 'Bronze (5 %)', to: 'Gold (20 %)' },
