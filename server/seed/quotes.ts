@@ -20,7 +20,7 @@ const DAY = 86_400_000
 
 const TERMS = [
   'Parts and labour as listed, including tax at the rate shown. Anything else we find is quoted to you before we do it.',
-  'Payment is due when you collect the vehicle. Exchange units carry a deposit that we refund when the old unit goes back to our supplier.',
+  'Payment is due when you collect the vehicle. If we pass an exchange unit\'s deposit on to you, we refund it once our supplier accepts the old unit.',
   'Your old parts are kept for you to see until the vehicle is collected.',
 ].join('\n')
 

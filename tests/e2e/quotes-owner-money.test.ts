@@ -90,6 +90,14 @@ describe('prices that include tax', () => {
     expect(net.body.lines[0]).toMatchObject({ taxIncluded: false, unitPriceMinor: 8_333, amountMinor: 8_333, taxMinor: 1_667, grossMinor: 10_000 })
   })
 
+  it('refuses a price ending outside 0-99 by name and keeps the one saved', async () => {
+    const r = await m.patch('/api/garage/settings', { partPriceEndingMinor: 100, pricesIncludeTax: 'yes' })
+    expect(r.status).toBe(422)
+    expect(Object.keys(r.body.data.fields).sort()).toEqual(['partPriceEndingMinor', 'pricesIncludeTax'])
+    expect((await m.get('/api/garage/settings')).body.partPriceEndingMinor).toBe(99)
+    expect((await (await as(people.technician)).patch('/api/garage/settings', { pricesIncludeTax: false })).status).toBe(403)
+  })
+
   it('a technician may not choose how a price is stated', async () => {
     const { quote } = await startQuote(m)
     const tech = await as(people.technician)
