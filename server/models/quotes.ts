@@ -1,5 +1,5 @@
 /**
- * Quote models (migration 0006). Always query quotes with the caller's `organisationId`: a garage sees only
+ * Quote models (migrations 0006, 0014). Always query quotes with the caller's `organisationId`: a garage sees only
  * its own quotes, and the owner's personal data on them is that garage's alone. JSON columns are text,
  * exposed parsed.
  */
@@ -24,6 +24,9 @@ export class GarageSettings extends Model<InferAttributes<GarageSettings>, Infer
   declare logoFile: CreationOptional<string | null>
   declare logoMime: CreationOptional<string | null>
   declare logoUpdatedAt: CreationOptional<Date | null>
+  declare pricesIncludeTax: CreationOptional<boolean>
+  declare partPriceEnding: CreationOptional<number | null>
+  declare coreDepositsPassedOn: CreationOptional<boolean>
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
 }
@@ -86,6 +89,14 @@ export class QuoteLine extends Model<InferAttributes<QuoteLine>, InferCreationAt
   declare toldOwnerDeclinedRequired: CreationOptional<boolean>
   declare toldOwnerRecordedByUserId: CreationOptional<number | null>
   declare toldOwnerRecordedAt: CreationOptional<Date | null>
+  declare taxIncluded: CreationOptional<boolean>
+  declare declineStatement: CreationOptional<string | null>
+  declare declineSignedName: CreationOptional<string | null>
+  declare declineSignedAt: CreationOptional<Date | null>
+  declare declineAddress: CreationOptional<string | null>
+  declare declineUserAgent: CreationOptional<string | null>
+  declare coreRefundMinor: CreationOptional<number>
+  declare coreRefundRecordedAt: CreationOptional<Date | null>
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
 }
@@ -98,7 +109,8 @@ export function initQuoteModels(sequelize: Sequelize): void {
   const d = <T>(type: T, defaultValue: unknown) => ({ type, defaultValue })
   GarageSettings.init({
     id, organisationId: INTEGER, labourRateMinor: d(INTEGER, 0), markupRules: jsonColumn('markupRules', null), taxRateBp: d(INTEGER, 2000),
-    quoteValidityDays: d(INTEGER, 30), quoteTerms: d(TEXT, ''), logoFile: STRING, logoMime: STRING, logoUpdatedAt: DATE, ...stamps,
+    quoteValidityDays: d(INTEGER, 30), quoteTerms: d(TEXT, ''), logoFile: STRING, logoMime: STRING, logoUpdatedAt: DATE,
+    pricesIncludeTax: d(BOOLEAN, false), partPriceEnding: INTEGER, coreDepositsPassedOn: d(BOOLEAN, false), ...stamps,
   }, { sequelize, tableName: 'garage_settings' })
   Quote.init({
     id, organisationId: INTEGER, number: INTEGER, revision: d(INTEGER, 1), supersedesQuoteId: INTEGER, status: d(STRING, 'draft'),
@@ -112,7 +124,9 @@ export function initQuoteModels(sequelize: Sequelize): void {
     partType: STRING, description: STRING, quantity: d(INTEGER, 1), hoursHundredths: INTEGER, rateMinor: INTEGER,
     unitNetMinor: INTEGER, markupBp: INTEGER, unitPriceMinor: d(INTEGER, 0), amountMinor: d(INTEGER, 0), taxBp: INTEGER,
     recommendation: STRING, reason: TEXT, coreCharge: STRING, ownerDecision: STRING,
-    toldOwnerDeclinedRequired: d(BOOLEAN, false), toldOwnerRecordedByUserId: INTEGER, toldOwnerRecordedAt: DATE, ...stamps,
+    toldOwnerDeclinedRequired: d(BOOLEAN, false), toldOwnerRecordedByUserId: INTEGER, toldOwnerRecordedAt: DATE,
+    taxIncluded: d(BOOLEAN, false), declineStatement: TEXT, declineSignedName: STRING, declineSignedAt: DATE, declineAddress: STRING,
+    declineUserAgent: STRING, coreRefundMinor: d(INTEGER, 0), coreRefundRecordedAt: DATE, ...stamps,
   }, { sequelize, tableName: 'quote_lines' })
 
   GarageSettings.belongsTo(Organisation, { as: 'organisation', foreignKey: 'organisationId' })

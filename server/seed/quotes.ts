@@ -13,13 +13,14 @@ import { addLine, changeLine, isDecidable, linesOf, newQuoteToken, reviseQuote, 
 import { vehicleLabel } from '../services/inspections'
 import type { InspectionFinding } from '../../shared/types/quotes'
 import type { QuoteStatus } from '../../shared/utils/quote-states'
+import { signedDeclineText } from '../../shared/utils/quote-declines'
 
 const GARAGE = 'Millbrook Motor Works'
 const DAY = 86_400_000
 
 const TERMS = [
   'Parts and labour as listed, including tax at the rate shown. Anything else we find is quoted to you before we do it.',
-  'Payment is due when you collect the vehicle. Exchange units carry a deposit that we refund when the old unit goes back to our supplier.',
+  'Payment is due when you collect the vehicle. If we pass an exchange unit\'s deposit on to you, we refund it once our supplier accepts the old unit.',
   'Your old parts are kept for you to see until the vehicle is collected.',
 ].join('\n')
 
@@ -177,8 +178,14 @@ export async function seedQuotes(t: Transaction, log: (s: string) => void): Prom
         decidedAt: d.decidedDaysAgo !== undefined ? new Date(now - d.decidedDaysAgo * DAY) : null,
         decisionIp: d.decidedDaysAgo !== undefined ? '192.0.2.44' : null, signedName: d.signedName ?? null,
       }, { transaction: t })
+      const decidedAt = d.decidedDaysAgo !== undefined ? new Date(now - d.decidedDaysAgo * DAY) : null
       for (const l of await linesOf(q.id, t)) {
-        if (isDecidable(l) && decisions.has(l.id)) await QuoteLine.update({ ownerDecision: decisions.get(l.id) }, { where: { id: l.id }, transaction: t })
+        if (!isDecidable(l) || !decisions.has(l.id)) continue
+        // declining a required line is on record with the owner's signed acknowledgement
+        const signed = decisions.get(l.id) === 'declined' && l.recommendation === 'required'
+          ? { declineStatement: signedDeclineText(l), declineSignedName: d.signedName ?? d.owner.name, declineSignedAt: decidedAt, declineAddress: '192.0.2.44' }
+          : {}
+        await QuoteLine.update({ ownerDecision: decisions.get(l.id), ...signed }, { where: { id: l.id }, transaction: t })
       }
       if (d.status === 'sent') link = `/q/${token}`
     }

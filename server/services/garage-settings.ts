@@ -21,6 +21,9 @@ export async function garageSettingsView(org: Organisation, currency: string): P
     labourRateMinor: s.labourRateMinor,
     markupRules: s.markupRules,
     taxRateBp: s.taxRateBp,
+    pricesIncludeTax: s.pricesIncludeTax,
+    partPriceEndingMinor: s.partPriceEndingMinor,
+    coreDepositsPassedOn: s.coreDepositsPassedOn,
     quoteValidityDays: s.quoteValidityDays,
     quoteTerms: s.quoteTerms,
     techniciansSeePrices: !!org.techniciansSeePrices,
@@ -31,11 +34,13 @@ export async function garageSettingsView(org: Organisation, currency: string): P
   }
 }
 
-type Audited = Record<'labourRateMinor' | 'taxRateBp' | 'quoteValidityDays' | 'markupRules' | 'techniciansSeePrices', unknown>
+type Audited = Record<'labourRateMinor' | 'taxRateBp' | 'quoteValidityDays' | 'markupRules' | 'techniciansSeePrices'
+  | 'pricesIncludeTax' | 'partPriceEnding' | 'coreDepositsPassedOn', unknown>
 
 const audited = (row: GarageSettings, techniciansSeePrices: boolean): Audited => ({
   labourRateMinor: row.labourRateMinor, taxRateBp: row.taxRateBp, quoteValidityDays: row.quoteValidityDays,
-  markupRules: JSON.stringify(row.markupRules), techniciansSeePrices,
+  markupRules: JSON.stringify(row.markupRules), techniciansSeePrices, pricesIncludeTax: !!row.pricesIncludeTax,
+  partPriceEnding: row.partPriceEnding ?? null, coreDepositsPassedOn: !!row.coreDepositsPassedOn,
 })
 
 /** Saves the settings given; returns the organisation as it now is (the session's copy is a read-only snapshot). */
@@ -43,9 +48,10 @@ export async function updateGarageSettings(actor: QuoteActor, input: GarageSetti
   const { user, org } = actor
   await withWrite(async (t) => {
     const row = await settingsRowFor(t, org.id)
-    const { techniciansSeePrices, ...own } = input
+    const { techniciansSeePrices, partPriceEndingMinor, ...own } = input
     const before = audited(row, !!org.techniciansSeePrices)
     row.set(Object.fromEntries(Object.entries(own).filter(([, v]) => v !== undefined)))
+    if (partPriceEndingMinor !== undefined) row.partPriceEnding = partPriceEndingMinor
     await row.save({ transaction: t })
     if (techniciansSeePrices !== undefined) await Organisation.update({ techniciansSeePrices }, { where: { id: org.id }, transaction: t })
     const after = audited(row, techniciansSeePrices ?? !!org.techniciansSeePrices)

@@ -18,6 +18,8 @@ const bp = (label: string, max = 10_000) =>
   z.number({ error: `${label} must be given in basis points.` }).int(`${label} must be whole basis points.`)
     .min(0, `${label} cannot be negative.`).max(max, `${label} is at most ${max / 100} %.`)
 
+const yesNo = z.boolean({ error: 'Say yes or no.' })
+
 export const OwnerEmailSchema = z.string({ error: 'Enter the owner\'s e-mail address.' }).trim().toLowerCase()
   .pipe(z.email({ error: 'Enter a valid e-mail address for the owner.' }))
 
@@ -55,6 +57,13 @@ export const QuoteListQuerySchema = PageQuerySchema.extend({
 })
 export type QuoteListQuery = z.output<typeof QuoteListQuerySchema>
 
+/** GET /api/quotes/declined-work: a page of the garage's declined safety work, for a vehicle or a registration */
+export const DeclinedWorkQuerySchema = PageQuerySchema.extend({
+  registration: z.string().trim().max(20, 'A registration is at most 20 characters.').optional(),
+  vehicleId: z.preprocess((v) => (v === '' ? undefined : v), z.coerce.number({ error: 'Not a vehicle number.' }).int().positive().optional()),
+})
+export type DeclinedWorkQuery = z.output<typeof DeclinedWorkQuerySchema>
+
 export const QuoteParamsSchema = z.object({ id: z.coerce.number({ error: 'Not a quote number.' }).int().positive() })
 export const QuoteLineParamsSchema = z.object({
   id: z.coerce.number().int().positive(),
@@ -79,6 +88,8 @@ export const QuoteLineCreateSchema = z.strictObject({
   markupBp: bp('Markup', 50_000).optional(),
   rateMinor: minor('Labour rate', 10_000_000).optional(),
   taxBp: bp('Tax rate').optional(),
+  /** the prices given (amountMinor, rateMinor) and worked out include tax; default: the garage's setting */
+  taxIncluded: yesNo.optional(),
 }).superRefine((v, ctx) => {
   const need = (field: string, message: string) => ctx.addIssue({ code: 'custom', path: [field], message })
   if (v.kind === 'part' && !v.sku) need('sku', 'Choose a part (SKU).')
@@ -106,9 +117,12 @@ export const QuoteLineUpdateSchema = z.strictObject({
   markupBp: bp('Markup', 50_000).optional(),
   rateMinor: minor('Labour rate', 10_000_000).optional(),
   taxBp: bp('Tax rate').optional(),
-  coreCharge: z.enum(['charged', 'absorbed'], { error: 'A core deposit is charged or absorbed.' }).optional(),
-  /** the garage records that it told the owner what declining a required line means (managers) */
-  toldOwnerDeclinedRequired: z.boolean({ error: 'Say yes or no.' }).optional(),
+  /** the line's price includes tax (a price given with this change is read that way; without one the price is restated) */
+  taxIncluded: yesNo.optional(),
+  /** absorbed: the garage carries the deposit (the default); charged: passed on to the owner */
+  coreCharge: z.enum(['charged', 'absorbed'], { error: 'A core deposit is charged to the owner or absorbed by the garage.' }).optional(),
+  /** the garage records that it talked the owner through what declining a required line means (managers) */
+  toldOwnerDeclinedRequired: yesNo.optional(),
   position: z.number().int().min(0).max(10_000).optional(),
 }).refine((v) => Object.keys(v).length > 0, { error: 'Nothing to change.' })
 export type QuoteLineUpdateInput = z.input<typeof QuoteLineUpdateSchema>
@@ -126,11 +140,19 @@ export type FromInspectionInput = z.input<typeof FromInspectionSchema>
 /** POST /api/quotes/:id/send */
 export const QuoteSendSchema = z.strictObject({ message: text(2000, 'The note to the owner').optional() })
 
+/** The owner's signed acknowledgement that goes with declining a line marked required. */
+export const DeclineAcknowledgementSchema = z.strictObject({
+  understood: z.literal(true, { error: 'Tick to confirm you have read what declining this work means.' }),
+  signedName: text(120, 'Your name').min(2, 'Type your name to sign that you decline this work.'),
+}, { error: 'Read what declining this work means, tick and sign.' })
+
 /** POST /api/quote-links/:token/decision */
 export const QuoteDecisionSchema = z.strictObject({
   lines: z.array(z.strictObject({
     id: z.number({ error: 'Line id must be a number.' }).int().positive(),
     approved: z.boolean({ error: 'Approve or decline the line.' }),
+    /** with declining a required line, and only then */
+    acknowledgement: DeclineAcknowledgementSchema.optional(),
   }), { error: 'Choose approve or decline for each line.' }).min(1, 'Choose approve or decline for each line.').max(500),
   signedName: text(120, 'Your name').min(2, 'Type your name to sign.'),
 })
@@ -167,9 +189,16 @@ export const GarageSettingsUpdateSchema = z.strictObject({
   labourRateMinor: minor('Labour rate', 10_000_000).optional(),
   markupRules: MarkupRulesSchema.optional(),
   taxRateBp: bp('Tax rate').optional(),
+  /** show and enter prices with tax included (the labour rate too) */
+  pricesIncludeTax: yesNo.optional(),
+  /** part prices after markup move up to this ending in minor units (99: x.99; 0: whole units); null: none */
+  partPriceEndingMinor: z.number({ error: 'A price ending is a number of minor units from 0 to 99.' }).int('A price ending is whole minor units.')
+    .min(0, 'A price ending is 0 to 99.').max(99, 'A price ending is 0 to 99.').nullable().optional(),
+  /** charge core deposits to the owner by default (otherwise the garage absorbs them) */
+  coreDepositsPassedOn: yesNo.optional(),
   quoteValidityDays: z.number({ error: 'Validity is a number of days.' }).int('Validity is whole days.').min(1, 'Valid for at least 1 day.').max(365, 'At most 365 days.').optional(),
   quoteTerms: text(4000, 'Terms').optional(),
-  techniciansSeePrices: z.boolean({ error: 'Say yes or no.' }).optional(),
+  techniciansSeePrices: yesNo.optional(),
 }).refine((v) => Object.keys(v).length > 0, { error: 'Nothing to change.' })
 export type GarageSettingsUpdateInput = z.input<typeof GarageSettingsUpdateSchema>
 

@@ -1,6 +1,6 @@
 /** What the quote routes answer. Money in minor units, rates in basis points. */
 import type { QuoteStatus } from '../utils/quote-states'
-import type { QuoteLineKind, Totals } from '../utils/quote-totals'
+import type { QuoteLineKind, RateShare, Totals } from '../utils/quote-totals'
 import type { MarkupRules } from '../utils/quote-markup'
 
 export type Recommendation = 'required' | 'advised'
@@ -30,18 +30,60 @@ export interface QuoteLineView {
   /** the garage's net (trade) price captured when the line was added; null when the viewer may not see trade prices */
   unitNetMinor: number | null
   markupBp: number | null
+  /** the price per unit as stated: with tax when `taxIncluded`, else before tax (negative for discounts) */
   unitPriceMinor: number
+  /** the line's amount before tax (a discount's, after its split across the rates) */
   amountMinor: number
   taxBp: number
   taxMinor: number
+  /** amount + tax */
+  grossMinor: number
+  /** the line's price was stated with tax included */
+  taxIncluded: boolean
+  /** per rate: one for a charge; a discount's shares across the rates of what it discounts */
+  taxShares: RateShare[]
   recommendation: Recommendation | null
   /** finding the line answers, from the inspection */
   reason: string | null
+  /** core deposits: absorbed by the garage (the default) or charged to the owner */
   coreCharge: 'charged' | 'absorbed' | null
+  /** a core deposit charged to the owner: the refund due to them once the distributor accepted the old unit */
+  coreRefund: CoreRefundNote | null
   parentLineId: number | null
   ownerDecision: OwnerDecision | null
+  /** the garage recorded that it talked the owner through what declining this required line means */
   toldOwnerDeclinedRequired: boolean
+  /** the owner's signed acknowledgement, when they declined this required line */
+  declineAcknowledgement: DeclineAcknowledgement | null
   stock: StockNote | null
+}
+
+/** What the owner signed when declining a line marked required: kept with the quote and the vehicle's record. */
+export interface DeclineAcknowledgement {
+  /** the statement the owner was shown and the words they confirmed, as stored */
+  statement: string
+  signedName: string
+  signedAt: string
+  /** the internet address the decision came from */
+  address: string | null
+}
+
+/** The refund of a passed-on core deposit, recorded when the distributor accepted the old unit. */
+export interface CoreRefundNote {
+  amountMinor: number
+  recordedAt: string
+}
+
+/** One declined required line, for the vehicle's history and the follow-up reminders. */
+export interface DeclinedSafetyWork {
+  quoteId: number
+  reference: string
+  vehicleId: number | null
+  registration: string
+  lineId: number
+  description: string
+  reason: string | null
+  acknowledgement: DeclineAcknowledgement
 }
 
 export interface InspectionFinding {
@@ -59,6 +101,8 @@ export interface QuoteSummary {
   registration: string
   ownerName: string
   grossMinor: number
+  /** lines marked required that the owner declined (with their signed acknowledgement) */
+  declinedRequired: number
   sentAt: string | null
   expiresAt: string | null
   decidedAt: string | null
@@ -90,9 +134,13 @@ export interface QuoteDetail extends QuoteSummary {
   totals: Totals
   /** the lines the owner approved (after a decision) */
   approvedTotals: Totals | null
-  taxByRate: { taxBp: number; netMinor: number; taxMinor: number }[]
+  taxByRate: RateShare[]
+  /** the approved lines' tax per rate (after a decision) */
+  approvedTaxByRate: RateShare[] | null
   revisions: QuoteRevisionRef[]
   currency: string
+  /** the garage's setting: new lines are stated with tax included */
+  pricesIncludeTax: boolean
   /** may the viewer see trade prices and markups (managers; technicians when the garage allows) */
   showsTradePrices: boolean
   warnings: string[]
@@ -101,11 +149,18 @@ export interface QuoteDetail extends QuoteSummary {
 /** A line as the owner sees it: what it is and what it costs, never its trade price, markup or stock. */
 export type OwnerQuoteLine = Pick<QuoteLineView,
   'id' | 'kind' | 'description' | 'quantity' | 'hours' | 'unitPriceMinor' | 'amountMinor' | 'taxBp' | 'taxMinor' |
-  'recommendation' | 'reason' | 'coreCharge' | 'parentLineId' | 'ownerDecision'> & {
+  'grossMinor' | 'taxIncluded' | 'taxShares' | 'recommendation' | 'reason' | 'coreCharge' | 'coreRefund' | 'parentLineId' |
+  'ownerDecision'> & {
   /** the owner chooses this line (parts, labour, sundries); core deposits follow their part, discounts apply */
   decidable: boolean
-  /** required lines cannot be declined unless the garage recorded that the owner was told */
+  /** the owner may decline this line (every line they choose; a required one with a signed acknowledgement) */
   declinable: boolean
+  /** declining needs the owner's signed acknowledgement of `declineStatement` (lines marked required) */
+  needsAcknowledgement: boolean
+  /** what declining this required line means, in plain words: shown before the owner signs */
+  declineStatement: string | null
+  /** after the decision: what the owner signed when declining it */
+  declineAcknowledgement: DeclineAcknowledgement | null
 }
 
 /** The owner's view through the link: nothing of the garage beyond its name, contact and this quote. */
@@ -122,12 +177,17 @@ export interface OwnerQuoteView {
   expiresAt: string | null
   decidedAt: string | null
   signedName: string | null
+  /** the internet address the decision came from (recorded with it) */
+  decisionAddress: string | null
   findings: InspectionFinding[]
   messageToOwner: string
   terms: string
   lines: OwnerQuoteLine[]
   totals: Totals
   approvedTotals: Totals | null
+  /** tax per rate, as quoted and as approved */
+  taxByRate: RateShare[]
+  approvedTaxByRate: RateShare[] | null
   currency: string
   taxLabel: string
 }
@@ -137,6 +197,9 @@ export interface GarageSettingsView {
   labourRateMinor: number
   markupRules: MarkupRules
   taxRateBp: number
+  pricesIncludeTax: boolean
+  partPriceEndingMinor: number | null
+  coreDepositsPassedOn: boolean
   quoteValidityDays: number
   quoteTerms: string
   techniciansSeePrices: boolean

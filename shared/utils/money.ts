@@ -17,6 +17,25 @@ export function divRoundHalfUp(value: number, divisor: number): number {
   return sign * (2 * r >= b ? q + 1 : q) || 0 // never -0
 }
 
+/**
+ * `a x b / divisor` for integers, rounded half away from zero, worked in BigInt so the product never loses a
+ * minor unit however large (a net price x markup x tax runs past 2^53 long before money does).
+ */
+export function mulDivRoundHalfUp(a: number, b: number, divisor: number): number {
+  if (!Number.isSafeInteger(a) || !Number.isSafeInteger(b) || !Number.isSafeInteger(divisor) || divisor === 0) {
+    throw new RangeError(`mulDivRoundHalfUp needs safe integers and a non-zero divisor (got ${a} x ${b} / ${divisor})`)
+  }
+  const value = BigInt(a) * BigInt(b)
+  const d = BigInt(divisor)
+  const negative = (value < 0n) !== (d < 0n)
+  const av = value < 0n ? -value : value
+  const ad = d < 0n ? -d : d
+  const q = av / ad
+  const rounded = 2n * (av - q * ad) >= ad ? q + 1n : q
+  const n = Number(negative ? -rounded : rounded)
+  return n || 0 // never -0
+}
+
 /** The garage's net price: list price less its tier discount (basis points, 1250 = 12.5 %). */
 export function netPriceMinor(listPriceMinor: number, discountBp: number): number {
   if (discountBp < 0 || discountBp > 10_000) throw new RangeError(`discount must be 0..10000 bp (got ${discountBp})`)

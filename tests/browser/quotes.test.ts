@@ -1,13 +1,15 @@
 /**
  * The quote journey in Chromium: the technician drafts a quote for a vehicle chosen in the finder steps and one
  * of its inspections, and adds labour; the manager prices it and sends it; the owner opens the e-mailed link on
- * a phone-sized screen, declines an advised line and approves the rest, watching the total change, and signs;
- * the garage then sees the decision.
+ * a phone-sized screen (390 px), declines a line marked required (reading what that means, ticking and signing
+ * under it) and an advised line, approves the rest, watching the total change, and signs; the total on the page
+ * is the one the server stores; the garage then sees the decision and the signed acknowledgement.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Browser, Page } from 'playwright-core'
-import { foreignRequests, launch, newContext, shot, signInThroughForm } from '../support/browser'
+import { foreignRequests, hydrated, launch, newContext, shot, signInThroughForm } from '../support/browser'
 import { as, people, waitForMail } from '../support/api'
+import { formatMinor } from '#shared/utils/money'
 import { VEHICLE_ID, ownerEmail, uid } from '../support/quotes'
 
 const registration = `BR${uid().slice(0, 2).toUpperCase()} QTE`
@@ -17,6 +19,7 @@ describe('a quote from the workshop to the owner\'s phone', () => {
   let browser: Browser
   let quoteUrl = ''
   let link = ''
+  let pageTotal = ''
 
   beforeAll(async () => {
     browser = await launch()
@@ -98,11 +101,12 @@ describe('a quote from the workshop to the owner\'s phone', () => {
     expect(mail.attachments).toHaveLength(1)
   })
 
-  it('the owner opens the e-mailed link on a phone, declines the advised line and approves the rest', async () => {
+  it('the owner opens the e-mailed link on a phone, declines a required line and signs for it, declines the advised line and approves the rest', async () => {
     const { context, requests } = await newContext(browser, { viewport: { width: 390, height: 844 }, isMobile: true, hasTouch: true, deviceScaleFactor: 2 })
     const page = await context.newPage()
     await page.goto(new URL(link).pathname)
     await page.getByRole('heading', { name: 'Hello Morwen Teague' }).waitFor()
+    await hydrated(page)
     // no app chrome: no Boreline navigation or sign-in on the owner's page
     expect(await page.getByRole('navigation', { name: 'Main' }).count()).toBe(0)
     expect(await page.getByText('Millbrook Motor Works').first().isVisible()).toBe(true)
@@ -115,10 +119,16 @@ describe('a quote from the workshop to the owner\'s phone', () => {
     const count = await lines.count()
     expect(count).toBeGreaterThanOrEqual(4)
     const live = async () => page.locator('[data-owner-live-total]').textContent()
-    // required lines start approved and cannot be declined here
+    // required lines start approved; declining one opens what that means, to tick and sign
     const required = lines.filter({ hasText: 'Required for safety' }).first()
     expect(await required.getByRole('radio', { name: 'Approve' }).getAttribute('aria-checked')).toBe('true')
-    expect(await required.getByRole('radio', { name: 'Decline' }).isDisabled()).toBe(true)
+    const withRequired = await live()
+    await required.getByRole('radio', { name: 'Decline' }).tap()
+    const ack = required.locator('[data-decline-ack]')
+    await ack.waitFor()
+    expect(await ack.textContent()).toContain('We advise you not to drive the vehicle until the work is done.')
+    expect(await live()).not.toBe(withRequired)
+    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390)
     // the total follows the choices
     const advised = lines.filter({ hasText: 'Advised' }).first()
     await advised.getByRole('radio', { name: 'Approve' }).tap()
@@ -126,19 +136,29 @@ describe('a quote from the workshop to the owner\'s phone', () => {
     await advised.getByRole('radio', { name: 'Decline' }).tap()
     expect(await live()).not.toBe(withAdvised)
     // everything else: approve
+    const skip = [await required.getAttribute('data-owner-line'), await advised.getAttribute('data-owner-line')]
     for (let i = 0; i < count; i++) {
       const line = lines.nth(i)
+      if (skip.includes(await line.getAttribute('data-owner-line'))) continue
       if (await line.locator('[role="radio"][aria-checked="true"]').count() === 0) await line.getByRole('radio', { name: 'Approve' }).tap()
     }
-    const approvedTotal = await live()
-    expect(approvedTotal).not.toBe(withAdvised)
-    await page.getByLabel('Type your full name to sign').fill('Morwen Teague')
+    await page.getByLabel('Type your full name to sign', { exact: true }).fill('Morwen Teague')
+    // not signed for the declined safety work yet: refused beside that line, nothing sent
+    await page.getByRole('button', { name: 'Send my decision' }).tap()
+    await required.locator('.field-error').waitFor()
+    expect(await page.locator('[data-decided]').count()).toBe(0)
+    await ack.getByRole('checkbox').check()
+    await ack.getByLabel('Type your full name to sign this').fill('Morwen Teague')
+    pageTotal = (await live()) ?? ''
     await shot(page, 'quote-owner-chosen')
     await page.getByRole('button', { name: 'Send my decision' }).tap()
     await page.locator('[data-decided]').waitFor()
     expect(await page.locator('[data-decided]').textContent()).toMatch(/Thank you, Morwen Teague/)
     expect(await page.getByRole('button', { name: 'Send my decision' }).count()).toBe(0)
-    expect(await page.getByText('You declined this').count()).toBe(1)
+    expect(await page.getByText('You declined this').count()).toBe(2)
+    expect(await page.locator('[data-declined-signed]').textContent()).toContain('signed by Morwen Teague')
+    // the page's total is the server's approved total
+    expect(await page.locator('[data-owner-total]').textContent()).toBe(pageTotal)
     await shot(page, 'quote-owner-decided')
     // read-only after reloading too
     await page.reload()
@@ -147,14 +167,29 @@ describe('a quote from the workshop to the owner\'s phone', () => {
     expect(foreignRequests(requests)).toEqual([])
   })
 
-  it('the garage sees the decision', async () => {
+  it('the garage sees the decision and the signed acknowledgement, and is told at once', async () => {
     const { page } = await signedIn(people.manager)
     await page.goto(quoteUrl)
     await page.locator('[data-status="partly_approved"]').first().waitFor()
-    expect(await page.getByText('Owner declined').count()).toBe(1)
+    expect(await page.getByText('Owner declined').count()).toBe(2)
     expect(await page.getByText(/Approved by Morwen Teague/).count()).toBe(1)
-    await page.locator('[data-total="approved"]').waitFor()
+    const record = page.locator('[data-decline-record]')
+    expect(await record.count()).toBe(1)
+    expect(await record.textContent()).toContain('signed by Morwen Teague')
+    await page.locator('[data-declined-required]').waitFor()
+    expect(await page.locator('[data-total="approved"]').textContent()).toBe(pageTotal)
     await shot(page, 'quote-garage-decided')
-    await waitForMail(people.manager, /partly approved by the owner/)
+    const api = await as(people.manager)
+    const detail = (await api.get(quoteUrl.replace('/quotes/', '/api/quotes/'))).body
+    expect(formatMinor(detail.approvedTotals.grossMinor, 'GBP', 'en-GB')).toBe(pageTotal)
+    await waitForMail(people.manager, /Safety work declined: quote .* partly approved by the owner/)
+    await page.goto('/quotes')
+    await page.locator(`[data-quote="${detail.id}"] [data-declined-required]`).waitFor()
+    // where the manager chooses prices with tax, a price ending and who carries core deposits (looked at, not saved)
+    await page.goto('/garage/settings')
+    await page.getByLabel(/Show and enter prices with tax included/).waitFor()
+    await page.getByLabel('Part prices after markup end in').selectOption('99')
+    expect(await page.getByLabel(/Pass core deposits on to the owner/).isChecked()).toBe(false)
+    await shot(page, 'quote-garage-settings')
   })
 })

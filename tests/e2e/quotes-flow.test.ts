@@ -2,7 +2,7 @@
  * A quote from first line to the owner's decision: prices captured from the prices in use with the garage's tier
  * and markup, core deposits, totals under the one rounding rule, sending with the link and PDF, the owner's
  * decision (which can change neither prices nor lines that were not offered, and cannot decline a required
- * line the garage has not talked through), the garage's e-mail, read-only afterwards, and revisions.
+ * line without the owner's signed acknowledgement), the garage's e-mail, read-only afterwards, and revisions.
  *
  * Reference arithmetic: mathjs BigNumber (decimal.js ROUND_HALF_UP: "if equidistant, rounds away from zero"),
  * a general-purpose library from npm, so the expected figures are not computed by the code under test.
@@ -52,8 +52,10 @@ describe('pricing the lines', () => {
     expect(net).toBe(8_759)
     // its markup for calipers is 25 %: 87.59 x 1.25 = 109.4875 -> 109.49
     expect(part).toMatchObject({ sku: reman.sku, quantity: 2, unitNetMinor: net, markupBp: 2_500, unitPriceMinor: refRound(net, '1.25'), amountMinor: 2 * refRound(net, '1.25'), recommendation: 'required' })
+    // the garage pays the distributor the deposit and gets it back with the old unit: it absorbs it by default,
+    // with no tax (one rule for deposits, as on the counter's invoices)
     const core = lines.find((l) => l.kind === 'core_deposit')!
-    expect(core).toMatchObject({ parentLineId: part.id, quantity: 2, unitPriceMinor: 4_000, amountMinor: 8_000, coreCharge: 'charged' })
+    expect(core).toMatchObject({ parentLineId: part.id, quantity: 2, unitPriceMinor: 4_000, amountMinor: 0, taxBp: 0, taxMinor: 0, coreCharge: 'absorbed' })
   })
 
   it('shows stock and branch, with a warning when the home branch is short', async () => {
@@ -101,11 +103,15 @@ describe('pricing the lines', () => {
     expect((await manager.del(`/api/quotes/${quoteId}/lines/${core.id}`)).status).toBe(409)
   })
 
-  it('lets the manager absorb a core deposit, and moves it with its part\'s quantity', async () => {
+  it('lets the manager pass a core deposit on (no tax on it), and moves it with its part\'s quantity', async () => {
     const core = lines.find((l) => l.kind === 'core_deposit')!
     const part = lines.find((l) => l.kind === 'part')!
+    const passed = await manager.patch(`/api/quotes/${quoteId}/lines/${core.id}`, { coreCharge: 'charged' })
+    expect(passed.body.lines.find((l: Line) => l.id === core.id)).toMatchObject({ amountMinor: 8_000, taxMinor: 0, coreCharge: 'charged' })
     const absorbed = await manager.patch(`/api/quotes/${quoteId}/lines/${core.id}`, { coreCharge: 'absorbed' })
     expect(absorbed.body.lines.find((l: Line) => l.id === core.id)).toMatchObject({ amountMinor: 0, coreCharge: 'absorbed' })
+    // its tax rate is not the garage's to set
+    expect((await manager.patch(`/api/quotes/${quoteId}/lines/${core.id}`, { taxBp: 2000 })).status).toBe(422)
     const charged = await manager.patch(`/api/quotes/${quoteId}/lines/${core.id}`, { coreCharge: 'charged' })
     expect(charged.status).toBe(200)
     const more = await tech.patch(`/api/quotes/${quoteId}/lines/${part.id}`, { quantity: 3 })
@@ -153,7 +159,10 @@ describe('from sending to the owner\'s decision', () => {
     const view = await anon.get(`/api/quote-links/${token}`)
     expect(view.status).toBe(200)
     expect(view.body).toMatchObject({ state: 'open', status: 'sent', ownerName: 'Robin Tester', garage: { name: 'Millbrook Motor Works' } })
-    expect(view.body.lines.map((l: { decidable: boolean; declinable: boolean }) => [l.decidable, l.declinable])).toEqual([[true, false], [true, true], [true, true]])
+    // every line may be declined; the required one only with a signed acknowledgement of the statement shown
+    expect(view.body.lines.map((l: { decidable: boolean; declinable: boolean; needsAcknowledgement: boolean }) => [l.decidable, l.declinable, l.needsAcknowledgement]))
+      .toEqual([[true, true, true], [true, true, false], [true, true, false]])
+    expect(view.body.lines[0].declineStatement).toContain(lines[0]!.description)
     expect(view.text).not.toMatch(/unitNetMinor|markupBp/)
   })
 
@@ -190,12 +199,12 @@ describe('from sending to the owner\'s decision', () => {
     expect((await manager.get(`/api/quotes/${elsewhere.id}`)).body.lines[0].ownerDecision).toBeNull()
   })
 
-  it('cannot decline a required line unless the garage recorded that the owner was told (422 naming it)', async () => {
+  it('cannot decline a required line without the owner\'s signed acknowledgement (422 naming it)', async () => {
     const [p, lab, sun] = lines
     const decline = { lines: [{ id: p!.id, approved: false }, { id: lab!.id, approved: true }, { id: sun!.id, approved: false }], signedName: 'Robin Tester' }
     const r = await anon.post(`/api/quote-links/${token}/decision`, decline)
     expect(r.status).toBe(422)
-    expect(r.body.data.fields['lines.0.approved']).toContain(lines[0]!.description)
+    expect(r.body.data.fields['lines.0.acknowledgement']).toContain(lines[0]!.description)
     expect(r.body.message).toMatch(/safe/)
   })
 
@@ -265,8 +274,8 @@ describe('a sent quote changed by adding a line', () => {
   })
 })
 
-describe('required lines the owner was told about', () => {
-  it('may be declined once a manager has recorded it (without a new revision)', async () => {
+describe('required lines the owner was talked through', () => {
+  it('the manager records it without a new revision; declining still takes the owner\'s signature', async () => {
     const s = await startQuote(manager)
     const withPart = await manager.post(`/api/quotes/${s.quote.id}/lines`, { kind: 'part', sku: pads.sku, recommendation: 'required' })
     const partId = withPart.body.lines[0].id
@@ -275,8 +284,11 @@ describe('required lines the owner was told about', () => {
     expect(told.status).toBe(200)
     expect(told.body).toMatchObject({ id: s.quote.id, status: 'sent' })
     const view = await anon.get(`/api/quote-links/${token}`)
-    expect(view.body.lines[0]).toMatchObject({ recommendation: 'required', declinable: true })
-    const r = await anon.post(`/api/quote-links/${token}/decision`, { lines: [{ id: partId, approved: false }], signedName: 'Robin Tester' })
+    expect(view.body.lines[0]).toMatchObject({ recommendation: 'required', declinable: true, needsAcknowledgement: true })
+    expect((await anon.post(`/api/quote-links/${token}/decision`, { lines: [{ id: partId, approved: false }], signedName: 'Robin Tester' })).status).toBe(422)
+    const r = await anon.post(`/api/quote-links/${token}/decision`, {
+      lines: [{ id: partId, approved: false, acknowledgement: { understood: true, signedName: 'Robin Tester' } }], signedName: 'Robin Tester',
+    })
     expect(r.status).toBe(200)
     expect(r.body.status).toBe('declined')
   })

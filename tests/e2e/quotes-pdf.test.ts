@@ -47,7 +47,8 @@ describe('GET /api/quotes/:id/pdf', () => {
     expect(text).toContain('PD12 FTX')
     expect(text).toContain('Fit caliper and bleed the brakes')
     expect(text).toContain('Required for safety')
-    expect(text).toContain('Refundable deposit')
+    // the garage carries the core deposit unless it passes it on
+    expect(text).toContain('Deposit carried by the garage')
     expect(text).toContain(gbp(quote.totals.netMinor))
     expect(text).toContain(gbp(quote.totals.taxMinor))
     expect(text).toContain(gbp(quote.totals.grossMinor))

@@ -1,6 +1,7 @@
 /**
  * GET /api/garage/settings  -> GarageSettingsView (managers)
- * Labour rate, markup rules, tax rate, quote validity and terms, whether technicians see trade prices (the
+ * Labour rate, markup rules, tax rate and whether prices are shown with it, the part price ending, whether core
+ * deposits are passed on to owners, quote validity and terms, whether technicians see trade prices (the
  * organisation's flag, shared with the catalogue), the logo, and the installation's currency.
  * 401; 403 without `garage.settings`.
  */

@@ -1,7 +1,8 @@
 /**
- * PATCH /api/garage/settings  { labourRateMinor?, markupRules?, taxRateBp?, quoteValidityDays?, quoteTerms?, techniciansSeePrices? }
+ * PATCH /api/garage/settings  { labourRateMinor?, markupRules?, taxRateBp?, pricesIncludeTax?, partPriceEndingMinor?,
+ *   coreDepositsPassedOn?, quoteValidityDays?, quoteTerms?, techniciansSeePrices? }
  * Managers only. New values apply to lines added from now on: lines already on quotes keep the net price,
- * markup, rate and tax they were added with. -> GarageSettingsView.
+ * markup, rate, tax and way of stating it they were added with. -> GarageSettingsView.
  * 401; 422 with `data.fields`; 403 without `garage.settings`.
  */
 import { GarageSettingsUpdateSchema } from '#shared/schemas/quotes'

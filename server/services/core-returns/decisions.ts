@@ -1,7 +1,8 @@
 /**
  * The counter decides a booked core return: accepted returns the deposit (credited on the ledger; for a card
- * order also refunded to the card after the commit), rejected keeps it with the reason. The garage is e-mailed
- * either way.
+ * order also refunded to the card after the commit; on the quote the order came from, the refund due to the
+ * vehicle owner when the garage passed the deposit on), rejected keeps it with the reason. The garage is
+ * e-mailed either way.
  */
 import { Organisation, type User } from '../../models/accounts'
 import { CoreReturn, LedgerEntry, Order, OrderLine } from '../../models/orders'
@@ -14,6 +15,7 @@ import { runAfter, type After } from '../orders/after-commit'
 import { mailCoreReturn } from '../orders/mail'
 import { coreReturnView } from '../orders/views'
 import { issueCoreRefund } from '../payments/refunds'
+import { recordOwnerCoreRefunds } from '../quotes/core-refunds'
 
 export interface Decision { status: 'accepted' | 'rejected'; reason: string }
 
@@ -38,6 +40,8 @@ export async function decideCoreReturn(id: number, decision: Decision, actor: Pi
         organisationId: row.organisationId, orderId: row.orderId, coreReturnId: row.id, kind: 'core_credit', amountMinor: -credit,
         reference: orderReference(row.orderId), description: `Old unit accepted: ${quantity} x ${row.line?.sku ?? ''}`.trim(),
       }, { transaction: t })
+      // a deposit the garage passed on to a vehicle owner is now theirs to get back
+      await recordOwnerCoreRefunds(t, { order: row.order, sku: row.line?.sku ?? '', quantity, actorUserId: actor.id })
       if (row.order.paymentMethod === 'card' && credit > 0) {
         row.refundPending = true
         after.push(() => issueCoreRefund(row.id))

@@ -1,7 +1,8 @@
 /**
  * The quote as the garage's own people see it: every line with stock at the home branch (and where else has
- * enough when it is short), warnings, totals, the revision history; trade prices and markups only for those
- * who may see them (managers; technicians when their garage allows).
+ * enough when it is short), the owner's signed acknowledgement on a declined required line, a core deposit's
+ * refund due to the owner, warnings, totals and tax per rate, the revision history; trade prices and markups
+ * only for those who may see them (managers; technicians when their garage allows).
  */
 import { Op, type Transaction } from 'sequelize'
 import { Branch, User, type Organisation } from '../../models/accounts'
@@ -10,10 +11,12 @@ import { Quote, type QuoteLine } from '../../models/quotes'
 import { vehicleLabel } from '../inspections'
 import { can } from '../../../shared/utils/abilities'
 import { effectiveQuoteStatus } from '../../../shared/utils/quote-states'
-import type { QuoteDetail, QuoteLineView, QuoteSummary, StockNote } from '../../../shared/types/quotes'
+import type { CoreRefundNote, DeclineAcknowledgement, QuoteDetail, QuoteLineView, QuoteSummary, StockNote } from '../../../shared/types/quotes'
+import type { TotalsLine } from '../../../shared/utils/quote-totals'
 import type { Role } from '../../../shared/types/accounts'
 import { quoteReference } from './references'
 import { hoursOf, iso, linesOf, quoteFigures } from './rows'
+import { settingsOf } from './settings'
 
 export interface Viewer { role: Role; org: Organisation }
 
@@ -52,25 +55,38 @@ export async function stockNotes(lines: QuoteLine[], org: Pick<Organisation, 'ho
   return out
 }
 
-export function lineView(l: QuoteLine, showTrade: boolean, stock: StockNote | null, taxMinor: number): QuoteLineView {
+/** What the owner signed when declining a required line, as stored on it. */
+export function acknowledgementOf(l: QuoteLine): DeclineAcknowledgement | null {
+  if (!l.declineSignedName || !l.declineSignedAt) return null
+  return { statement: l.declineStatement ?? '', signedName: l.declineSignedName, signedAt: iso(l.declineSignedAt)!, address: l.declineAddress ?? null }
+}
+
+/** The refund due to the owner on a passed-on core deposit, once the distributor accepted the old unit. */
+export function coreRefundOf(l: QuoteLine): CoreRefundNote | null {
+  return l.coreRefundMinor > 0 && l.coreRefundRecordedAt ? { amountMinor: l.coreRefundMinor, recordedAt: iso(l.coreRefundRecordedAt)! } : null
+}
+
+export function lineView(l: QuoteLine, showTrade: boolean, stock: StockNote | null, figures: TotalsLine): QuoteLineView {
   return {
     id: l.id, position: l.position, kind: l.kind, partId: l.partId ?? null, sku: l.sku ?? null, partType: l.partType ?? null,
     description: l.description, quantity: l.quantity, hours: hoursOf(l), rateMinor: l.rateMinor ?? null,
     unitNetMinor: showTrade ? (l.unitNetMinor ?? null) : null,
     markupBp: showTrade ? (l.markupBp ?? null) : null,
-    unitPriceMinor: l.unitPriceMinor, amountMinor: l.amountMinor, taxBp: l.taxBp, taxMinor,
-    recommendation: l.recommendation ?? null, reason: l.reason ?? null, coreCharge: l.coreCharge ?? null,
+    unitPriceMinor: l.unitPriceMinor, amountMinor: figures.amountMinor, taxBp: figures.taxBp, taxMinor: figures.taxMinor,
+    grossMinor: figures.grossMinor, taxIncluded: !!l.taxIncluded, taxShares: figures.shares,
+    recommendation: l.recommendation ?? null, reason: l.reason ?? null, coreCharge: l.coreCharge ?? null, coreRefund: coreRefundOf(l),
     parentLineId: l.parentLineId ?? null, ownerDecision: l.ownerDecision ?? null,
-    toldOwnerDeclinedRequired: !!l.toldOwnerDeclinedRequired, stock,
+    toldOwnerDeclinedRequired: !!l.toldOwnerDeclinedRequired, declineAcknowledgement: acknowledgementOf(l), stock,
   }
 }
 
-export function quoteSummary(q: Quote, grossMinor: number): QuoteSummary {
+export function quoteSummary(q: Quote, grossMinor: number, lines: QuoteLine[]): QuoteSummary {
   return {
     id: q.id, reference: quoteReference(q), number: q.number, revision: q.revision,
     status: effectiveQuoteStatus(q.status, q.expiresAt ?? null),
     vehicle: q.vehicleLabel || (q.vehicle ? vehicleLabel(q.vehicle) : ''),
     registration: q.registration ?? '', ownerName: q.ownerName, grossMinor,
+    declinedRequired: lines.filter((l) => l.ownerDecision === 'declined' && l.recommendation === 'required').length,
     sentAt: iso(q.sentAt), expiresAt: iso(q.expiresAt), decidedAt: iso(q.decidedAt),
     createdAt: iso(q.createdAt)!, updatedAt: iso(q.updatedAt)!,
   }
@@ -97,14 +113,15 @@ export async function quoteDetail(q: Quote, viewer: Viewer, currency: string, t?
   const lines = await linesOf(q.id, t)
   const showTrade = seesTradePrices(viewer.role, viewer.org)
   const figures = quoteFigures(q, lines)
-  const [stock, revisions, successor, author] = await Promise.all([
+  const [stock, revisions, successor, author, settings] = await Promise.all([
     stockNotes(lines, viewer.org, t),
     Quote.findAll({ where: { organisationId: q.organisationId, number: q.number }, attributes: ['id', 'revision', 'status', 'expiresAt', 'createdAt'], order: [['revision', 'ASC']], transaction: t }),
     Quote.findOne({ where: { supersedesQuoteId: q.id }, attributes: ['id'], transaction: t }),
     User.findByPk(q.createdByUserId, { attributes: ['id', 'name'], transaction: t }),
+    settingsOf(q.organisationId, t),
   ])
   return {
-    ...quoteSummary(q, figures.quoted.grossMinor),
+    ...quoteSummary(q, figures.quoted.grossMinor, lines),
     status: figures.status,
     vehicleId: q.vehicleId ?? null,
     odometer: q.odometer ?? '',
@@ -118,12 +135,14 @@ export async function quoteDetail(q: Quote, viewer: Viewer, currency: string, t?
     decisionIp: q.decisionIp ?? null,
     signedName: q.signedName ?? null,
     createdBy: author?.name ?? '',
-    lines: lines.map((l) => lineView(l, showTrade, stock.get(l.id) ?? null, figures.taxOf.get(l.id) ?? 0)),
+    lines: lines.map((l) => lineView(l, showTrade, stock.get(l.id) ?? null, figures.lineOf(l))),
     totals: figures.totals,
     approvedTotals: figures.approvedTotals,
     taxByRate: figures.quoted.byRate,
+    approvedTaxByRate: figures.approved?.byRate ?? null,
     revisions: revisions.map((r) => ({ id: r.id, revision: r.revision, status: effectiveQuoteStatus(r.status, r.expiresAt ?? null), createdAt: iso(r.createdAt)! })),
     currency,
+    pricesIncludeTax: settings.pricesIncludeTax,
     showsTradePrices: showTrade,
     warnings: warningsFor(lines, stock, figures.quoted.discountCapped),
   }

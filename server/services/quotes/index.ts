@@ -13,7 +13,10 @@
  *  decision.ts          the owner's decision
  *  garage-view.ts       the quote for the garage's people;  owner-view.ts: for the owner
  *  list.ts              the garage's list, paged
- *  pdf.ts, document.ts  the PDF (drawing; with the garage and its logo);  mail.ts: the e-mails
+ *  declined-work.ts     declined safety work with its signed acknowledgements, for a vehicle's history
+ *  core-refunds.ts      a passed-on core deposit's refund to the owner, when the distributor accepts the core
+ *  pdf.ts, pdf-sections.ts, document.ts  the PDF (drawing; totals and decision; with the garage and its logo)
+ *  mail.ts              the e-mails
  */
 export * from './settings'
 export * from './references'
@@ -29,6 +32,9 @@ export * from './decision'
 export * from './garage-view'
 export * from './owner-view'
 export * from './list'
+export * from './declined-work'
+export * from './core-refunds'
 export * from './pdf'
+export * from './pdf-sections'
 export * from './document'
 export * from './mail'

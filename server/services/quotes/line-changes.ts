@@ -11,6 +11,7 @@ import { conflict, notFound } from '../errors'
 import { assertDiscountsFit, assertMayPrice } from './line-pricing'
 import { addLine, changeLine } from './lines'
 import { changeQuote, type QuoteActor } from './revisions'
+import { settingsOf } from './settings'
 
 /** One line of this quote (404 when the id is another quote's). */
 async function lineOf(quote: Pick<Quote, 'id'>, lineId: number): Promise<QuoteLine> {
@@ -33,9 +34,8 @@ export async function addQuoteLine(quote: Quote, actor: QuoteActor, input: Quote
 }
 
 /**
- * Changes one line. Recording alone that the owner was told what declining a required line means applies in
- * place to a quote still with the owner: it changes no price or line, and lets the owner decline that line
- * through the link they have.
+ * Changes one line. Recording alone that the owner was talked through what declining a required line means
+ * applies in place to a quote still with the owner: it changes no price or line, only the garage's record.
  */
 export async function changeQuoteLine(quote: Quote, actor: QuoteActor, lineId: number, input: QuoteLineUpdateInput): Promise<Quote> {
   const line = await lineOf(quote, lineId)
@@ -45,7 +45,7 @@ export async function changeQuoteLine(quote: Quote, actor: QuoteActor, lineId: n
   return changeQuote(quote, actor, 'quote.line.change', async (t, { quote: q, lineIds }) => {
     const row = await QuoteLine.findOne({ where: { id: lineIds?.get(line.id) ?? line.id, quoteId: q.id }, transaction: t })
     if (!row) throw notFound('Quote line')
-    await changeLine(t, row, input, actor.user.id)
+    await changeLine(t, row, input, actor.user.id, await settingsOf(actor.org.id, t))
     await assertDiscountsFit(t, q.id)
     return { result: q, changes: { line: row.id, ...input } }
   }, { inPlace })
@@ -55,7 +55,7 @@ export async function changeQuoteLine(quote: Quote, actor: QuoteActor, lineId: n
 export async function removeQuoteLine(quote: Quote, actor: QuoteActor, lineId: number): Promise<Quote> {
   const line = await lineOf(quote, lineId)
   if (line.kind === 'core_deposit') {
-    throw conflict('A core deposit goes with its part: remove the part, or mark the deposit as absorbed by the garage.')
+    throw conflict('A core deposit goes with its part: remove the part, or leave the deposit absorbed by the garage.')
   }
   return changeQuote(quote, actor, 'quote.line.remove', async (t, { quote: q, lineIds }) => {
     const id = lineIds?.get(line.id) ?? line.id

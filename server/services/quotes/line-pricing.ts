@@ -19,7 +19,7 @@ export function refusedInput(fields: Record<string, string>): DomainError {
   return invalidInput(fields, Object.values(fields)[0])
 }
 
-/** Works out a line's unit price and amount from what is stored. */
+/** Works out a line's unit price and amount, as stated (before tax, or with tax when `taxIncluded`), from what is stored. */
 export function repriceLine(l: QuoteLine): void {
   switch (l.kind) {
     case 'part':
@@ -27,6 +27,8 @@ export function repriceLine(l: QuoteLine): void {
       l.amountMinor = l.unitPriceMinor * l.quantity
       break
     case 'core_deposit':
+      // a deposit carries no tax, so it reads the same either way: keep it stated before tax
+      l.taxIncluded = false
       l.unitPriceMinor = l.unitNetMinor ?? 0
       l.amountMinor = l.coreCharge === 'absorbed' ? 0 : l.unitPriceMinor * l.quantity
       break
@@ -68,19 +70,19 @@ export async function resolvePart(t: Transaction, org: Organisation, sku: string
 /** Refuses discounts larger than the rest of the quote (checked after every change to a line). */
 export async function assertDiscountsFit(t: Transaction, quoteId: number): Promise<void> {
   const lines = await linesOf(quoteId, t)
-  if (quoteTotals(totalsInput(lines, 'quoted')).discountCapped) {
+  if (quoteTotals(totalsInput(lines)).discountCapped) {
     throw refusedInput({ amountMinor: 'The discounts would be larger than the rest of the quote.' })
   }
 }
 
 /** The fields of a line that set what the owner pays. */
-const PRICING_FIELDS = ['unitPriceMinor', 'markupBp', 'rateMinor', 'taxBp', 'amountMinor', 'coreCharge'] as const
+const PRICING_FIELDS = ['unitPriceMinor', 'markupBp', 'rateMinor', 'taxBp', 'taxIncluded', 'amountMinor', 'coreCharge'] as const
 type PricingChange = Partial<Record<(typeof PRICING_FIELDS)[number] | 'kind' | 'toldOwnerDeclinedRequired', unknown>>
 
 /**
- * 403 when a role without `quotes.price` gives a discount or sets a price, markup, rate, tax rate or sundry
- * price, and when one without `quotes.send` records what the owner was told about a required line (that lets
- * the owner decline it through the link they already have).
+ * 403 when a role without `quotes.price` gives a discount or sets a price, markup, rate, tax rate, whether a
+ * price includes tax, a sundry price or who carries a core deposit, and when one without `quotes.send` records
+ * what the owner was told about a required line.
  */
 export function assertMayPrice(role: Role, change: PricingChange, what = 'set prices, markups, rates or tax'): void {
   if (!can(role, 'quotes.price')) {

@@ -1,17 +1,20 @@
 /**
  * Writing lines, inside the caller's write transaction: adding one (a part captures its net price and the
- * garage's markup now, and brings its core deposit), and changing one field by field as its kind allows (a
- * part's core deposit follows its quantity). Prices are worked out by repriceLine, never taken from the input.
+ * garage's markup now, stated with tax when the garage shows prices so, moved to its price ending, and brings its
+ * core deposit: absorbed by the garage unless it passes deposits on), and changing one field by field as its
+ * kind allows (a part's core deposit follows its quantity). Amounts are worked out by repriceLine.
  */
 import type { CreationAttributes, Transaction } from 'sequelize'
 import type { Organisation } from '../../models/accounts'
 import { QuoteLine, type Quote } from '../../models/quotes'
 import { markupBpFor } from '../../../shared/utils/quote-markup'
-import { hoursToHundredths, sellingUnitMinor } from '../../../shared/utils/quote-totals'
+import {
+  CORE_DEPOSIT_TAX_BP, hoursToHundredths, lineFigures, restatedMinor, sellingUnitMinor, withPriceEnding,
+} from '../../../shared/utils/quote-totals'
 import { divRoundHalfUp } from '../../../shared/utils/money'
 import type { Recommendation } from '../../../shared/types/quotes'
 import { refusedInput, repriceLine, resolvePart } from './line-pricing'
-import { settingsOf } from './settings'
+import { settingsOf, type EffectiveSettings } from './settings'
 
 export interface NewLine {
   kind: 'part' | 'labour' | 'sundry' | 'discount'
@@ -25,6 +28,18 @@ export interface NewLine {
   markupBp?: number
   rateMinor?: number
   taxBp?: number
+  /** the amounts given and worked out include tax; default: the garage's setting */
+  taxIncluded?: boolean
+}
+
+/** An amount stated one way, stated the way a line wants it (the price stays the same to the minor unit). */
+function statedAs(amountMinor: number, includesTax: boolean, wantTax: boolean, taxBp: number): number {
+  return includesTax === wantTax ? amountMinor : restatedMinor(amountMinor, taxBp, wantTax)
+}
+
+/** A part's selling price per unit from its net price and markup, as the line states it, on the garage's ending. */
+function partUnitMinor(unitNetMinor: number, markupBp: number, line: { taxIncluded: boolean; taxBp: number }, endingMinor: number | null): number {
+  return withPriceEnding(sellingUnitMinor(unitNetMinor, markupBp, line.taxIncluded ? line.taxBp : null), endingMinor)
 }
 
 async function saveLine(t: Transaction, attributes: CreationAttributes<QuoteLine>): Promise<QuoteLine> {
@@ -43,7 +58,8 @@ export async function addLine(t: Transaction, q: Quote, org: Organisation, input
   const settings = await settingsOf(org.id, t)
   const position = await nextPosition(t, q.id)
   const taxBp = input.taxBp ?? settings.taxRateBp
-  const base = { quoteId: q.id, position, taxBp, recommendation: input.recommendation ?? null, reason: input.reason ?? null }
+  const taxIncluded = input.taxIncluded ?? settings.pricesIncludeTax
+  const base = { quoteId: q.id, position, taxBp, taxIncluded, recommendation: input.recommendation ?? null, reason: input.reason ?? null }
   switch (input.kind) {
     case 'part': {
       const r = await resolvePart(t, org, input.sku!)
@@ -52,20 +68,23 @@ export async function addLine(t: Transaction, q: Quote, org: Organisation, input
       const part = { partId: r.part.id, sku: r.part.sku, partType: r.part.type }
       const line = await saveLine(t, {
         ...base, ...part, kind: 'part', description: input.description || r.part.description, quantity,
-        unitNetMinor: r.unitNetMinor, markupBp, unitPriceMinor: sellingUnitMinor(r.unitNetMinor, markupBp),
+        unitNetMinor: r.unitNetMinor, markupBp, unitPriceMinor: partUnitMinor(r.unitNetMinor, markupBp, base, settings.partPriceEndingMinor),
       })
       if (r.coreDepositMinor <= 0) return [line]
+      // the garage pays the distributor the deposit and is refunded when the old unit goes back: it absorbs the
+      // deposit unless it chooses to pass it on
       const core = await saveLine(t, {
-        quoteId: q.id, position, taxBp, ...part, kind: 'core_deposit', parentLineId: line.id,
-        description: `Core deposit for ${r.part.sku} (refunded when the old unit goes back)`,
-        quantity, unitNetMinor: r.coreDepositMinor, coreCharge: 'charged',
+        quoteId: q.id, position, taxBp: CORE_DEPOSIT_TAX_BP, taxIncluded: false, ...part, kind: 'core_deposit', parentLineId: line.id,
+        description: `Core deposit for ${r.part.sku}`, quantity, unitNetMinor: r.coreDepositMinor,
+        coreCharge: settings.coreDepositsPassedOn ? 'charged' : 'absorbed',
       })
       return [line, core]
     }
     case 'labour':
       return [await saveLine(t, {
         ...base, kind: 'labour', description: input.description || 'Labour',
-        hoursHundredths: hoursToHundredths(input.hours!)!, rateMinor: input.rateMinor ?? settings.labourRateMinor,
+        hoursHundredths: hoursToHundredths(input.hours!)!,
+        rateMinor: input.rateMinor ?? statedAs(settings.labourRateMinor, settings.pricesIncludeTax, taxIncluded, settings.taxRateBp),
       })]
     case 'sundry':
       return [await saveLine(t, {
@@ -88,17 +107,19 @@ export interface LineChange {
   markupBp?: number
   rateMinor?: number
   taxBp?: number
+  taxIncluded?: boolean
   coreCharge?: 'charged' | 'absorbed'
   toldOwnerDeclinedRequired?: boolean
   position?: number
 }
 
+// a core deposit carries no tax (rule 4 of shared/utils/quote-totals.ts): its rate is not the garage's to set
 const FIELDS_BY_KIND: Record<QuoteLine['kind'], (keyof LineChange)[]> = {
-  part: ['quantity', 'description', 'recommendation', 'unitPriceMinor', 'markupBp', 'taxBp', 'toldOwnerDeclinedRequired', 'position'],
-  core_deposit: ['coreCharge', 'taxBp'],
-  labour: ['description', 'hours', 'rateMinor', 'recommendation', 'taxBp', 'toldOwnerDeclinedRequired', 'position'],
-  sundry: ['quantity', 'description', 'amountMinor', 'recommendation', 'taxBp', 'toldOwnerDeclinedRequired', 'position'],
-  discount: ['description', 'amountMinor', 'taxBp', 'position'],
+  part: ['quantity', 'description', 'recommendation', 'unitPriceMinor', 'markupBp', 'taxBp', 'taxIncluded', 'toldOwnerDeclinedRequired', 'position'],
+  core_deposit: ['coreCharge'],
+  labour: ['description', 'hours', 'rateMinor', 'recommendation', 'taxBp', 'taxIncluded', 'toldOwnerDeclinedRequired', 'position'],
+  sundry: ['quantity', 'description', 'amountMinor', 'recommendation', 'taxBp', 'taxIncluded', 'toldOwnerDeclinedRequired', 'position'],
+  discount: ['description', 'amountMinor', 'taxBp', 'taxIncluded', 'position'],
 }
 
 /** 422 naming each field the line's kind does not have. */
@@ -110,9 +131,38 @@ function assertFieldsFit(line: QuoteLine, change: LineChange): void {
   }
 }
 
-/** Applies a change to one line (its core deposit follows a part's quantity). */
-export async function changeLine(t: Transaction, line: QuoteLine, change: LineChange, actorUserId: number): Promise<void> {
+/**
+ * Switches how a line states its price (with tax or before it). Without a new price in the same change the
+ * price is restated at the line's current rate, so it stays what it was to the minor unit.
+ */
+function restateLine(line: QuoteLine, change: LineChange): void {
+  if (change.taxIncluded === undefined || change.taxIncluded === !!line.taxIncluded) return
+  const priced = [change.unitPriceMinor, change.amountMinor, change.rateMinor, change.markupBp].some((v) => v !== undefined)
+  if (!priced) {
+    if (line.kind === 'labour') line.rateMinor = restatedMinor(line.rateMinor ?? 0, line.taxBp, change.taxIncluded)
+    else line.unitPriceMinor = restatedMinor(line.unitPriceMinor, line.taxBp, change.taxIncluded)
+  }
+  line.taxIncluded = change.taxIncluded
+}
+
+/** The markup a typed selling price amounts to, for the manager's eye (the price itself is what counts). */
+function markupOfPrice(line: QuoteLine): number | null {
+  const cost = (line.unitNetMinor ?? 0) * line.quantity
+  if (!cost) return null
+  const net = lineFigures(line.unitPriceMinor * line.quantity, line.taxBp, !!line.taxIncluded).netMinor
+  return divRoundHalfUp((net - cost) * 10_000, cost)
+}
+
+/**
+ * Applies a change to one line (its core deposit follows a part's quantity). A new markup gives the part's
+ * price on the garage's price ending (`pricing`); a price typed by the manager is kept as typed.
+ */
+export async function changeLine(
+  t: Transaction, line: QuoteLine, change: LineChange, actorUserId: number,
+  pricing: Pick<EffectiveSettings, 'partPriceEndingMinor'> = { partPriceEndingMinor: null },
+): Promise<void> {
   assertFieldsFit(line, change)
+  restateLine(line, change)
   if (change.quantity !== undefined) line.quantity = change.quantity
   if (change.description !== undefined) line.description = change.description
   if (change.hours !== undefined) line.hoursHundredths = hoursToHundredths(change.hours)
@@ -125,12 +175,11 @@ export async function changeLine(t: Transaction, line: QuoteLine, change: LineCh
   if (line.kind === 'discount' && change.amountMinor === 0) throw refusedInput({ amountMinor: 'A discount is more than 0.' })
   if (change.markupBp !== undefined) {
     line.markupBp = change.markupBp
-    line.unitPriceMinor = sellingUnitMinor(line.unitNetMinor ?? 0, change.markupBp)
+    line.unitPriceMinor = partUnitMinor(line.unitNetMinor ?? 0, change.markupBp, { taxIncluded: !!line.taxIncluded, taxBp: line.taxBp }, pricing.partPriceEndingMinor)
   }
   if (change.unitPriceMinor !== undefined) {
     line.unitPriceMinor = change.unitPriceMinor
-    // the markup this price amounts to, for the manager's eye (the price itself is what counts)
-    line.markupBp = line.unitNetMinor ? divRoundHalfUp((change.unitPriceMinor - line.unitNetMinor) * 10_000, line.unitNetMinor) : null
+    line.markupBp = markupOfPrice(line)
   }
   if (change.toldOwnerDeclinedRequired !== undefined) {
     line.toldOwnerDeclinedRequired = change.toldOwnerDeclinedRequired

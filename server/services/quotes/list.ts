@@ -27,10 +27,13 @@ function whereOf(organisationId: number, query: QuoteListQuery): WhereOptions {
   return where
 }
 
-/** Each quote with its gross total as quoted. */
+/** Each quote with its gross total as quoted and how many required lines the owner declined. */
 async function summaries(rows: Quote[]): Promise<QuoteSummary[]> {
   const lines = rows.length ? await QuoteLine.findAll({ where: { quoteId: { [Op.in]: rows.map((r) => r.id) } } }) : []
-  return rows.map((q) => quoteSummary(q, quoteTotals(totalsInput(lines.filter((l) => l.quoteId === q.id), 'quoted')).grossMinor))
+  return rows.map((q) => {
+    const own = lines.filter((l) => l.quoteId === q.id)
+    return quoteSummary(q, quoteTotals(totalsInput(own)).grossMinor, own)
+  })
 }
 
 /** One page of the garage's quotes; sent quotes past their validity are marked expired first. */

@@ -1,6 +1,6 @@
 /**
  * The quote's e-mails, sent after the commit (a failed send is reported, never rolls anything back): to the
- * owner, the link and the PDF; to the garage, the owner's decision line by line.
+ * owner, the link and the PDF; to the garage, the owner's decision line by line, declined safety work first.
  */
 import { Organisation, User } from '../../models/accounts'
 import type { Quote } from '../../models/quotes'
@@ -43,23 +43,41 @@ export async function mailQuoteToOwner(q: Quote, token: string, out: QuoteOutput
 
 const OUTCOME_WORDS: Record<string, string> = { approved: 'approved', partly_approved: 'partly approved', declined: 'declined' }
 
-/** Tells the garage the owner has decided (the person who sent it and the garage's own address). */
-export async function mailDecisionToGarage(q: Quote, out: QuoteOutput): Promise<boolean> {
-  const [org, sender, view] = await Promise.all([
-    Organisation.findByPk(q.organisationId),
+/** Who hears of a decision: the person who sent the quote, the garage's own address and, for declined safety work, every manager. */
+async function decisionRecipients(q: Quote, org: Organisation | null, everyManager: boolean): Promise<string[]> {
+  const [sender, managers] = await Promise.all([
     q.sentByUserId ? User.findByPk(q.sentByUserId) : null,
-    ownerView(q, out.formats.currency),
+    everyManager ? User.findAll({ where: { organisationId: q.organisationId, role: 'garage_manager', status: 'active' } }) : [],
   ])
-  const to = [...new Set([sender?.email, org?.email].filter((e): e is string => !!e))]
+  return [...new Set([sender?.email, org?.email, ...managers.map((m) => m.email)].filter((e): e is string => !!e))]
+}
+
+/**
+ * Tells the garage the owner has decided, at once (after the commit). Required lines the owner declined come
+ * first, in the subject too, with what the owner signed: then every manager hears of it.
+ */
+export async function mailDecisionToGarage(q: Quote, out: QuoteOutput): Promise<boolean> {
+  const [org, view] = await Promise.all([Organisation.findByPk(q.organisationId), ownerView(q, out.formats.currency)])
+  const { money, moment } = out.formats
+  const unsafe = view.lines.filter((l) => l.decidable && l.needsAcknowledgement && l.ownerDecision === 'declined')
+  const to = await decisionRecipients(q, org, unsafe.length > 0)
   if (!to.length) return false
-  const { money } = out.formats
   const outcome = OUTCOME_WORDS[q.status] ?? q.status
-  const lines = view.lines.filter((l) => l.decidable).map((l) => `  ${l.ownerDecision === 'approved' ? 'approved' : 'declined'}  ${l.description}  ${money(l.amountMinor)}`)
+  const lines = view.lines.filter((l) => l.decidable).map((l) => `  ${l.ownerDecision === 'approved' ? 'approved' : 'declined'}  ${l.description}  ${money(l.grossMinor)} incl. tax`)
+  const declined = unsafe.flatMap((l) => [
+    `  ${l.description}`,
+    `    signed by ${l.declineAcknowledgement?.signedName ?? view.signedName} on ${moment(l.declineAcknowledgement?.signedAt)}${l.declineAcknowledgement?.address ? ` from ${l.declineAcknowledgement.address}` : ''}`,
+  ])
   return out.sendMail({
     to,
-    subject: `Quote ${quoteReference(q)}${plate(q)} ${outcome} by the owner`,
+    subject: unsafe.length
+      ? `Safety work declined: quote ${quoteReference(q)}${plate(q)} ${outcome} by the owner`
+      : `Quote ${quoteReference(q)}${plate(q)} ${outcome} by the owner`,
     text: [
       `${q.signedName ?? q.ownerName} ${outcome} quote ${quoteReference(q)} for ${view.vehicle}${plate(q)}.`,
+      ...(unsafe.length
+        ? ['', `The owner declined ${unsafe.length === 1 ? 'a line' : `${unsafe.length} lines`} marked required for safety, and signed that they were told what it means:`, ...declined]
+        : []),
       '',
       ...lines,
       '',

@@ -1,11 +1,15 @@
 /**
  * What the vehicle owner sees through the link: this quote and the garage's name and contact, nothing else
- * (no trade prices, markups, the owner's own contact details or the garage's ids).
+ * (no trade prices, markups, the owner's own contact details or the garage's ids). Lines and totals carry the
+ * same figures as the garage's view and the PDF (one money rule), tax per rate included.
  */
 import type { Transaction } from 'sequelize'
 import { Organisation } from '../../models/accounts'
-import type { Quote } from '../../models/quotes'
-import type { OwnerQuoteView } from '../../../shared/types/quotes'
+import type { Quote, QuoteLine } from '../../models/quotes'
+import type { OwnerQuoteLine, OwnerQuoteView } from '../../../shared/types/quotes'
+import { formatBp, type TotalsLine } from '../../../shared/utils/quote-totals'
+import { declineStatement } from '../../../shared/utils/quote-declines'
+import { acknowledgementOf, coreRefundOf } from './garage-view'
 import { quoteReference } from './references'
 import { hoursOf, iso, isDecidable, isDecided, linesOf, quoteFigures } from './rows'
 import { settingsOf } from './settings'
@@ -16,8 +20,9 @@ export async function ownerView(q: Quote, currency: string, t?: Transaction): Pr
     Organisation.findByPk(q.organisationId, { attributes: ['id', 'name', 'phone', 'email'], transaction: t }),
     settingsOf(q.organisationId, t),
   ])
-  const { status, taxOf, totals, approvedTotals } = quoteFigures(q, lines)
-  const rates = [...new Set(lines.map((l) => l.taxBp))]
+  const { status, lineOf, totals, approvedTotals, quoted, approved } = quoteFigures(q, lines)
+  // a deposit's 0 % is not a rate the owner pays: name the one rate when there is one
+  const rates = quoted.byRate.map((r) => r.taxBp).filter((bp) => bp > 0)
   return {
     state: status === 'superseded' ? 'superseded' : isDecided(status) ? 'decided' : 'open',
     garage: { name: org?.name ?? '', phone: org?.phone ?? '', email: org?.email ?? '', hasLogo: !!settings.logoFile },
@@ -28,21 +33,35 @@ export async function ownerView(q: Quote, currency: string, t?: Transaction): Pr
     odometer: q.odometer ?? '',
     ownerName: q.ownerName,
     sentAt: iso(q.sentAt), expiresAt: iso(q.expiresAt), decidedAt: iso(q.decidedAt), signedName: q.signedName ?? null,
+    decisionAddress: q.decisionIp ?? null,
     findings: q.findings ?? [],
     messageToOwner: q.messageToOwner ?? '',
     terms: settings.quoteTerms,
-    lines: lines.map((l) => ({
-      id: l.id, kind: l.kind, description: l.description, quantity: l.quantity, hours: hoursOf(l),
-      unitPriceMinor: l.unitPriceMinor, amountMinor: l.amountMinor, taxBp: l.taxBp, taxMinor: taxOf.get(l.id) ?? 0,
-      recommendation: l.recommendation ?? null, reason: l.reason ?? null, coreCharge: l.coreCharge ?? null,
-      parentLineId: l.parentLineId ?? null,
-      decidable: isDecidable(l),
-      declinable: isDecidable(l) && !(l.recommendation === 'required' && !l.toldOwnerDeclinedRequired),
-      ownerDecision: l.ownerDecision ?? null,
-    })),
+    lines: lines.map((l) => ownerLine(l, lineOf(l))),
     totals,
     approvedTotals,
+    taxByRate: quoted.byRate,
+    approvedTaxByRate: approved?.byRate ?? null,
     currency,
-    taxLabel: rates.length === 1 ? `Tax at ${rates[0]! / 100} %` : 'Tax',
+    taxLabel: rates.length === 1 ? `Tax at ${formatBp(rates[0]!)}` : 'Tax',
+  }
+}
+
+/** One line for the owner: no trade price, markup or stock; for a required line, what declining it means. */
+function ownerLine(l: QuoteLine, f: TotalsLine): OwnerQuoteLine {
+  const decidable = isDecidable(l)
+  const needsAcknowledgement = decidable && l.recommendation === 'required'
+  return {
+    id: l.id, kind: l.kind, description: l.description, quantity: l.quantity, hours: hoursOf(l),
+    unitPriceMinor: l.unitPriceMinor, amountMinor: f.amountMinor, taxBp: f.taxBp, taxMinor: f.taxMinor, grossMinor: f.grossMinor,
+    taxIncluded: !!l.taxIncluded, taxShares: f.shares,
+    recommendation: l.recommendation ?? null, reason: l.reason ?? null, coreCharge: l.coreCharge ?? null, coreRefund: coreRefundOf(l),
+    parentLineId: l.parentLineId ?? null,
+    decidable,
+    declinable: decidable,
+    needsAcknowledgement,
+    declineStatement: needsAcknowledgement ? declineStatement(l) : null,
+    declineAcknowledgement: acknowledgementOf(l),
+    ownerDecision: l.ownerDecision ?? null,
   }
 }

@@ -1,15 +1,17 @@
 /**
  * Drawing the quote as a PDF (pdfkit) from the same view the owner's page uses: garage header and logo,
- * vehicle, findings, lines, tax, totals, validity, terms and the safety caution. The fonts (pdfFonts()) and the
- * formats (serverFormats()) are passed in, so this stays plain Node.
+ * vehicle, findings, lines (before tax, rate, with tax), totals with tax per rate, the owner's decision with any
+ * declined safety work and what was signed for it (pdf-sections.ts), validity, terms and the safety caution.
+ * The fonts (pdfFonts()) and the formats (serverFormats()) are passed in, so this stays plain Node.
  */
 import { formatsFor, type Formats } from '../../../shared/utils/format'
 import { formatBp } from '../../../shared/utils/quote-totals'
 import { QUOTE_STATUS_LABELS } from '../../../shared/utils/quote-states'
-import { FINDING_WORDS, QUOTE_SAFETY_CAUTION, RECOMMENDATION_WORDS } from '../../../shared/utils/quote-wording'
+import { FINDING_WORDS, QUOTE_SAFETY_CAUTION } from '../../../shared/utils/quote-wording'
 import type { OwnerQuoteView } from '../../../shared/types/quotes'
 import { drawSvgLogo } from '../svg-to-pdf'
 import { newPdf, PDF_COLOURS, type PdfFonts } from '../pdf/document'
+import { drawDecision, drawTotals, lineLabels } from './pdf-sections'
 
 export type { PdfFonts }
 export interface PdfGarage { name: string; address: string; phone: string; email: string; taxNumber: string }
@@ -19,9 +21,10 @@ const { ink: INK, soft: SOFT, line: LINE, accent: ACCENT, fail: FAIL } = PDF_COL
 
 /** Renders the quote; resolves with the PDF bytes. Money in the view's currency, dates as `formats` writes them. */
 export function renderQuotePdf(view: OwnerQuoteView, garage: PdfGarage, fonts: PdfFonts, logo: PdfLogo | null, formats: Formats = formatsFor()): Promise<Buffer> {
-  const { money, day: date } = formatsFor({ currency: view.currency, locale: formats.locale, timeZone: formats.timeZone })
+  const f = formatsFor({ currency: view.currency, locale: formats.locale, timeZone: formats.timeZone })
+  const { money, day: date } = f
   const page = newPdf(fonts, { title: `Quote ${view.reference} from ${garage.name}`, author: garage.name, subject: view.vehicle })
-  const { doc, left, width, ensure, heading, totalRow } = page
+  const { doc, left, width, ensure, heading } = page
   const bottom = () => doc.page.height - doc.page.margins.bottom - 24
 
   // header: logo and garage on the left, the quote on the right
@@ -74,24 +77,22 @@ export function renderQuotePdf(view: OwnerQuoteView, garage: PdfGarage, fonts: P
 
   // lines
   heading('The work')
-  const cols = { desc: left, qty: left + width - 250, unit: left + width - 190, amount: left + width - 110, tax: left + width - 45 }
+  const cols = { desc: left, qty: left + width - 275, unit: left + width - 235, amount: left + width - 165, tax: left + width - 100, gross: left + width - 60 }
   const head = () => {
     doc.font('bold').fontSize(8).fillColor(SOFT)
     const y = doc.y
     doc.text('Description', cols.desc, y, { width: cols.qty - cols.desc - 8 })
-    doc.text('Qty', cols.qty, y, { width: 50, align: 'right' })
-    doc.text('Unit', cols.unit, y, { width: 70, align: 'right' })
-    doc.text('Amount', cols.amount, y, { width: 60, align: 'right' })
-    doc.text('Tax', cols.tax, y, { width: 45, align: 'right' })
+    doc.text('Qty', cols.qty, y, { width: 36, align: 'right' })
+    doc.text('Unit', cols.unit, y, { width: 66, align: 'right' })
+    doc.text('Before tax', cols.amount, y, { width: 62, align: 'right' })
+    doc.text('Tax', cols.tax, y, { width: 36, align: 'right' })
+    doc.text('With tax', cols.gross, y, { width: 60, align: 'right' })
     doc.moveDown(0.4)
   }
   head()
   const decided = view.state === 'decided'
   for (const l of view.lines) {
-    const labels: string[] = []
-    if (l.recommendation) labels.push(RECOMMENDATION_WORDS[l.recommendation])
-    if (l.kind === 'core_deposit') labels.push(l.coreCharge === 'absorbed' ? 'Deposit paid by the garage' : 'Refundable deposit')
-    if (decided && l.decidable) labels.push(l.ownerDecision === 'approved' ? 'Approved' : 'Declined')
+    const labels = lineLabels(l, decided, money, date)
     const descWidth = cols.qty - cols.desc - 8
     doc.font('body').fontSize(9)
     const h = doc.heightOfString(l.description, { width: descWidth }) + (labels.length ? 11 : 0) + (l.reason ? doc.heightOfString(l.reason, { width: descWidth }) : 0) + 6
@@ -105,26 +106,23 @@ export function renderQuotePdf(view: OwnerQuoteView, garage: PdfGarage, fonts: P
     const endY = doc.y
     doc.font('body').fontSize(9).fillColor(INK)
     const qty = l.kind === 'labour' ? `${l.hours} h` : l.kind === 'discount' ? '' : String(l.quantity)
-    doc.text(qty, cols.qty, y, { width: 50, align: 'right' })
-    doc.text(l.kind === 'discount' ? '' : money(l.unitPriceMinor), cols.unit, y, { width: 70, align: 'right' })
-    doc.text(money(l.amountMinor), cols.amount, y, { width: 60, align: 'right' })
-    doc.fillColor(SOFT).text(formatBp(l.taxBp), cols.tax, y, { width: 45, align: 'right' })
+    doc.text(qty, cols.qty, y, { width: 36, align: 'right' })
+    doc.text(l.kind === 'discount' ? '' : `${money(l.unitPriceMinor)}${l.taxIncluded ? '*' : ''}`, cols.unit, y, { width: 66, align: 'right' })
+    doc.text(money(l.amountMinor), cols.amount, y, { width: 62, align: 'right' })
+    doc.fillColor(SOFT).text(l.taxShares.length > 1 ? 'split' : formatBp(l.taxBp), cols.tax, y, { width: 36, align: 'right' })
+    doc.fillColor(INK).text(money(l.grossMinor), cols.gross, y, { width: 60, align: 'right' })
     doc.y = Math.max(endY, doc.y) + 4
     doc.moveTo(left, doc.y - 2).lineTo(left + width, doc.y - 2).lineWidth(0.3).strokeColor(LINE).stroke()
   }
-
-  // totals
-  doc.moveDown(0.6)
-  totalRow('Total before tax', money(view.totals.netMinor))
-  totalRow(view.taxLabel, money(view.totals.taxMinor))
-  totalRow('Total to pay', money(view.totals.grossMinor), true)
-  if (view.approvedTotals) {
-    doc.moveDown(0.4)
-    totalRow(`Approved by ${view.signedName ?? 'the owner'} on ${date(view.decidedAt)}`, '')
-    totalRow('Approved before tax', money(view.approvedTotals.netMinor))
-    totalRow('Tax on approved work', money(view.approvedTotals.taxMinor))
-    totalRow('Approved total', money(view.approvedTotals.grossMinor), true)
+  if (view.lines.some((l) => l.taxIncluded)) {
+    doc.font('body').fontSize(7.5).fillColor(SOFT).text('* price stated with tax included', left, doc.y, { width })
   }
+  if (view.lines.some((l) => l.taxShares.length > 1)) {
+    doc.font('body').fontSize(7.5).fillColor(SOFT).text('A discount is split across the tax rates of the work it is taken off, in proportion to it.', left, doc.y, { width })
+  }
+
+  drawTotals(page, view, money)
+  drawDecision(page, view, f)
   doc.x = left
 
   heading('Validity and terms')

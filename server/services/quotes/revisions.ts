@@ -1,7 +1,8 @@
 /**
  * Which quote a change applies to. A draft changes in place; a quote that has left draft is never changed: the
- * change goes into a new revision (same number, revision + 1, lines copied without the owner's decisions) and
- * the old one is kept as superseded, so its link stops offering a choice. Superseded revisions are final.
+ * change goes into a new revision (same number, revision + 1, lines copied without the owner's decisions or
+ * their signed acknowledgements) and the old one is kept as superseded, so its link stops offering a choice.
+ * Superseded revisions are final.
  */
 import type { Transaction } from 'sequelize'
 import type { Organisation } from '../../models/accounts'
@@ -9,6 +10,7 @@ import { Quote, QuoteLine } from '../../models/quotes'
 import { withWrite } from '../../utils/db'
 import { audit } from '../../utils/audit'
 import { effectiveQuoteStatus, nextQuoteStatus, quoteEditMode } from '../../../shared/utils/quote-states'
+import { CORE_DEPOSIT_TAX_BP } from '../../../shared/utils/quote-totals'
 import type { Role } from '../../../shared/types/accounts'
 import { conflict } from '../errors'
 import { linesOf } from './rows'
@@ -45,7 +47,9 @@ export async function reviseQuote(t: Transaction, old: Quote, actorUserId: numbe
       parentLineId: l.parentLineId ? (lineIds.get(l.parentLineId) ?? null) : null,
       partId: l.partId, sku: l.sku, partType: l.partType, description: l.description, quantity: l.quantity,
       hoursHundredths: l.hoursHundredths, rateMinor: l.rateMinor, unitNetMinor: l.unitNetMinor, markupBp: l.markupBp,
-      unitPriceMinor: l.unitPriceMinor, amountMinor: l.amountMinor, taxBp: l.taxBp, recommendation: l.recommendation,
+      // a new revision is a new document: its core deposits come under the one rule for deposits (no tax)
+      unitPriceMinor: l.unitPriceMinor, amountMinor: l.amountMinor, taxBp: l.kind === 'core_deposit' ? CORE_DEPOSIT_TAX_BP : l.taxBp,
+      taxIncluded: l.taxIncluded, recommendation: l.recommendation,
       reason: l.reason, coreCharge: l.coreCharge, ownerDecision: null,
       toldOwnerDeclinedRequired: l.toldOwnerDeclinedRequired, toldOwnerRecordedByUserId: l.toldOwnerRecordedByUserId,
       toldOwnerRecordedAt: l.toldOwnerRecordedAt,

@@ -7,7 +7,9 @@ import { Op, type Transaction } from 'sequelize'
 import { Quote, QuoteLine } from '../../models/quotes'
 import { withWrite } from '../../utils/db'
 import { effectiveQuoteStatus, type QuoteStatus } from '../../../shared/utils/quote-states'
-import { quoteTotals, type TotalsLineInput } from '../../../shared/utils/quote-totals'
+import {
+  chosenTotals, lineFigures, quoteTotals, type ChoosableLine, type Totals, type TotalsDetail, type TotalsLine, type TotalsLineInput,
+} from '../../../shared/utils/quote-totals'
 
 /** A garage's quote by id, or null when it does not exist or is another garage's. */
 export function findQuoteOf(organisationId: number, id: number, t?: Transaction): Promise<Quote | null> {
@@ -47,18 +49,20 @@ export function isDecidable(line: Pick<QuoteLine, 'kind'>): boolean {
   return line.kind === 'part' || line.kind === 'labour' || line.kind === 'sundry'
 }
 
-/** Whether a line counts in the approved totals, given the owner's decisions. */
-function approvedIncluded(line: QuoteLine, all: QuoteLine[]): boolean {
-  if (line.kind === 'discount') return true
-  if (line.kind === 'core_deposit') return all.find((p) => p.id === line.parentLineId)?.ownerDecision === 'approved'
-  return line.ownerDecision === 'approved'
+/** A line as the money rule reads it (shared/utils/quote-totals.ts): its amount as stated and how. */
+export function totalsLine(l: QuoteLine): ChoosableLine {
+  return { id: l.id, kind: l.kind, amountMinor: l.amountMinor, taxBp: l.taxBp, taxIncluded: !!l.taxIncluded, parentLineId: l.parentLineId ?? null }
 }
 
-export function totalsInput(lines: QuoteLine[], mode: 'quoted' | 'approved'): TotalsLineInput[] {
-  return lines.map((l) => ({
-    id: l.id, kind: l.kind, amountMinor: l.amountMinor, taxBp: l.taxBp,
-    included: mode === 'quoted' ? true : approvedIncluded(l, lines),
-  }))
+/** Every line counted: the quote as quoted. */
+export function totalsInput(lines: QuoteLine[]): TotalsLineInput[] {
+  return lines.map(totalsLine)
+}
+
+/** What the owner approved, counted the way the owner's page counts it. */
+export function approvedFigures(lines: QuoteLine[]): TotalsDetail {
+  const approved = new Set(lines.filter((l) => l.ownerDecision === 'approved').map((l) => l.id))
+  return chosenTotals(lines.map(totalsLine), (id) => approved.has(id))
 }
 
 const DECIDED: QuoteStatus[] = ['approved', 'partly_approved', 'declined']
@@ -67,16 +71,25 @@ export function isDecided(status: QuoteStatus): boolean {
   return DECIDED.includes(status)
 }
 
-/** The quote's state as read now, its quoted totals, the approved ones once decided, and each line's tax. */
+/** A line's figures when the totals do not count it (a discount with nothing to discount): on its own. */
+function figuresAlone(l: QuoteLine): TotalsLine {
+  const f = lineFigures(l.amountMinor, l.taxBp, !!l.taxIncluded)
+  return { id: l.id, kind: l.kind, amountMinor: f.netMinor, taxMinor: f.taxMinor, grossMinor: f.grossMinor, taxBp: l.taxBp, shares: [{ taxBp: l.taxBp, netMinor: f.netMinor, taxMinor: f.taxMinor }] }
+}
+
+const brief = (t: TotalsDetail): Totals => ({ netMinor: t.netMinor, taxMinor: t.taxMinor, grossMinor: t.grossMinor })
+
+/** The quote's state as read now, its quoted totals, the approved ones once decided, and each line's figures. */
 export function quoteFigures(q: Pick<Quote, 'status' | 'expiresAt'>, lines: QuoteLine[]) {
   const status = effectiveQuoteStatus(q.status, q.expiresAt ?? null)
-  const quoted = quoteTotals(totalsInput(lines, 'quoted'))
-  const approved = isDecided(status) ? quoteTotals(totalsInput(lines, 'approved')) : null
-  const taxOf = new Map(quoted.lines.map((l) => [l.id, l.taxMinor]))
+  const quoted = quoteTotals(totalsInput(lines))
+  const approved = isDecided(status) ? approvedFigures(lines) : null
+  const counted = new Map(quoted.lines.map((l) => [l.id, l]))
+  const lineOf = (l: QuoteLine): TotalsLine => counted.get(l.id) ?? figuresAlone(l)
   return {
-    status, quoted, taxOf,
-    totals: { netMinor: quoted.netMinor, taxMinor: quoted.taxMinor, grossMinor: quoted.grossMinor },
-    approvedTotals: approved ? { netMinor: approved.netMinor, taxMinor: approved.taxMinor, grossMinor: approved.grossMinor } : null,
+    status, quoted, approved, lineOf,
+    totals: brief(quoted),
+    approvedTotals: approved ? brief(approved) : null,
   }
 }
 

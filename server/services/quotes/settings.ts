@@ -1,6 +1,7 @@
 /**
- * A garage's quoting settings (labour rate, markup rules, tax, validity, terms, logo) with the defaults that
- * hold until its manager saves some. Reading never writes; the row is made on the first save.
+ * A garage's quoting settings (labour rate, markup rules, tax and whether prices are shown with it, a price
+ * ending for parts, who carries core deposits, validity, terms, logo) with the defaults that hold until its
+ * manager saves some. Reading never writes; the row is made on the first save.
  */
 import type { Transaction } from 'sequelize'
 import { GarageSettings } from '../../models/quotes'
@@ -9,12 +10,20 @@ import { DEFAULT_MARKUP_RULES, type MarkupRules } from '../../../shared/utils/qu
 export const DEFAULT_QUOTE_TERMS = [
   'Prices include the parts and labour listed; work not listed is quoted separately before it is done.',
   'Old parts are kept for you to see on request, except units returned to the supplier for their core deposit.',
+  'An exchange deposit charged to you is refunded only when our supplier accepts the old unit back.',
 ].join('\n')
 
 export interface EffectiveSettings {
+  /** per hour, stated as the garage states its prices (with tax when `pricesIncludeTax`) */
   labourRateMinor: number
   markupRules: MarkupRules
   taxRateBp: number
+  /** the garage shows and enters prices with tax included: new lines are stated with tax */
+  pricesIncludeTax: boolean
+  /** part prices after markup end on this many minor units (99 -> x.99), or null */
+  partPriceEndingMinor: number | null
+  /** core deposits are charged to the owner by default; otherwise the garage absorbs them */
+  coreDepositsPassedOn: boolean
   quoteValidityDays: number
   quoteTerms: string
   logoFile: string | null
@@ -26,6 +35,9 @@ export const DEFAULT_SETTINGS: EffectiveSettings = {
   labourRateMinor: 0,
   markupRules: DEFAULT_MARKUP_RULES,
   taxRateBp: 2000,
+  pricesIncludeTax: false,
+  partPriceEndingMinor: null,
+  coreDepositsPassedOn: false,
   quoteValidityDays: 30,
   quoteTerms: DEFAULT_QUOTE_TERMS,
   logoFile: null,
@@ -41,6 +53,9 @@ export async function settingsOf(organisationId: number, t?: Transaction): Promi
     labourRateMinor: row.labourRateMinor,
     markupRules: row.markupRules ?? DEFAULT_MARKUP_RULES,
     taxRateBp: row.taxRateBp,
+    pricesIncludeTax: !!row.pricesIncludeTax,
+    partPriceEndingMinor: row.partPriceEnding ?? null,
+    coreDepositsPassedOn: !!row.coreDepositsPassedOn,
     quoteValidityDays: row.quoteValidityDays,
     quoteTerms: row.quoteTerms ?? '',
     logoFile: row.logoFile ?? null,

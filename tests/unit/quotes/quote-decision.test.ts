@@ -17,7 +17,7 @@ const lines = [
 describe('the owner\'s decision', () => {
   it('covers exactly the lines offered: parts, labour and sundries', () => {
     const ok = checkDecision(lines, [{ id: 1, approved: true }, { id: 3, approved: true }, { id: 4, approved: false }])
-    expect(ok).toEqual({ ok: true, approved: new Set([1, 3]) })
+    expect(ok).toEqual({ ok: true, approved: new Set([1, 3]), acknowledged: new Map() })
   })
 
   it('refuses lines not offered (core deposits, discounts, other quotes\') and choices twice', () => {
@@ -33,15 +33,25 @@ describe('the owner\'s decision', () => {
     if (!r.ok) expect(r.fields.lines).toMatch(/"line 3", "line 4"/)
   })
 
-  it('refuses declining a required line unless the garage recorded that the owner was told', () => {
+  it('refuses declining a required line without the owner\'s signed acknowledgement, even when the garage talked it through', () => {
     const r = checkDecision(lines, [{ id: 1, approved: false }, { id: 3, approved: true }, { id: 4, approved: true }])
     expect(r.ok).toBe(false)
     if (!r.ok) {
-      expect(r.fields['lines.0.approved']).toContain('"Front discs"')
+      expect(r.fields['lines.0.acknowledgement']).toContain('"Front discs"')
       expect(r.message).toContain('Front discs')
     }
     const told = lines.map((l) => (l.id === 1 ? line({ ...l, toldOwnerDeclinedRequired: true }) : l))
-    expect(checkDecision(told, [{ id: 1, approved: false }, { id: 3, approved: true }, { id: 4, approved: true }]).ok).toBe(true)
+    expect(checkDecision(told, [{ id: 1, approved: false }, { id: 3, approved: true }, { id: 4, approved: true }]).ok).toBe(false)
+  })
+
+  it('takes the acknowledgement with declining a required line, and refuses it anywhere else', () => {
+    const signature = { understood: true as const, signedName: 'Robin Tester' }
+    const ok = checkDecision(lines, [{ id: 1, approved: false, acknowledgement: signature }, { id: 3, approved: true }, { id: 4, approved: false }])
+    expect(ok.ok).toBe(true)
+    if (ok.ok) expect([...ok.acknowledged.entries()]).toEqual([[1, signature]])
+    const stray = checkDecision(lines, [{ id: 1, approved: true, acknowledgement: signature }, { id: 3, approved: true }, { id: 4, approved: false, acknowledgement: signature }])
+    expect(stray.ok).toBe(false)
+    if (!stray.ok) expect(Object.keys(stray.fields).sort()).toEqual(['lines.0.acknowledgement', 'lines.2.acknowledgement'])
   })
 })
 

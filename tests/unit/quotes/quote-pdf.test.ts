@@ -24,10 +24,12 @@ function view(lines: number): OwnerQuoteView {
     messageToOwner: '', terms: 'Payment on collection.',
     lines: Array.from({ length: lines }, (_, i) => ({
       id: i + 1, kind: 'part' as const, description: `Brake part number ${i + 1}`, quantity: 1, hours: null, unitPriceMinor: 1000,
-      amountMinor: 1000, taxBp: 2000, taxMinor: 200, recommendation: i === 0 ? 'required' as const : null, reason: null,
-      coreCharge: null, parentLineId: null, decidable: true, declinable: i !== 0, ownerDecision: null,
+      amountMinor: 1000, taxBp: 2000, taxMinor: 200, grossMinor: 1200, taxIncluded: false, taxShares: [{ taxBp: 2000, netMinor: 1000, taxMinor: 200 }],
+      recommendation: i === 0 ? 'required' as const : null, reason: null, coreCharge: null, coreRefund: null, parentLineId: null,
+      decidable: true, declinable: true, needsAcknowledgement: i === 0, declineStatement: null, declineAcknowledgement: null, ownerDecision: null,
     })),
     totals: { netMinor: 1000 * lines, taxMinor: 200 * lines, grossMinor: 1200 * lines }, approvedTotals: null,
+    taxByRate: [{ taxBp: 2000, netMinor: 1000 * lines, taxMinor: 200 * lines }], approvedTaxByRate: null, decisionAddress: null,
     currency: 'GBP', taxLabel: 'Tax at 20 %',
   }
 }
@@ -50,6 +52,36 @@ describe('quote PDF', () => {
     const t = await text(b)
     expect(t).toMatch(/page 1 of [2-9]/)
     expect(t).toContain('£960.00')
+  })
+})
+
+describe('tax per rate and the owner\'s decision in the PDF', () => {
+  it('lists tax at each rate and, once decided, who signed, the approved totals and the declined safety work', async () => {
+    const v = view(2)
+    v.state = 'decided'
+    v.status = 'partly_approved'
+    v.signedName = 'Jo Owner'
+    v.decidedAt = '2026-12-02T09:30:00Z'
+    v.decisionAddress = '192.0.2.7'
+    v.lines[0]!.ownerDecision = 'declined'
+    v.lines[0]!.declineAcknowledgement = { statement: 'You are declining: Brake part number 1. What it means.', signedName: 'Jo Owner', signedAt: '2026-12-02T09:30:00Z', address: '192.0.2.7' }
+    v.lines[1]!.ownerDecision = 'approved'
+    v.lines.push({ ...v.lines[1]!, id: 3, kind: 'sundry', description: 'Child seat fitting', taxBp: 500, taxMinor: 50, grossMinor: 1050, taxShares: [{ taxBp: 500, netMinor: 1000, taxMinor: 50 }] })
+    v.taxByRate = [{ taxBp: 2000, netMinor: 2000, taxMinor: 400 }, { taxBp: 500, netMinor: 1000, taxMinor: 50 }]
+    v.totals = { netMinor: 3000, taxMinor: 450, grossMinor: 3450 }
+    v.approvedTotals = { netMinor: 2000, taxMinor: 250, grossMinor: 2250 }
+    v.approvedTaxByRate = [{ taxBp: 2000, netMinor: 1000, taxMinor: 200 }, { taxBp: 500, netMinor: 1000, taxMinor: 50 }]
+    const t = await text(await renderQuotePdf(v, { name: 'Test Garage', address: '', phone: '', email: '', taxNumber: '' }, fonts, null))
+    // the text layer runs a label into its figure
+    expect(t).toContain('Tax at 20 % on £20.00£4.00')
+    expect(t).toContain('Tax at 5 % on £10.00£0.50')
+    expect(t).toContain('Total to pay£34.50')
+    expect(t).toContain('Your decision')
+    expect(t).toContain('Signed by Jo Owner on 2 Dec 2026, 09:30 from the internet address 192.0.2.7')
+    expect(t).toContain('Approved total£22.50')
+    expect(t).toContain('Safety work declined')
+    expect(t).toContain('Signed: Jo Owner, 2 Dec 2026, 09:30, from 192.0.2.7')
+    expect(t).toContain('Declined: acknowledgement signed')
   })
 })
 

@@ -116,10 +116,12 @@ describe('quote totals', () => {
     expect(t.byRate).toEqual([{ taxBp: 2000, netMinor: 10_001, taxMinor: 2000 }, { taxBp: 0, netMinor: 3_333, taxMinor: 0 }])
   })
 
-  it('takes a discount line off the net and its tax off the tax, rounding the discount tax away from zero', () => {
+  it('takes a discount line off the net and its tax off the tax, at the rate of what it discounts, rounding away from zero', () => {
     const t = quoteTotals([part(10_000, 2000, 1), { id: 2, kind: 'discount', amountMinor: -1_002, taxBp: 2000 }, { id: 3, kind: 'discount', amountMinor: -3, taxBp: 5000 }])
-    // 10 000 - 1 002 - 3 = 8 995; tax 2 000 - 200.4 -> -200, -1.5 -> -2: 1 798
-    expect(t).toMatchObject({ netMinor: 8_995, taxMinor: 1_798, grossMinor: 10_793, discountCapped: false })
+    // 10 000 - 1 002 - 3 = 8 995; everything discounted is at 20 %, whatever rate the discount line carries:
+    // tax 2 000 - 200.4 -> -200, -0.6 -> -1: 1 799
+    expect(t).toMatchObject({ netMinor: 8_995, taxMinor: 1_799, grossMinor: 10_794, discountCapped: false })
+    expect(t.lines.find((l) => l.id === 3)).toMatchObject({ taxBp: 2000, taxMinor: -1 })
   })
 
   it('never lets a discount take the net below zero, and drops discounts when nothing is taken', () => {

@@ -1,10 +1,13 @@
 /**
- * POST /api/quote-links/:token/decision  { lines: [{ id, approved }], signedName }
+ * POST /api/quote-links/:token/decision
+ *   { lines: [{ id, approved, acknowledgement?: { understood: true, signedName } }], signedName }
  * The owner approves or declines every line offered (parts, labour, sundries; a core deposit follows its part,
  * discounts apply to what is approved) and signs with their name. Nothing else can be sent: prices and lines
- * are the garage's (unknown fields are refused, lines not offered on this quote are refused). A required line
- * cannot be declined unless the garage recorded that it told the owner what that means (422 naming the line).
- * Stored with the time and the IP address; the garage is e-mailed; the link then shows the decision read-only.
+ * are the garage's (unknown fields are refused, lines not offered on this quote are refused). Declining a line
+ * marked required takes a signed acknowledgement of the statement the page showed for it (422 on
+ * `lines.N.acknowledgement` without one; an acknowledgement on any other choice is refused too).
+ * Stored with the time and the IP address (the acknowledgement with the statement, name, time, address and
+ * browser); the garage is e-mailed at once; the link then shows the decision read-only.
  * -> OwnerQuoteView. 404 "This link is not valid"; 422 with `data.fields`; 409 already decided or replaced; 429.
  */
 import { QuoteDecisionSchema } from '#shared/schemas/quotes'
