@@ -27,6 +27,6 @@ export const FAKE_VEHICLES: readonly FakeVehicle[] = [
   { registration: 'NG19KTV', make: 'VELTRA', model: 'PENNON', variant: '1.4 T', yearOfManufacture: 2018, firstRegistered: '2019-03', engineCapacityCc: 1395, fuelType: 'PETROL', colour: 'SILVER', vin: 'SVTPA1P11JN402215' },
   { registration: 'RV66LMB', make: 'VELTRA', model: 'PENNON', variant: '1.4 T', yearOfManufacture: 2016, firstRegistered: '2016-09', engineCapacityCc: 1395, fuelType: 'PETROL', colour: 'BLACK', vin: 'SVTPA1P15GN090117' },
   { registration: 'YT68KDM', make: 'DURMOND', model: 'CADDOW', variant: '1.2', yearOfManufacture: 2018, firstRegistered: '2018-10', engineCapacityCc: 1199, fuelType: 'PETROL', colour: 'YELLOW', vin: 'VD7CA3P11JC551028' },
-  { registration: 'WF21QNE', make: 'QUILLAN', model: 'DRAY', variant: '2.0 D', yearOfManufacture: 2021, firstRegistered: '2021-04', engineCapacityCc: 1997, fuelType: 'DIESEL', colour: 'WHITE', vin: 'VQ2DR2D27MA014386' },
+  { registration: 'WF21KNE', make: 'QUILLAN', model: 'DRAY', variant: '2.0 D', yearOfManufacture: 2021, firstRegistered: '2021-04', engineCapacityCc: 1997, fuelType: 'DIESEL', colour: 'WHITE', vin: 'VQ2DR2D27MA014386' },
   { registration: 'BX70LRT', make: 'BRENMOOR', model: 'HALYARD', variant: '2.0 D', yearOfManufacture: 2020, firstRegistered: '2020-09', engineCapacityCc: 1995, fuelType: 'DIESEL', colour: 'GREEN', vin: 'SBRHA5D23LB660391' },
 ]
