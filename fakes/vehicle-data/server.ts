@@ -9,6 +9,7 @@
  * delayMs? }` (unavailable answers 503; down drops the connection; slow waits delayMs, default 10 s, before
  * answering), `GET /_fake/requests`, `POST /_fake/reset`, `GET /_fake/health`. Inputs are checked with zod.
  */
+import { once } from 'node:events'
 import http from 'node:http'
 import type { AddressInfo } from 'node:net'
 import { z } from 'zod'
@@ -115,24 +116,21 @@ export function createVehicleDataFake(options: VehicleDataFakeOptions = {}): Veh
 
   return {
     state,
-    listen() {
-      return new Promise((resolve, reject) => {
-        server.once('error', reject)
-        server.listen(options.port ?? 0, host, () => {
-          server.off('error', reject)
-          const port = (server.address() as AddressInfo).port
-          resolve({ port, url: `http://${host}:${port}` })
-        })
-      })
+    async listen() {
+      // node:events' once() rejects on 'error' (a port in use) and resolves on 'listening'
+      server.listen(options.port ?? 0, host)
+      await once(server, 'listening')
+      const { port } = server.address() as AddressInfo
+      return { port, url: `http://${host}:${port}` }
     },
-    close() {
+    async close() {
       for (const t of timers) clearTimeout(t)
       timers.clear()
-      return new Promise((resolve, reject) => {
-        if (!server.listening) return resolve()
-        server.close((err) => (err ? reject(err) : resolve()))
-        server.closeAllConnections()
-      })
+      if (!server.listening) return
+      const closed = once(server, 'close')
+      server.close()
+      server.closeAllConnections()
+      await closed
     },
   }
 }
