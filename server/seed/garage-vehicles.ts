@@ -62,7 +62,10 @@ async function seedGarage(t: Transaction, garage: string, cars: DemoCar[], now: 
   for (const car of cars) {
     const registration = normaliseRegistration(car.registration)
     const quote = await quoteFor(t, org.id, registration)
-    const vehicle = car.vehicle ? await Vehicle.findOne({ where: car.vehicle, transaction: t }) : null
+    // engine codes carry the make's prefix in the catalogue ("KS-D20"): match on the end
+    const vehicle = car.vehicle
+      ? await Vehicle.findOne({ where: { ...car.vehicle, engineCode: { [Op.like]: `%${car.vehicle.engineCode}` } }, transaction: t })
+      : null
     const vehicleId = vehicle?.id ?? quote?.vehicleId ?? null
     const o = car.owner
     const customer = await GarageCustomer.create({

@@ -177,3 +177,29 @@ describe('quotes and inspections attach to the vehicle and make its history', ()
     expect((await tech.post('/api/inspections', { vehicleId: vellId, wear, garageVehicleId: 999_999 })).status).toBe(404)
   })
 })
+
+describe('VIN-pattern and build-date breakpoints narrow the parts list', () => {
+  type Part = { sku: string; type: string; side: string; fit: string; dependsOn?: string[] }
+  const partsOf = (body: { groups: { axle: string; types: { parts: Part[] }[] }[] }, axle?: string) =>
+    body.groups.filter((g) => !axle || g.axle === axle).flatMap((g) => g.types.flatMap((t) => t.parts))
+
+  it('keeps a breakpoint fitment open until the car is identified, then fits or leaves it out', async () => {
+    const vell = partsOf((await tech.get(`/api/vehicles/${vellId}/parts`)).body)
+    const orrinId = (await tech.get('/api/vehicles/facets?make=Kaskel&model=Orrin&year=2016')).body.variants[0].vehicleId
+    const hose = partsOf((await tech.get(`/api/vehicles/${orrinId}/parts`)).body, 'front').find((p) => p.type === 'hose' && !vell.some((v) => v.sku === p.sku))!
+    expect(hose).toBeTruthy()
+    // counter staff record that petrol-plant cars (7th character P) built from March 2016 take this hose
+    const bad = await counter.post(`/api/parts/${hose.sku}/fitments`, { vehicleId: vellId, axle: 'front', side: hose.side, qualifiers: { vin: 'WK3 VB', built_from: 'March 2016' }, note: '' })
+    expect(bad.status).toBe(422)
+    expect(Object.keys(bad.body.data.fields).sort()).toEqual(['qualifiers.built_from', 'qualifiers.vin'])
+    const added = await counter.post(`/api/parts/${hose.sku}/fitments`, { vehicleId: vellId, axle: 'front', side: hose.side, qualifiers: { vin: 'WK3VB*P', built_from: '2016-03' }, note: 'Petrol-plant cars from March 2016' })
+    expect(added.status, added.text).toBe(201)
+
+    const listed = async (q: string) => partsOf((await tech.get(`/api/vehicles/${vellId}/parts${q}`)).body).find((p) => p.sku === hose.sku)
+    expect(await listed('')).toMatchObject({ fit: 'open', dependsOn: ['vin', 'built_from'] })
+    expect(await listed('?opt.vin=WK3VB2D18FT104472')).toBeUndefined()
+    expect(await listed('?opt.vin=WK3VB2P10GT104472&opt.built=2015-11')).toBeUndefined()
+    expect(await listed('?opt.vin=WK3VB2P10GT104472&opt.built=2016-03')).toMatchObject({ fit: 'fits' })
+    expect(await listed('?opt.vin=WK3VB2P10GT104472')).toMatchObject({ fit: 'open', dependsOn: ['built_from'] })
+  })
+})
