@@ -36,6 +36,12 @@ export default defineNuxtConfig({
     stripeHost: '127.0.0.1',
     stripePort: 12111,
     stripeProtocol: 'http',
+    // the hosted vehicle-data service (registration look-ups); the demo points at fakes/vehicle-data
+    vehicleDataProtocol: 'http',
+    vehicleDataHost: '127.0.0.1',
+    vehicleDataPort: 12112,
+    vehicleDataKey: 'vd_test_boreline_local',
+    vehicleDataTimeoutMs: 4000,
     sessionIdleMinutes: 60,
     sessionAbsoluteHours: 12,
     session: {
@@ -50,6 +56,8 @@ export default defineNuxtConfig({
       locale: 'en-GB',
       // the one zone for dates on screens, documents, statements and e-mails
       timeZone: 'Europe/London',
+      // the national registration format whose age identifier narrows the year ('uk' or 'none')
+      registrationFormat: 'uk',
     },
   },
   nitro: {

@@ -56,3 +56,4 @@ for (let i = 0; i < 120; i++) {
 console.log(`\nBoreline is running on http://localhost:${port}  (mail catcher: http://127.0.0.1:8025/)`)
 console.log(`Demo sign-ins (password for all: ${DEMO_PASSWORD}):`)
 for (const s of demoSignIns()) console.log(`  ${s.email.padEnd(42)} ${s.role.padEnd(18)} ${s.organisation} (${s.status})`)
+console.log('Type LM65 WRD in the header\'s box as Millbrook to open a car with remembered answers; add YT68 KDM to see a registration look-up.')

@@ -16,6 +16,7 @@ export const NAV_ENTRIES: NavEntry[] = [
   { to: '/catalogue', label: 'Find by vehicle', ability: 'catalogue.view', side: 'both' },
   { to: '/catalogue/search', label: 'Part search', ability: 'catalogue.view', side: 'both' },
   { to: '/calculations/bore-check', label: 'Bore check', ability: 'calculations.use', side: 'both' },
+  { to: '/garage/vehicles', label: 'Vehicles', ability: 'vehicles.use', side: 'garage' },
   { to: '/inspections', label: 'Inspections', ability: 'inspections.record', side: 'garage' },
   { to: '/quotes', label: 'Quotes', ability: 'quotes.draft', side: 'garage' },
   { to: '/admin/applications', label: 'Applications', ability: 'tradeAccounts.decide', side: 'distributor' },

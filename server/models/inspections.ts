@@ -15,6 +15,7 @@ export class Inspection extends Model<InferAttributes<Inspection>, InferCreation
   declare organisationId: number
   declare vehicleId: number
   declare authorUserId: number
+  declare garageVehicleId: CreationOptional<number | null>
   declare registration: CreationOptional<string>
   declare odometer: CreationOptional<string>
   declare answers: CreationOptional<Record<string, string>>
@@ -31,7 +32,7 @@ export function initInspectionModels(sequelize: Sequelize): void {
   const { INTEGER, STRING, DATE } = DataTypes
   Inspection.init({
     id: { type: INTEGER, primaryKey: true, autoIncrement: true },
-    organisationId: INTEGER, vehicleId: INTEGER, authorUserId: INTEGER,
+    organisationId: INTEGER, vehicleId: INTEGER, authorUserId: INTEGER, garageVehicleId: INTEGER,
     registration: STRING, odometer: STRING,
     answers: jsonColumn('answers', {}), wearInput: jsonColumn('wearInput', null), result: jsonColumn('result', null),
     overall: STRING, recommendedParts: jsonColumn('recommendedParts', []), createdAt: DATE,

@@ -46,6 +46,7 @@ export class Quote extends Model<InferAttributes<Quote>, InferCreationAttributes
   declare ownerEmail: string
   declare ownerPhone: CreationOptional<string>
   declare inspectionId: CreationOptional<number | null>
+  declare garageVehicleId: CreationOptional<number | null>
   declare findings: CreationOptional<InspectionFinding[]>
   declare messageToOwner: CreationOptional<string>
   declare tokenHash: CreationOptional<string | null>
@@ -115,7 +116,7 @@ export function initQuoteModels(sequelize: Sequelize): void {
   Quote.init({
     id, organisationId: INTEGER, number: INTEGER, revision: d(INTEGER, 1), supersedesQuoteId: INTEGER, status: d(STRING, 'draft'),
     vehicleId: INTEGER, vehicleLabel: d(STRING, ''), registration: d(STRING, ''), odometer: d(STRING, ''),
-    ownerName: STRING, ownerEmail: STRING, ownerPhone: d(STRING, ''), inspectionId: INTEGER,
+    ownerName: STRING, ownerEmail: STRING, ownerPhone: d(STRING, ''), inspectionId: INTEGER, garageVehicleId: INTEGER,
     findings: jsonColumn('findings', []), messageToOwner: d(TEXT, ''), tokenHash: STRING, sentAt: DATE, sentByUserId: INTEGER, expiresAt: DATE, decidedAt: DATE,
     decisionIp: STRING, decisionUserAgent: STRING, signedName: STRING, createdByUserId: INTEGER, ...stamps,
   }, { sequelize, tableName: 'quotes' })

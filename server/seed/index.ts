@@ -8,6 +8,7 @@ import { seedCatalogue } from './catalogue'
 import { seedQuotes } from './quotes'
 import { seedProofDocuments } from './proof-documents'
 import { seedOrders } from './orders'
+import { seedGarageVehicles } from './garage-vehicles'
 
 export async function runSeed(log: (s: string) => void = console.log): Promise<void> {
   await withWrite(async (t) => {
@@ -16,5 +17,6 @@ export async function runSeed(log: (s: string) => void = console.log): Promise<v
     await seedQuotes(t, log)
     await seedProofDocuments(t, log)
     await seedOrders(t, log)
+    await seedGarageVehicles(t, log)
   })
 }

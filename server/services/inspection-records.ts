@@ -19,6 +19,8 @@ import {
 import type { Page } from '../../shared/types/page'
 import { invalidInput, notFound } from './errors'
 import { cataloguePartsFor, vehicleLabel } from './inspections'
+import { garageVehicleOf } from './garage-vehicles/register'
+import { noteOdometerText } from './garage-vehicles/odometer'
 
 const VEHICLE_AND_AUTHOR: Includeable[] = [
   { model: Vehicle, as: 'vehicle', attributes: ['id', 'make', 'model', 'generation', 'yearFrom', 'yearTo'] },
@@ -74,6 +76,7 @@ export interface InspectionInput {
   odometer: string
   answers: Record<string, string>
   wear: WearInput
+  garageVehicleId?: number | null
 }
 
 /**
@@ -88,8 +91,8 @@ export function readInspection(body: unknown): InspectionInput {
   if (wear === null) fields.wear ??= 'Enter at least one measured value.'
   else if (!wear.ok) Object.assign(fields, fieldMessages(wear.issues, 'wear'))
   if (!head.success || !wear?.ok) throw invalidInput(fields)
-  const { vehicleId, registration, odometer, answers } = head.data
-  return { vehicleId, registration, odometer, answers, wear: wear.data }
+  const { vehicleId, registration, odometer, answers, garageVehicleId } = head.data
+  return { vehicleId, registration, odometer, answers, wear: wear.data, garageVehicleId }
 }
 
 /**
@@ -108,9 +111,11 @@ export async function recordInspection(organisationId: number, author: User, inp
   const answers = canonicalAnswers(options, input.answers)
   const result = computeWear(input.wear)
   const recommendedParts = await cataloguePartsFor(vehicle.id, result.recommendedParts, answers)
+  const garageVehicle = input.garageVehicleId ? await garageVehicleOf(organisationId, input.garageVehicleId) : null
   const row = await withWrite(async (t) => {
+    await noteOdometerText(t, garageVehicle?.id, input.odometer, 'inspection')
     const created = await Inspection.create({
-      organisationId, vehicleId: vehicle.id, authorUserId: author.id,
+      organisationId, vehicleId: vehicle.id, authorUserId: author.id, garageVehicleId: garageVehicle?.id ?? null,
       registration: input.registration, odometer: input.odometer, answers,
       wearInput: result.inputs, result, overall: result.overall, recommendedParts,
     }, { transaction: t })

@@ -25,6 +25,8 @@ export const InspectionCreateSchema = z
     odometer: z.string({ error: 'Odometer must be text.' }).trim().max(20, 'Odometer is at most 20 characters.').default(''),
     /** Answers to the vehicle's option questions (`{ front_disc_diameter_mm: "300" }`). */
     answers: QualifiersSchema.default({}),
+    /** The garage's own record of the car (GET /api/garage/vehicles/:id), when the inspection is of one. */
+    garageVehicleId: z.number({ error: 'Choose the vehicle record.' }).int().positive({ error: 'Choose the vehicle record.' }).nullish(),
     /** The wear-check body; validated by parseWearInput, errors keyed `wear.<path>`. */
     wear: z.unknown(),
   })

@@ -34,6 +34,8 @@ export const QuoteCreateSchema = z.strictObject({
   ownerEmail: OwnerEmailSchema,
   ownerPhone: text(40, 'Owner\'s phone').default(''),
   inspectionId: id('the inspection').nullish(),
+  /** the garage's own record of the car (GET /api/garage/vehicles/:id) the quote is for */
+  garageVehicleId: id('the vehicle record').nullish(),
 })
 export type QuoteCreateInput = z.input<typeof QuoteCreateSchema>
 

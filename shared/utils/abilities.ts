@@ -22,6 +22,10 @@ export const ABILITIES = {
   'statement.view': ['garage_manager'],
   'garage.settings': ['garage_manager'],
   'garage.staff': ['garage_manager'],
+  /** the garage's register of customers and vehicles, and registration look-ups */
+  'vehicles.use': ['garage_manager', 'garage_technician'],
+  /** follow-ups of declined work: what is due, the weeks, and consent */
+  'followUps.manage': ['garage_manager'],
   // the distributor's work
   'orders.work': ['distributor_admin', 'counter_staff'],
   'coreReturns.decide': ['distributor_admin', 'counter_staff'],

@@ -1,7 +1,7 @@
 /**
  * Global setup for the e2e and browser projects: one build, one server, one throw-away database.
  * - builds the app with `nuxi build` only when a source file is newer than .output (CI: always fresh);
- * - starts the local fakes (mail catcher; payments when present) on free ports, in this process;
+ * - starts the local fakes (mail catcher; payments and vehicle data when present) on free ports, in this process;
  * - migrates and seeds a database in a temporary folder, then starts `node .output/server/index.mjs`.
  * Both projects share it: a second call reuses the running server (reference counted).
  */
@@ -24,7 +24,7 @@ interface Shared {
   closers: (() => Promise<void>)[]
   dir: string
 }
-export interface TestEnv { baseUrl: string; mailUrl: string; paymentsUrl: string; dbPath: string; uploadsDir: string; tmpDir: string }
+export interface TestEnv { baseUrl: string; mailUrl: string; paymentsUrl: string; dbPath: string; uploadsDir: string; tmpDir: string; smtpPort: number; vehicleDataUrl: string }
 
 const KEY = Symbol.for('boreline.e2e.shared')
 const g = globalThis as unknown as Record<symbol, Promise<Shared> | undefined>
@@ -99,6 +99,17 @@ async function start(): Promise<Shared> {
     closers.push(() => fake.close())
   }
 
+  let vehicleDataUrl = ''
+  let vehicleDataPort = 0
+  if (existsSync(join(root, 'fakes/vehicle-data/server.ts'))) {
+    const { createVehicleDataFake } = await import('../../fakes/vehicle-data/server')
+    const fake = createVehicleDataFake({ port: 0, apiKey: 'vd_test_e2e' })
+    const info = await fake.listen()
+    vehicleDataPort = info.port
+    vehicleDataUrl = info.url
+    closers.push(() => fake.close())
+  }
+
   const env: NodeJS.ProcessEnv = {
     ...process.env,
     NODE_ENV: 'production',
@@ -113,6 +124,10 @@ async function start(): Promise<Shared> {
     NUXT_SMTP_PORT: String(smtpPort),
     NUXT_STRIPE_PORT: String(paymentsPort || 12111),
     NUXT_STRIPE_WEBHOOK_SECRET: 'whsec_boreline_test_secret',
+    NUXT_VEHICLE_DATA_PORT: String(vehicleDataPort || 12112),
+    NUXT_VEHICLE_DATA_KEY: 'vd_test_e2e',
+    // short, so the test of a slow service does not wait long
+    NUXT_VEHICLE_DATA_TIMEOUT_MS: '1500',
     BORELINE_TEST_HOOKS: '1',
   }
   const seed = spawnSync('npx', ['tsx', 'scripts/db-seed.ts'], { cwd: root, env, encoding: 'utf8' })
@@ -128,7 +143,7 @@ async function start(): Promise<Shared> {
   mkdirSync(tmpDir)
   return {
     refs: 0, server, closers, dir,
-    env: { baseUrl, mailUrl: `http://127.0.0.1:${httpPort}`, paymentsUrl, dbPath, uploadsDir, tmpDir },
+    env: { baseUrl, mailUrl: `http://127.0.0.1:${httpPort}`, paymentsUrl, dbPath, uploadsDir, tmpDir, smtpPort, vehicleDataUrl },
   }
 }
 

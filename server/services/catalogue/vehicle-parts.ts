@@ -13,7 +13,7 @@ import { QueryTypes } from 'sequelize'
 import { getDb } from '../../utils/db'
 import { PART_TYPES, PART_TYPE_LABELS, type PartType } from '../../../shared/schemas/catalogue/part-types'
 import {
-  answerProblems, canonicalAnswers, matchQualifiers, openQuestions, type Answers, type OptionQuestion, type Qualifiers,
+  answerFor, answerProblems, canonicalAnswers, IDENTITY_LABELS, matchQualifiers, openQuestions, type Answers, type OptionQuestion, type Qualifiers,
 } from '../../../shared/utils/catalogue/qualifiers'
 import { priceFields, viewKey, type PricingContext, type StoredPrice } from './pricing'
 import { vehicleDetail, type VehicleDetail } from './vehicles'
@@ -186,7 +186,7 @@ function render(base: Base, answers: Answers, pricing: PricingContext) {
     if (!g) groups.push((g = { axle: r.axle, label: AXLE_LABELS[r.axle] ?? r.axle, types: [] }))
     let t = g.types.find((x) => x.type === r.type)
     if (!t) g.types.push((t = { type: r.type, label: PART_TYPE_LABELS[r.type]?.many ?? r.type, parts: [] }))
-    const dependsOn = Object.keys(r.qualifiers).filter((k) => answers[k] === undefined)
+    const dependsOn = Object.keys(r.qualifiers).filter((k) => answerFor(k, answers) === undefined)
     t.parts.push({
       fitmentId: r.fitmentId, sku: r.sku, type: r.type, productLine: r.productLine, description: r.description, specs: r.specs,
       side: r.side, quantity: r.quantity, qualifiers: r.qualifiers, note: r.note, fit: m, ...(dependsOn.length ? { dependsOn } : {}),
@@ -205,7 +205,9 @@ function render(base: Base, answers: Answers, pricing: PricingContext) {
     },
     priceVersion: pricing.view.kind === 'none' ? null : base.priceVersion,
     answers: Object.entries(answers).map(([key, value]) => {
-      const o = base.options.find((x) => x.key === key)!
+      const o = base.options.find((x) => x.key === key)
+      // the car's VIN and build month narrow VIN-pattern and build-date breakpoints; they are not option questions
+      if (!o) return { key, label: IDENTITY_LABELS[key] ?? key, value, valueLabel: value }
       return { key, label: o.label, value, valueLabel: o.values.find((x) => x.value === value)?.label ?? value }
     }),
     questions: openQuestions(base.options, base.rows, answers),

@@ -12,12 +12,14 @@ import { conflict, invalidInput } from '../errors'
 import { addInspectionLines, findingsOf, inspectionOfVehicle, vehicleSnapshot, type Skipped } from './inspection-lines'
 import { nextQuoteNumber } from './references'
 import { changeQuote, type QuoteActor } from './revisions'
+import { garageVehicleOf } from '../garage-vehicles/register'
 
 /** Starts a draft; with an inspection, its findings and recommended parts come along. */
 export async function createQuote(actor: QuoteActor, input: QuoteCreateInput): Promise<{ quote: Quote; skipped: Skipped[] }> {
   const { user, org } = actor
   const vehicle = await vehicleSnapshot(input.vehicleId)
   const inspection = input.inspectionId ? await inspectionOfVehicle(org.id, input.inspectionId, vehicle.id) : null
+  const garageVehicle = input.garageVehicleId ? await garageVehicleOf(org.id, input.garageVehicleId) : null
   return withWrite(async (t) => {
     const q = await Quote.create({
       organisationId: org.id, number: await nextQuoteNumber(t, org.id), status: 'draft',
@@ -25,6 +27,7 @@ export async function createQuote(actor: QuoteActor, input: QuoteCreateInput): P
       registration: input.registration || inspection?.registration || '', odometer: input.odometer || inspection?.odometer || '',
       ownerName: input.ownerName, ownerEmail: input.ownerEmail, ownerPhone: input.ownerPhone,
       inspectionId: inspection?.id ?? null, findings: inspection ? findingsOf(inspection) : [], createdByUserId: user.id,
+      garageVehicleId: garageVehicle?.id ?? null,
     }, { transaction: t })
     const fromInspection = inspection ? await addInspectionLines(t, q, org, inspection) : { added: [], skipped: [] }
     await audit(t, {

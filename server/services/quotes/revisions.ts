@@ -37,7 +37,7 @@ export async function reviseQuote(t: Transaction, old: Quote, actorUserId: numbe
   const quote = await Quote.create({
     organisationId: old.organisationId, number: old.number, revision: old.revision + 1, supersedesQuoteId: old.id,
     status: 'draft', vehicleId: old.vehicleId, vehicleLabel: old.vehicleLabel, registration: old.registration, odometer: old.odometer,
-    ownerName: old.ownerName, ownerEmail: old.ownerEmail, ownerPhone: old.ownerPhone, inspectionId: old.inspectionId,
+    ownerName: old.ownerName, ownerEmail: old.ownerEmail, ownerPhone: old.ownerPhone, inspectionId: old.inspectionId, garageVehicleId: old.garageVehicleId,
     findings: old.findings, messageToOwner: old.messageToOwner, createdByUserId: actorUserId,
   }, { transaction: t })
   const lineIds = new Map<number, number>()
