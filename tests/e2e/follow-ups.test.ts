@@ -62,14 +62,14 @@ describe('with consent', () => {
   })
 
   it('sends nothing before it is due', async () => {
-    runReminderJob(new Date(Date.now() + 7 * WEEK))
+    await runReminderJob(new Date(Date.now() + 7 * WEEK))
     expect(await reminders(owner.email)).toHaveLength(0)
   })
 
   it('sends one e-mail once due, with a fresh quote and a link that stops reminders; never twice', async () => {
     const at = new Date(Date.now() + 9 * WEEK)
-    runReminderJob(at)
-    runReminderJob(at)
+    await runReminderJob(at)
+    await runReminderJob(at)
     const sent = await reminders(owner.email)
     expect(sent).toHaveLength(1)
     const text = sent[0]!.text
@@ -102,7 +102,7 @@ describe('with consent', () => {
     const view = await anon.get(`/api/quote-links/${quoteToken}`)
     const lines = view.body.lines.filter((l: { decidable: boolean }) => l.decidable).map((l: { id: number }) => ({ id: l.id, approved: false }))
     expect((await anon.post(`/api/quote-links/${quoteToken}/decision`, { lines, signedName: 'Marlo Quist' })).status).toBe(200)
-    runReminderJob(new Date(Date.now() + 20 * WEEK))
+    await runReminderJob(new Date(Date.now() + 20 * WEEK))
     expect(await reminders(owner.email)).toHaveLength(1)
     const held = await manager.get('/api/garage/follow-ups?status=held&pageSize=100')
     expect(held.body.data.some((f: { garageVehicleId: number }) => f.garageVehicleId === owner.vehicleId)).toBe(true)
@@ -116,7 +116,7 @@ describe('with consent', () => {
 describe('without consent', () => {
   it('sends nothing and holds the follow-up for the garage to call', async () => {
     const owner = await declinedWork(false)
-    runReminderJob(new Date(Date.now() + 9 * WEEK))
+    await runReminderJob(new Date(Date.now() + 9 * WEEK))
     expect(await reminders(owner.email)).toHaveLength(0)
     const held = await manager.get('/api/garage/follow-ups?status=held&pageSize=100')
     const mine = held.body.data.find((f: { garageVehicleId: number }) => f.garageVehicleId === owner.vehicleId)

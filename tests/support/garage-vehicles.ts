@@ -3,7 +3,8 @@
  * through the API, the vehicle-data fake's control routes, and the reminder job run as `npm run reminders:run`
  * does, against the test database, with a moved clock.
  */
-import { spawnSync } from 'node:child_process'
+import { execFile } from 'node:child_process'
+import { promisify } from 'node:util'
 import { randomInt } from 'node:crypto'
 import { resolve } from 'node:path'
 import { env, type Client } from './api'
@@ -38,13 +39,21 @@ export async function fakeRequests(): Promise<{ registration: string | null; sta
   return (await (await fetch(`${env().vehicleDataUrl}/_fake/requests`)).json()).data
 }
 
-/** `npm run reminders:run -- --now <at>` against the e2e database and mail catcher. */
-export function runReminderJob(at: Date): string {
+/**
+ * `npm run reminders:run -- --now <at>` against the e2e database and mail catcher. Run without blocking the test's
+ * event loop: a blocked loop misses the mail catcher closing an idle keep-alive socket, and the next fetch on that
+ * socket fails with "other side closed".
+ */
+export async function runReminderJob(at: Date): Promise<string> {
   const e = env()
-  const r = spawnSync('npx', ['tsx', 'scripts/reminders-run.ts', '--now', at.toISOString()], {
-    cwd: resolve(import.meta.dirname, '../..'), encoding: 'utf8',
-    env: { ...process.env, DATABASE_URL: `sqlite:${e.dbPath}`, NUXT_SMTP_HOST: '127.0.0.1', NUXT_SMTP_PORT: String(e.smtpPort), NUXT_PUBLIC_ORIGIN: e.baseUrl },
-  })
-  if (r.status !== 0) throw new Error(`reminders:run failed (${r.status}):\n${r.stdout}\n${r.stderr}`)
-  return r.stdout
+  try {
+    const r = await promisify(execFile)('npx', ['tsx', 'scripts/reminders-run.ts', '--now', at.toISOString()], {
+      cwd: resolve(import.meta.dirname, '../..'), encoding: 'utf8',
+      env: { ...process.env, DATABASE_URL: `sqlite:${e.dbPath}`, NUXT_SMTP_HOST: '127.0.0.1', NUXT_SMTP_PORT: String(e.smtpPort), NUXT_PUBLIC_ORIGIN: e.baseUrl },
+    })
+    return r.stdout
+  } catch (err) {
+    const f = err as { code?: number; stdout?: string; stderr?: string }
+    throw new Error(`reminders:run failed (${f.code}):\n${f.stdout}\n${f.stderr}`)
+  }
 }
