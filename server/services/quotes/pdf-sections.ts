@@ -47,12 +47,12 @@ export function drawTotals(page: PdfPage, view: OwnerQuoteView, money: Formats['
 export function drawDecision(page: PdfPage, view: OwnerQuoteView, f: Formats): void {
   if (view.state !== 'decided' || !view.approvedTotals) return
   const { doc, left, width, heading, totalRow } = page
-  const { money, moment } = f
+  const { money, moment, counted } = f
   heading('Your decision')
   const offered = view.lines.filter((l) => l.decidable)
   doc.font('body').fontSize(9.5).fillColor(INK).text(
     `Signed by ${view.signedName ?? view.ownerName} on ${moment(view.decidedAt)}${view.decisionAddress ? ` from the internet address ${view.decisionAddress}` : ''}: `
-    + `${offered.filter((l) => l.ownerDecision === 'approved').length} of ${offered.length} lines approved.`,
+    + `${offered.filter((l) => l.ownerDecision === 'approved').length} of ${counted(offered.length, 'line', 'lines')} approved.`,
     left, doc.y, { width },
   )
   doc.moveDown(0.4)

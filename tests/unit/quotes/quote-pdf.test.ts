@@ -42,7 +42,7 @@ describe('quote PDF', () => {
     expect(t).toContain('£30.00')
     expect(t).toContain('£6.00')
     expect(t).toContain('£36.00')
-    expect(t).toContain('Valid until 31 December 2026')
+    expect(t).toContain('Valid until 31 Dec 2026')
     expect(t).toContain(QUOTE_SAFETY_CAUTION.slice(0, 60))
     expect(b.toString('latin1')).toMatch(/FontFile2|FontFile3|Inter/) // the embedded typeface, not a standard PDF font
   })
