@@ -53,7 +53,9 @@ for (let i = 0; i < 120; i++) {
   try { if ((await fetch(`http://127.0.0.1:${port}/api/health`)).ok) break } catch { /* starting */ }
   await new Promise((r) => setTimeout(r, 500))
 }
-console.log(`\nBoreline is running on http://localhost:${port}  (mail catcher: http://127.0.0.1:8025/)`)
+// the mailbox the fakes really listen on (fakes/mail/index.ts reads the same setting)
+const mailbox = `http://127.0.0.1:${process.env.MAIL_FAKE_HTTP_PORT ?? 8025}/`
+console.log(`\nBoreline is running on http://localhost:${port}  (e-mails it sends: ${mailbox})`)
 console.log(`Demo sign-ins (password for all: ${DEMO_PASSWORD}):`)
 for (const s of demoSignIns()) console.log(`  ${s.email.padEnd(42)} ${s.role.padEnd(18)} ${s.organisation} (${s.status})`)
 console.log('Type LM65 WRD in the header\'s box as Millbrook to open a car with remembered answers; add YT68 KDM to see a registration look-up.')

@@ -19,9 +19,9 @@ type When = Date | string | null | undefined
 export interface Formats extends FormatSettings {
   /** "£1,234.56"; an absent amount is a dash */
   money: (minor: number | null | undefined) => string
-  /** "3 December 2026" */
+  /** "3 Dec 2026": the one way a date is written, on screens, documents and e-mails alike */
   day: (when: When) => string
-  /** "3 Dec 2026" */
+  /** the same as `day` (kept so a narrow column can say what it wants) */
   shortDay: (when: When) => string
   /** "3 Dec 2026, 14:05" */
   moment: (when: When) => string
@@ -29,6 +29,8 @@ export interface Formats extends FormatSettings {
   month: (yyyyMm: string) => string
   /** "12,345" */
   count: (n: number) => string
+  /** "1 part", "12,345 parts": the count with the word in the form the locale's plural rules pick */
+  counted: (n: number, one: string, other: string) => string
 }
 
 function toDate(when: When): Date | null {
@@ -46,13 +48,17 @@ export function formatsFor(settings: Partial<FormatSettings> = {}): Formats {
   // a month has no time zone: read "2026-12" as that month wherever the server runs
   const monthFormat = new Intl.DateTimeFormat(s.locale, { month: 'long', year: 'numeric', timeZone: 'UTC' })
   const counts = new Intl.NumberFormat(s.locale)
+  const plurals = new Intl.PluralRules(s.locale)
+  // one date format per locale: the medium date style, as `moment` writes the date part ("3 Dec 2026")
+  const oneDay = dates({ dateStyle: 'medium' })
   return {
     ...s,
     money: (minor) => (minor == null ? '–' : formatMinor(minor, s.currency, s.locale)),
-    day: dates({ day: 'numeric', month: 'long', year: 'numeric' }),
-    shortDay: dates({ day: 'numeric', month: 'short', year: 'numeric' }),
+    day: oneDay,
+    shortDay: oneDay,
     moment: dates({ dateStyle: 'medium', timeStyle: 'short' }),
     month: (yyyyMm) => (/^\d{4}-\d{2}$/.test(yyyyMm) ? monthFormat.format(new Date(`${yyyyMm}-01T00:00:00Z`)) : yyyyMm),
     count: (n) => counts.format(n),
+    counted: (n, one, other) => `${counts.format(n)} ${plurals.select(n) === 'one' ? one : other}`,
   }
 }

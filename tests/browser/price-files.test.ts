@@ -53,7 +53,6 @@ describe('price files in Chromium', () => {
     browser = await launch()
     ;({ context, requests } = await newContext(browser, { viewport: { width: 1280, height: 1000 }, acceptDownloads: true }))
     page = await context.newPage()
-    page.on('dialog', (d) => { void d.accept() })
     await signInThroughForm(page, people.counter)
   })
   afterAll(async () => {
@@ -133,6 +132,12 @@ describe('price files in Chromium', () => {
     await page.locator('input[name="confirmLargeChanges"]').check()
     await page.locator('input[name="excludeRejected"]').check()
     await page.getByRole('button', { name: /^Apply as version \d+/ }).click()
+    // the page says what applying changes and asks in the page, not in a browser dialog
+    const ask = page.locator('[data-confirm]')
+    await ask.waitFor()
+    await expect(ask.textContent()).resolves.toMatch(/price changes?|prices change/)
+    await shot(page, 'price-files-apply-confirm')
+    await page.getByRole('button', { name: /^Yes, apply version \d+/ }).click()
     await page.getByRole('button', { name: /^Roll back to version \d+/ }).waitFor({ timeout: 30_000 })
     await expect(page.getByText(/It is the version in use/).isVisible()).resolves.toBe(true)
     await shot(page, 'price-files-applied')
@@ -149,6 +154,7 @@ describe('price files in Chromium', () => {
     await page.goBack()
     await page.waitForURL(/\/price-files\/\d+$/)
     await page.getByRole('button', { name: /^Roll back to version \d+/ }).click()
+    await page.getByRole('button', { name: /^Yes, roll back to version \d+/ }).click()
     await page.getByText('Withdrawn').first().waitFor({ timeout: 30_000 })
     await shot(page, 'price-files-rolled-back')
     await page.goto(`/catalogue/parts/${encodeURIComponent(jump.sku)}`)

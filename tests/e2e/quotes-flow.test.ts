@@ -142,8 +142,9 @@ describe('from sending to the owner\'s decision', () => {
     pricesBefore = JSON.stringify(lines.map((l) => [l.id, l.unitPriceMinor, l.amountMinor, l.taxMinor]))
   })
 
-  it('e-mails the owner the link (an unguessable token) and the PDF', async () => {
-    const sent = await sendAndReadLink(manager, quoteId, owner)
+  it('e-mails the owner the link (an unguessable token), the garage\'s note and the PDF', async () => {
+    const sent = await sendAndReadLink(manager, quoteId, owner, { message: 'We can fit the discs on Thursday morning.' })
+    expect(sent.mail.text).toContain('We can fit the discs on Thursday morning.')
     token = sent.token
     expect(sent.body).toMatchObject({ status: 'sent', mailed: true })
     // validity from the garage settings (30 days)

@@ -33,8 +33,8 @@ export async function startQuote(c: Client, extra: Record<string, unknown> = {})
 }
 
 /** Sends the quote as `manager` and returns the token from the e-mail the owner received. */
-export async function sendAndReadLink(manager: Client, quoteId: number, to: string): Promise<{ token: string; mail: Awaited<ReturnType<typeof waitForMail>>; body: Res['body'] }> {
-  const r = await manager.post(`/api/quotes/${quoteId}/send`, {})
+export async function sendAndReadLink(manager: Client, quoteId: number, to: string, send: { message?: string } = {}): Promise<{ token: string; mail: Awaited<ReturnType<typeof waitForMail>>; body: Res['body'] }> {
+  const r = await manager.post(`/api/quotes/${quoteId}/send`, send)
   if (r.status !== 200) throw new Error(`send: ${r.status} ${r.text}`)
   const mail = await waitForMail(to, /Your quote from/)
   const m = /\/q\/([A-Za-z0-9_-]{43})/.exec(mail.text)

@@ -66,7 +66,9 @@ export function newPdf(fonts: PdfFonts, info: PdfInfo): PdfPage {
       const y = doc.y
       doc.font(strong ? 'bold' : 'body').fontSize(strong ? 10.5 : 9.5).fillColor(PDF_COLOURS.ink)
       doc.text(label, left + width - 260, y, { width: 170, align: 'right' })
+      const labelEnd = doc.y // a label long enough to wrap must push the next row down, not run under it
       doc.text(value, left + width - 90, y, { width: 90, align: 'right' })
+      doc.y = Math.max(labelEnd, doc.y)
       doc.moveDown(0.25)
     },
     finish(footer) {

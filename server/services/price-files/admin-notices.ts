@@ -5,6 +5,7 @@
 import { unlink } from 'node:fs/promises'
 import { withWrite } from '../../utils/db'
 import { sendMail, appLink } from '../../utils/mail'
+import { serverFormats } from '../../utils/format'
 import { User } from '../../models/accounts'
 import { PriceVersion } from '../../models/catalogue'
 import { PriceFile } from '../../models/price-files'
@@ -39,7 +40,8 @@ export async function afterApply(priceFileId: number): Promise<void> {
     '',
     `Details and roll back: ${appLink(`/price-files/${priceFile.id}`)}`,
   ]
-  await mailAdmins(`Price version ${made?.version} applied: ${priceFile.countChanged} price changes, ${priceFile.countNew} new parts`, lines.join('\n'))
+  const { counted } = serverFormats()
+  await mailAdmins(`Price version ${made?.version} applied: ${counted(priceFile.countChanged, 'price change', 'price changes')}, ${counted(priceFile.countNew, 'new part', 'new parts')}`, lines.join('\n'))
 }
 
 /** Tells the admins that a version was rolled back and which one is in use again. */

@@ -1,6 +1,6 @@
 /**
  * The quote's e-mails, sent after the commit (a failed send is reported, never rolls anything back): to the
- * owner, the link and the PDF; to the garage, the owner's decision line by line, declined safety work first.
+ * owner, the link, the garage's note and the PDF; to the garage, the owner's decision line by line, declined safety work first.
  */
 import { Organisation, User } from '../../models/accounts'
 import type { Quote } from '../../models/quotes'
@@ -24,6 +24,7 @@ export async function mailQuoteToOwner(q: Quote, token: string, out: QuoteOutput
     `${garage} has prepared a quote for your ${view.vehicle}${plate(q)}: ${quoteReference(q)}, ${money(view.totals.grossMinor)} including tax.`,
     required ? `${required} of the lines ${required === 1 ? 'is' : 'are'} marked as required for safety.` : '',
     '',
+    ...(view.messageToOwner ? [`A note from ${garage}:`, view.messageToOwner, ''] : []),
     'Open this link to see each line, approve or decline it, and sign:',
     out.appLink(`/q/${token}`),
     '',

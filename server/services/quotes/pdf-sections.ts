@@ -32,31 +32,33 @@ function rateRows(page: PdfPage, rates: RateShare[], money: Formats['money'], la
   for (const r of rates) page.totalRow(`${label} at ${formatBp(r.taxBp)} on ${money(r.netMinor)}`, money(r.taxMinor))
 }
 
-/** Totals as quoted: before tax, the tax at each rate, and what there is to pay. */
+/** Totals as quoted: before tax, the tax at each rate, and what there is to pay (or, once decided, what was quoted). */
 export function drawTotals(page: PdfPage, view: OwnerQuoteView, money: Formats['money']): void {
   page.doc.moveDown(0.6)
   page.totalRow('Total before tax', money(view.totals.netMinor))
   rateRows(page, view.taxByRate, money)
   if (view.taxByRate.length !== 1) page.totalRow('Tax', money(view.totals.taxMinor))
-  page.totalRow('Total to pay', money(view.totals.grossMinor), true)
+  // once the owner has decided, what there is to pay is the approved total (drawDecision), not the whole quote
+  if (view.state === 'decided' && view.approvedTotals) page.totalRow('Total quoted', money(view.totals.grossMinor))
+  else page.totalRow('Total to pay', money(view.totals.grossMinor), true)
 }
 
 /** The owner's decision, once made: signature, approved totals, and declined safety work with its acknowledgement. */
 export function drawDecision(page: PdfPage, view: OwnerQuoteView, f: Formats): void {
   if (view.state !== 'decided' || !view.approvedTotals) return
   const { doc, left, width, heading, totalRow } = page
-  const { money, moment } = f
+  const { money, moment, counted } = f
   heading('Your decision')
   const offered = view.lines.filter((l) => l.decidable)
   doc.font('body').fontSize(9.5).fillColor(INK).text(
     `Signed by ${view.signedName ?? view.ownerName} on ${moment(view.decidedAt)}${view.decisionAddress ? ` from the internet address ${view.decisionAddress}` : ''}: `
-    + `${offered.filter((l) => l.ownerDecision === 'approved').length} of ${offered.length} lines approved.`,
+    + `${offered.filter((l) => l.ownerDecision === 'approved').length} of ${counted(offered.length, 'line', 'lines')} approved.`,
     left, doc.y, { width },
   )
   doc.moveDown(0.4)
   totalRow('Approved before tax', money(view.approvedTotals.netMinor))
   rateRows(page, view.approvedTaxByRate ?? [], money, 'Tax')
-  totalRow('Approved total', money(view.approvedTotals.grossMinor), true)
+  totalRow('Total to pay', money(view.approvedTotals.grossMinor), true)
   const declined = view.lines.filter((l) => l.declineAcknowledgement)
   if (!declined.length) return
   heading('Safety work declined')

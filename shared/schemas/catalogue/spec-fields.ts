@@ -28,7 +28,8 @@ export const SPEC_FIELDS: Record<PartType, SpecField[]> = {
     f('approvalMark', 'Approval mark', 'text', { optional: true })],
   caliper: [f('position', 'Position', 'choice', { choices: POSITIONS }), f('caliperType', 'Type', 'choice', { choices: ['fixed', 'floating'] }),
     f('pistonCount', 'Pistons', 'integer'), f('pistonDiametersMm', 'Piston diameter', 'numbers', { unit: 'mm' }), f('padShape', 'Pad shape', 'text'),
-    f('parkingBrake', 'Parking brake', 'choice', { choices: ['none', 'cable', 'electric'] }), ...conditionFields],
+    f('parkingBrake', 'Parking brake', 'choice', { choices: ['none', 'cable', 'electric'] }),
+    f('mountingCentresMm', 'Mounting bolt centres', 'number', { unit: 'mm', optional: true }), f('hoseThread', 'Hose thread', 'text', { optional: true }), ...conditionFields],
   drum: [axleField, mmField('diameterMm', 'Diameter'), mmField('maxDiameterMm', 'Maximum diameter'), mmField('widthMm', 'Width'), f('boltHoles', 'Bolt holes', 'integer')],
   shoe_set: [axleField, mmField('diameterMm', 'Drum diameter'), mmField('widthMm', 'Lining width'), f('frictionCode', 'Friction code (SAE J866)', 'text'),
     f('parkingLever', 'Parking lever', 'boolean')],
@@ -37,6 +38,7 @@ export const SPEC_FIELDS: Record<PartType, SpecField[]> = {
   fitting_kit: [axleField, f('kitFor', 'Kit for', 'choice', { choices: ['pad_set', 'shoe_set'] }), f('padShape', 'Pad shape', 'text', { optional: true }), f('pieces', 'Pieces', 'integer')],
   wear_sensor: [axleField, mmField('lengthMm', 'Length'), f('connector', 'Connector', 'text')],
   master_cylinder: [mmField('boreMm', 'Bore'), f('tandem', 'Tandem', 'boolean'), f('ports', 'Ports', 'integer'),
-    f('reservoir', 'Reservoir', 'choice', { choices: ['integrated', 'remote', 'none'] }), ...conditionFields],
+    f('reservoir', 'Reservoir', 'choice', { choices: ['integrated', 'remote', 'none'] }),
+    f('mountingCentresMm', 'Mounting flange centres', 'number', { unit: 'mm', optional: true }), ...conditionFields],
   fluid: [f('grade', 'Grade', 'choice', { choices: FLUID_GRADES }), f('volumeMl', 'Volume', 'integer', { unit: 'ml' })],
 }

@@ -71,7 +71,9 @@ describe('part specification schemas', () => {
 describe('compatible alternatives', () => {
   it('matches the same fitting dimensions within the stated tolerances', () => {
     const pad = { axle: 'front', padShape: 'A', widthMm: 151, heightMm: 62, thicknessMm: 19.5, wearSensor: 'none', frictionCode: 'FF' }
-    expect(sameFitting('pad_set', pad, { ...pad, padShape: 'B', widthMm: 151.4, frictionCode: 'GG' })).toBe(true)
+    expect(sameFitting('pad_set', pad, { ...pad, widthMm: 151.4, frictionCode: 'GG' })).toBe(true)
+    // another backing-plate shape does not fit the same caliper, whatever the size (common practice)
+    expect(sameFitting('pad_set', pad, { ...pad, padShape: 'B' })).toBe(false)
     expect(sameFitting('pad_set', pad, { ...pad, widthMm: 151.6 })).toBe(false)
     expect(sameFitting('disc', disc, { ...disc, diameterMm: 300.1 })).toBe(false)
     expect(sameFitting('caliper', caliper, { ...caliper, pistonDiametersMm: [54] })).toBe(false)

@@ -42,7 +42,7 @@ describe('quote PDF', () => {
     expect(t).toContain('£30.00')
     expect(t).toContain('£6.00')
     expect(t).toContain('£36.00')
-    expect(t).toContain('Valid until 31 December 2026')
+    expect(t).toContain('Valid until 31 Dec 2026')
     expect(t).toContain(QUOTE_SAFETY_CAUTION.slice(0, 60))
     expect(b.toString('latin1')).toMatch(/FontFile2|FontFile3|Inter/) // the embedded typeface, not a standard PDF font
   })
@@ -75,10 +75,10 @@ describe('tax per rate and the owner\'s decision in the PDF', () => {
     // the text layer runs a label into its figure
     expect(t).toContain('Tax at 20 % on £20.00£4.00')
     expect(t).toContain('Tax at 5 % on £10.00£0.50')
-    expect(t).toContain('Total to pay£34.50')
+    expect(t).toContain('Total quoted£34.50')
     expect(t).toContain('Your decision')
     expect(t).toContain('Signed by Jo Owner on 2 Dec 2026, 09:30 from the internet address 192.0.2.7')
-    expect(t).toContain('Approved total£22.50')
+    expect(t).toContain('Total to pay£22.50')
     expect(t).toContain('Safety work declined')
     expect(t).toContain('Signed: Jo Owner, 2 Dec 2026, 09:30, from 192.0.2.7')
     expect(t).toContain('Declined: acknowledgement signed')
