@@ -106,6 +106,8 @@ export type OwnerQuoteLine = Pick<QuoteLineView,
   decidable: boolean
   /** required lines cannot be declined unless the garage recorded that the owner was told */
   declinable: boolean
+  /** photos of the inspection findings this line puts right (GET /api/quote-links/:token/photos/:id) */
+  photos: { id: number; where: string; caption: string }[]
 }
 
 /** The owner's view through the link: nothing of the garage beyond its name, contact and this quote. */

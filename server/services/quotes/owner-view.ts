@@ -9,6 +9,7 @@ import type { OwnerQuoteView } from '../../../shared/types/quotes'
 import { quoteReference } from './references'
 import { hoursOf, iso, isDecidable, isDecided, linesOf, quoteFigures } from './rows'
 import { settingsOf } from './settings'
+import { photosForLines } from '../inspection-photos'
 
 export async function ownerView(q: Quote, currency: string, t?: Transaction): Promise<OwnerQuoteView> {
   const [lines, org, settings] = await Promise.all([
@@ -17,6 +18,7 @@ export async function ownerView(q: Quote, currency: string, t?: Transaction): Pr
     settingsOf(q.organisationId, t),
   ])
   const { status, taxOf, totals, approvedTotals } = quoteFigures(q, lines)
+  const photos = await photosForLines({ organisationId: q.organisationId, inspectionId: q.inspectionId ?? null }, lines, t)
   const rates = [...new Set(lines.map((l) => l.taxBp))]
   return {
     state: status === 'superseded' ? 'superseded' : isDecided(status) ? 'decided' : 'open',
@@ -39,6 +41,7 @@ export async function ownerView(q: Quote, currency: string, t?: Transaction): Pr
       decidable: isDecidable(l),
       declinable: isDecidable(l) && !(l.recommendation === 'required' && !l.toldOwnerDeclinedRequired),
       ownerDecision: l.ownerDecision ?? null,
+      photos: photos.get(l.id) ?? [],
     })),
     totals,
     approvedTotals,
