@@ -23,15 +23,18 @@ export class BrakeInputError extends Error {
   }
 }
 
-/** Turns a zod error into field issues (`a.b[0].c`). */
+const pathText = (path: readonly PropertyKey[]) =>
+  path.map((p, i) => (typeof p === 'number' ? `[${p}]` : `${i === 0 ? '' : '.'}${String(p)}`)).join('')
+
+/** Turns a zod error into field issues (`a.b[0].c`); a strict object's unknown keys are named one by one. */
 export function fieldIssues(error: z.ZodError): FieldIssue[] {
-  return error.issues.map((issue) => ({
-    field:
-      issue.path
-        .map((p, i) => (typeof p === 'number' ? `[${p}]` : `${i === 0 ? '' : '.'}${String(p)}`))
-        .join('') || '(body)',
-    message: issue.message,
-  }))
+  return error.issues.flatMap((issue) => {
+    const at = pathText(issue.path)
+    if (issue.code === 'unrecognized_keys') {
+      return issue.keys.map((k) => ({ field: at ? `${at}.${k}` : k, message: 'This field cannot be set here.' }))
+    }
+    return [{ field: at || '(body)', message: issue.message }]
+  })
 }
 
 export function requiredNumber(label: string) {
