@@ -14,7 +14,7 @@ import type { User } from '../models/accounts'
 import { withWrite } from '../utils/db'
 import { audit } from '../utils/audit'
 import { moveIntoStore, newStoredName, storedPath, type FileStore } from './stored-files'
-import { receiveUpload, uploadRefusal, type ReceivedUpload } from './upload-intake'
+import { receiveUpload, uploadRefusal, type ReceivedUpload, type UploadSpec } from './upload-intake'
 import { stripImageMetadata } from './image-metadata'
 import { conflict, invalidInput, notFound } from './errors'
 import { fieldMessages } from '../../shared/utils/field-messages'
@@ -58,6 +58,15 @@ async function checkedImage(file: ReceivedUpload['file']): Promise<{ data: Buffe
   return { data, mime: detected.mime }
 }
 
+/** The intake's limits and messages for a photo: a phone's camera file and a few short fields beside it. */
+const photoIntake = (uploadsDir: string): UploadSpec => ({
+  field: PHOTO_FIELD, tempDir: join(uploadsDir, '.incoming'), maxBytes: PHOTO_LIMITS.maxBytes, maxFields: 6, maxFieldsBytes: 4 * 1024,
+  messages: {
+    tooLarge: TOO_LARGE, notMultipart: 'Send the photo as multipart/form-data.', oneFileOnly: 'Send one photo at a time.',
+    incomplete: 'The photo arrived incomplete. Please try again.',
+  },
+})
+
 /**
  * Receives, checks and stores a photo of one of the garage's inspections. The inspection is loaded by the route
  * first (404 when it is not this garage's). On every path the temporary file is gone; nothing is stored when the
@@ -66,19 +75,7 @@ async function checkedImage(file: ReceivedUpload['file']): Promise<{ data: Buffe
 export async function addInspectionPhoto(inspection: Inspection, author: User, req: IncomingMessage, uploadsDir: string): Promise<InspectionPhotoView> {
   let upload: ReceivedUpload | undefined
   try {
-    upload = await receiveUpload(req, {
-      field: PHOTO_FIELD,
-      tempDir: join(uploadsDir, '.incoming'),
-      maxBytes: PHOTO_LIMITS.maxBytes,
-      maxFields: 6,
-      maxFieldsBytes: 4 * 1024,
-      messages: {
-        tooLarge: TOO_LARGE,
-        notMultipart: 'Send the photo as multipart/form-data.',
-        oneFileOnly: 'Send one photo at a time.',
-        incomplete: 'The photo arrived incomplete. Please try again.',
-      },
-    })
+    upload = await receiveUpload(req, photoIntake(uploadsDir))
     const fields = InspectionPhotoFieldsSchema.safeParse(upload.fields)
     if (!fields.success) throw invalidInput(fieldMessages(fields.error.issues))
     const image = await checkedImage(upload.file)

@@ -169,6 +169,14 @@ describe('the whole check', () => {
     expect(r.overall).toBe('advise')
   })
 
+  it('runout alone is advised but buys nothing (clean the hub, re-check first: common practice); uneven thickness calls for discs and pads', () => {
+    const runout = computeWear({ discs: [{ position: 'front-left', thicknessReadingsMm: [24, 24.01], minThicknessMm: 22, runoutMm: 0.09 }] })
+    expect(runout.overall).toBe('advise')
+    expect(runout.recommendedParts).toEqual([])
+    const uneven = computeWear({ discs: [{ position: 'rear-right', thicknessReadingsMm: [24, 24.1], minThicknessMm: 22 }] })
+    expect(uneven.recommendedParts.map((p) => [p.axle, p.partType, p.verdict])).toEqual([['rear', 'discs', 'advise'], ['rear', 'pads', 'advise']])
+  })
+
   it('brake tester readings become verdicts on the same scale', () => {
     const r = computeWear({ brakeTest: { massKg: 1350, readings: [{ wheel: 'front_left', serviceN: 2000 }, { wheel: 'front_right', serviceN: 3200 }] } })
     expect(r.brakeTest!.imbalancePercent.front).toBeCloseTo(37.5, 9)
