@@ -73,6 +73,7 @@ describe('discs, wheel by wheel', () => {
   })
 
   it('exactly at it: advise, nothing left to wear; above: ok', () => {
+    // COMAR 11.19.03.05 C fails only below the minimum; at it there is no wear left to run on: advise (common practice)
     expect(thickness(disc([22, 22.3])).verdict).toBe('advise')
     expect(thickness(disc([23.5])).verdict).toBe('ok')
   })
@@ -86,6 +87,7 @@ describe('discs, wheel by wheel', () => {
   })
 
   it('refinish minimum and discard are different figures: under the refinish minimum is fine to run, unless it needs machining', () => {
+    // makers stamp the discard figure on the disc and print the machining (refinish) minimum in the manual (common practice)
     const fine = thickness(disc([22.5, 22.51], { refinishMinThicknessMm: 22.8 }))
     expect(fine.verdict).toBe('ok')
     expect(fine.message).toMatch(/can't be machined/)
@@ -132,6 +134,8 @@ describe('pads, wheel by wheel', () => {
 
 describe('drums and shoes', () => {
   it('over the maximum fails; exactly at it is advised and not "worn past"; within the 0.8 mm machining allowance advised', () => {
+    // never beyond the maximum cast into the drum (common practice); a machined drum needs about 0.030 in (0.76 mm) of
+    // allowance below it, taken as 0.8 mm (from memory: drum lathe practice)
     const d = (diameterMm: number) => checkDrum({ position: 'rear-left', diameterMm, maxDiameterMm: 230.1 })
     expect(d(230.5).verdict).toBe('fail')
     expect(d(230.5).message).toMatch(/^Rear left drum: 230\.5 mm is over its maximum/)
@@ -143,6 +147,7 @@ describe('drums and shoes', () => {
   })
 
   it('shoe lining: under 1.5 mm fails, 2 mm or less advised', () => {
+    // MOT Inspection Manual (DVSA) 1.1: a brake lining or pad less than 1.5 mm thick is a failure; 2 mm advised (common practice)
     expect(checkShoes({ position: 'rear-right', liningMm: 1.2 }).verdict).toBe('fail')
     expect(checkShoes({ position: 'rear-right', liningMm: 2 }).verdict).toBe('advise')
     expect(checkShoes({ position: 'rear-right', liningMm: 3 }).message).toMatch(/^Rear right shoes: 3 mm/)
