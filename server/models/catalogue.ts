@@ -32,6 +32,18 @@ export class Vehicle extends Model<InferAttributes<Vehicle>, InferCreationAttrib
   declare pedalRatio: CreationOptional<number | null>
   declare boosterRatio: CreationOptional<number | null>
   declare parkingBrake: CreationOptional<'cable' | 'electric'>
+  // grip and balance (migration 0012): the booster's knee, and per load state mass, centre of gravity, front share
+  declare boosterRunOutKPa: CreationOptional<number | null>
+  declare wheelbaseMm: CreationOptional<number | null>
+  declare cogHeightMm: CreationOptional<number | null>
+  declare frontStaticSharePercent: CreationOptional<number | null>
+  declare ladenMassKg: CreationOptional<number | null>
+  declare ladenCogHeightMm: CreationOptional<number | null>
+  declare ladenFrontSharePercent: CreationOptional<number | null>
+  declare rearValveKneeKPa: CreationOptional<number | null>
+  declare rearValveLadenKneeKPa: CreationOptional<number | null>
+  declare rearValveSlope: CreationOptional<number | null>
+  declare electronicDistribution: CreationOptional<boolean | null>
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
 }
@@ -64,6 +76,8 @@ export class VehicleBrake extends Model<InferAttributes<VehicleBrake>, InferCrea
   declare wheelCylinderBoreMm: CreationOptional<number | null>
   declare maxRunoutMm: CreationOptional<number | null>
   declare maxThicknessVariationMm: CreationOptional<number | null>
+  declare padEdgeMarginMm: CreationOptional<number | null>
+  declare drumShoeLayout: CreationOptional<'leading-trailing' | 'two-leading' | 'duo-servo' | null>
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
 }
@@ -147,7 +161,11 @@ export function initCatalogueModels(sequelize: Sequelize): void {
     id, make: STRING, model: STRING, generation: STRING, body: STRING, yearFrom: INTEGER, yearTo: INTEGER,
     engineCode: STRING, engineCc: INTEGER, fuel: STRING, powerKw: INTEGER, drive: STRING, circuitSplit: STRING,
     fluidGrade: STRING, tyreSize: STRING, kerbMassKg: INTEGER, mcBoreMm: FLOAT, mcTandem: BOOLEAN, mcStrokeMm: FLOAT,
-    pedalRatio: FLOAT, boosterRatio: FLOAT, parkingBrake: STRING, ...stamps,
+    pedalRatio: FLOAT, boosterRatio: FLOAT, parkingBrake: STRING,
+    boosterRunOutKPa: { type: FLOAT, field: 'booster_run_out_kpa' }, wheelbaseMm: INTEGER, cogHeightMm: INTEGER, frontStaticSharePercent: FLOAT,
+    ladenMassKg: INTEGER, ladenCogHeightMm: INTEGER, ladenFrontSharePercent: FLOAT,
+    rearValveKneeKPa: { type: FLOAT, field: 'rear_valve_knee_kpa' }, rearValveLadenKneeKPa: { type: FLOAT, field: 'rear_valve_laden_knee_kpa' },
+    rearValveSlope: FLOAT, electronicDistribution: BOOLEAN, ...stamps,
   }, { sequelize, tableName: 'vehicles' })
   VehicleOption.init({
     id, vehicleId: INTEGER, key: STRING, label: STRING, question: STRING, values: jsonColumn('values', []), ...stamps,
@@ -157,7 +175,7 @@ export function initCatalogueModels(sequelize: Sequelize): void {
     discDiameterMm: FLOAT, discThicknessMm: FLOAT, discMinThicknessMm: FLOAT, discVented: BOOLEAN,
     drumDiameterMm: FLOAT, drumMaxDiameterMm: FLOAT, caliperType: STRING,
     pistonDiametersMm: jsonColumn('pistonDiametersMm', null), wheelCylinderBoreMm: FLOAT,
-    maxRunoutMm: FLOAT, maxThicknessVariationMm: FLOAT, ...stamps,
+    maxRunoutMm: FLOAT, maxThicknessVariationMm: FLOAT, padEdgeMarginMm: FLOAT, drumShoeLayout: STRING, ...stamps,
   }, { sequelize, tableName: 'vehicle_brakes' })
   Part.init({
     id, sku: STRING, type: STRING, productLine: STRING, description: STRING, specs: jsonColumn('specs', {}), status: STRING, ...stamps,

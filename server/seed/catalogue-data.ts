@@ -38,6 +38,7 @@ export interface SeedBrake {
   drumDiameterMm?: number; drumMaxDiameterMm?: number
   caliperType?: 'fixed' | 'floating'; pistonDiametersMm?: number[]; wheelCylinderBoreMm?: number
   maxRunoutMm: number; maxThicknessVariationMm?: number
+  padEdgeMarginMm?: number; drumShoeLayout?: 'leading-trailing' | 'two-leading' | 'duo-servo'
 }
 export interface SeedVehicle {
   key: string
@@ -46,6 +47,10 @@ export interface SeedVehicle {
   circuitSplit: 'front-rear' | 'diagonal'; fluidGrade: string; tyreSize: string; kerbMassKg: number
   mcBoreMm: number; mcTandem: boolean; mcStrokeMm: number; pedalRatio: number; boosterRatio: number | null
   parkingBrake: 'cable' | 'electric'
+  /** Grip and balance figures (vehicleDynamics): typical of the class, invented for the demo. */
+  boosterRunOutKPa: number | null; wheelbaseMm: number; cogHeightMm: number; frontStaticSharePercent: number
+  ladenMassKg: number; ladenCogHeightMm: number; ladenFrontSharePercent: number
+  rearValveKneeKPa: number | null; rearValveLadenKneeKPa: number | null; rearValveSlope: number | null; electronicDistribution: boolean
   options: SeedOption[]
   brakes: SeedBrake[]
 }
@@ -219,6 +224,41 @@ const ENGINES: Record<Size, { code: string; cc: number | null; fuel: string; kw:
   van: [{ code: 'D20L', cc: 1997, fuel: 'diesel', kw: 96 }, { code: 'D20H', cc: 1997, fuel: 'diesel', kw: 125 }, { code: 'E-VN', cc: null, fuel: 'electric', kw: 100 }],
 }
 
+/**
+ * Grip and balance by size, typical of the class and invented for the demo (common practice, from memory): wheelbase,
+ * unladen centre of gravity height and static front axle share (less for rear-wheel drive, more for a front-heavy
+ * van), the payload to the gross mass and what it does to the centre of gravity and the front share, and the
+ * vacuum booster's run-out (knee) pressure.
+ */
+const DYNAMICS: Record<Size, { wheelbaseMm: number; cogHeightMm: number; frontSharePercent: number; payloadKg: number; ladenCogRiseMm: number; ladenShareDrop: number; runOutKPa: number }> = {
+  small: { wheelbaseMm: 2450, cogHeightMm: 530, frontSharePercent: 62, payloadKg: 420, ladenCogRiseMm: 15, ladenShareDrop: 6, runOutKPa: 10000 },
+  medium: { wheelbaseMm: 2640, cogHeightMm: 550, frontSharePercent: 60, payloadKg: 500, ladenCogRiseMm: 15, ladenShareDrop: 6, runOutKPa: 11000 },
+  large: { wheelbaseMm: 2850, cogHeightMm: 540, frontSharePercent: 57, payloadKg: 520, ladenCogRiseMm: 15, ladenShareDrop: 5, runOutKPa: 12000 },
+  suv: { wheelbaseMm: 2800, cogHeightMm: 660, frontSharePercent: 56, payloadKg: 600, ladenCogRiseMm: 25, ladenShareDrop: 6, runOutKPa: 12500 },
+  van: { wheelbaseMm: 3100, cogHeightMm: 700, frontSharePercent: 60, payloadKg: 1000, ladenCogRiseMm: 80, ladenShareDrop: 14, runOutKPa: 12500 },
+}
+
+/**
+ * A vehicle's grip and balance figures from its class, drive and fuel, without drawing on the PRNG (so the rest of
+ * the catalogue stays as it was). Electronic brake-force distribution from 2014 on; before that a rear
+ * pressure-limiting valve, load-sensing on vans (knee 2500 kPa, 5500 kPa laden, slope 0.3: typical, invented).
+ */
+export function vehicleDynamics(size: Size, body: string, drive: 'FWD' | 'RWD' | 'AWD', fuel: string, kerbMassKg: number, yearFrom: number, boosted: boolean) {
+  const d = DYNAMICS[size]
+  const electric = fuel === 'electric'
+  // a floor battery lowers the centre of gravity and evens the axle loads; an MPV carries its third row at the back
+  const cog = d.cogHeightMm - (electric ? 40 : 0)
+  const share = d.frontSharePercent - (drive === 'RWD' ? 4 : drive === 'AWD' ? 1 : 0) - (electric ? 4 : 0) - (body === 'MPV' ? 3 : 0)
+  const valve = size === 'van' || yearFrom < 2014
+  return {
+    boosterRunOutKPa: boosted ? d.runOutKPa : null,
+    wheelbaseMm: d.wheelbaseMm, cogHeightMm: cog, frontStaticSharePercent: share,
+    ladenMassKg: kerbMassKg + d.payloadKg, ladenCogHeightMm: cog + d.ladenCogRiseMm, ladenFrontSharePercent: share - d.ladenShareDrop,
+    rearValveKneeKPa: valve ? 1200 : null, rearValveLadenKneeKPa: size === 'van' ? 5500 : null, rearValveSlope: valve ? 0.3 : null,
+    electronicDistribution: yearFrom >= 2014,
+  }
+}
+
 const DISC_LINES = ['Greywell Standard', 'Greywell Coated', 'Tenfold Performance']
 const PAD_LINES: [string, string][] = [['Greywell Street', 'FF'], ['Ashfall Ceramic', 'FF'], ['Brindle Fleet', 'GG']]
 const SHOE_LINES: [string, string][] = [['Greywell Street', 'EE'], ['Brindle Fleet', 'FF']]
@@ -336,25 +376,29 @@ export function buildCatalogue(seed = 20261101): SeedCatalogue {
           const brakes: SeedBrake[] = []
           for (const i of frontIdx) {
             const fc = platform.front[i]!
-            brakes.push({ axle: 'front', qualifiers: q('front_disc_diameter_mm', String(fc.disc.diameterMm)), kind: 'disc', discDiameterMm: fc.disc.diameterMm, discThicknessMm: fc.disc.thicknessMm, discMinThicknessMm: fc.disc.minThicknessMm, discVented: fc.disc.vented, caliperType: fc.caliper.caliperType, pistonDiametersMm: fc.caliper.pistonDiametersMm, maxRunoutMm: 0.05, maxThicknessVariationMm: 0.015 })
+            brakes.push({ axle: 'front', qualifiers: q('front_disc_diameter_mm', String(fc.disc.diameterMm)), kind: 'disc', discDiameterMm: fc.disc.diameterMm, discThicknessMm: fc.disc.thicknessMm, discMinThicknessMm: fc.disc.minThicknessMm, discVented: fc.disc.vented, caliperType: fc.caliper.caliperType, pistonDiametersMm: fc.caliper.pistonDiametersMm, maxRunoutMm: 0.05, maxThicknessVariationMm: 0.015, padEdgeMarginMm: 2 })
           }
           if (rearKinds.includes('disc')) {
             const rc = platform.rearDisc!
-            brakes.push({ axle: 'rear', qualifiers: q('rear_brake', 'disc'), kind: 'disc', discDiameterMm: rc.disc.diameterMm, discThicknessMm: rc.disc.thicknessMm, discMinThicknessMm: rc.disc.minThicknessMm, discVented: rc.disc.vented, caliperType: 'floating', pistonDiametersMm: rc.caliper.pistonDiametersMm, maxRunoutMm: 0.08, maxThicknessVariationMm: 0.02 })
+            brakes.push({ axle: 'rear', qualifiers: q('rear_brake', 'disc'), kind: 'disc', discDiameterMm: rc.disc.diameterMm, discThicknessMm: rc.disc.thicknessMm, discMinThicknessMm: rc.disc.minThicknessMm, discVented: rc.disc.vented, caliperType: 'floating', pistonDiametersMm: rc.caliper.pistonDiametersMm, maxRunoutMm: 0.08, maxThicknessVariationMm: 0.02, padEdgeMarginMm: 1.5 })
           }
           if (rearKinds.includes('drum')) {
             const dc = platform.rearDrum!
-            brakes.push({ axle: 'rear', qualifiers: q('rear_brake', 'drum'), kind: 'drum', drumDiameterMm: dc.diameterMm, drumMaxDiameterMm: dc.maxDiameterMm, wheelCylinderBoreMm: dc.wcBoreMm, maxRunoutMm: 0.1 })
+            brakes.push({ axle: 'rear', qualifiers: q('rear_brake', 'drum'), kind: 'drum', drumDiameterMm: dc.diameterMm, drumMaxDiameterMm: dc.maxDiameterMm, wheelCylinderBoreMm: dc.wcBoreMm, maxRunoutMm: 0.1, drumShoeLayout: 'leading-trailing' })
           }
           const yearFrom = gen[1] + (ei === 2 && !electric ? 1 : 0)
+          const kerbMassKg = platform.massKg + (electric ? 280 : engine.fuel === 'diesel' ? 60 : 0) + ei * 15
+          const drive = electric && platform.drive === 'FWD' && model.size === 'large' ? 'RWD' : platform.drive
           const vehicle: SeedVehicle = {
             key, make: make.make, model: model.name, generation: gen[0], body: model.body, yearFrom, yearTo: gen[2],
             engineCode: `${make.make.slice(0, 2).toUpperCase()}-${engine.code}`, engineCc: engine.cc, fuel: engine.fuel, powerKw: engine.kw + between(r, -5, 5),
-            drive: electric && platform.drive === 'FWD' && model.size === 'large' ? 'RWD' : platform.drive, circuitSplit: platform.split,
+            drive, circuitSplit: platform.split,
             fluidGrade: model.size === 'small' && gen[1] < 2014 ? 'DOT 4' : pick(r, ['DOT 4', 'DOT 4', 'DOT 5.1']), tyreSize: platform.tyre,
-            kerbMassKg: platform.massKg + (electric ? 280 : engine.fuel === 'diesel' ? 60 : 0) + ei * 15,
+            kerbMassKg,
             mcBoreMm: platform.mcBoreMm, mcTandem: true, mcStrokeMm: platform.mcStrokeMm, pedalRatio: platform.pedalRatio,
-            boosterRatio: electric ? null : platform.boosterRatio, parkingBrake: parkingKinds[0]!, options, brakes,
+            boosterRatio: electric ? null : platform.boosterRatio, parkingBrake: parkingKinds[0]!,
+            ...vehicleDynamics(model.size, model.body, drive, engine.fuel, kerbMassKg, yearFrom, !electric),
+            options, brakes,
           }
           vehicles.push(vehicle)
           const fit = (skus: string[], axle: SeedFitment['axle'], side: SeedFitment['side'], quantity: number, qualifiers: Record<string, string>, note = '') => {

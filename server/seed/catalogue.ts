@@ -11,7 +11,7 @@ import {
 } from '../models/catalogue'
 import { normaliseIdentifier } from '../../shared/schemas/catalogue/params'
 import { parseSpecs } from '../../shared/schemas/catalogue/specs'
-import { buildCatalogue, BORE_MISMATCH } from './catalogue-data'
+import { buildCatalogue, BORE_MISMATCH, type SeedVehicle } from './catalogue-data'
 
 const vehicleKey = (v: { make: string; model: string; generation: string; engineCode: string }) => `${v.make}|${v.model}|${v.generation}|${v.engineCode}`
 const stable = (o: Record<string, string>) => JSON.stringify(Object.fromEntries(Object.entries(o).sort(([a], [b]) => a.localeCompare(b))))
@@ -45,6 +45,7 @@ export async function seedCatalogue(t: Transaction, log: (s: string) => void): P
     for (const v of await Vehicle.findAll({ attributes: ['id', 'make', 'model', 'generation', 'engineCode'], ...opts })) vehicleIds.set(vehicleKey(v), v.id)
   }
   const vid = (seedKey: string) => vehicleIds.get(seedKeyToDb.get(seedKey)!)!
+  await fillVehicleDynamics(data.vehicles, t)
 
   // options and original-equipment brakes
   const haveOptions = new Set((await VehicleOption.findAll({ attributes: ['vehicleId', 'key'], ...opts })).map((o) => `${o.vehicleId}|${o.key}`))
@@ -127,4 +128,19 @@ export async function seedCatalogue(t: Transaction, log: (s: string) => void): P
 
   const makes = new Set(data.vehicles.map((v) => v.make)).size
   log(`catalogue: ${makes} makes, ${data.vehicles.length} vehicles, ${data.parts.length} parts, ${data.fitments.length} fitments, ${data.supersessions.length} supersessions (new rows: ${newVehicles.length} vehicles, ${newParts.length} parts, ${newFit.length} fitments); bore-change pairs: ${BORE_MISMATCH.masterCylinder.make} ${BORE_MISMATCH.masterCylinder.model} master cylinder, ${BORE_MISMATCH.caliper.make} ${BORE_MISMATCH.caliper.model} ${BORE_MISMATCH.caliper.generation} front caliper`)
+}
+
+const DYNAMICS_FIELDS = [
+  'boosterRunOutKPa', 'wheelbaseMm', 'cogHeightMm', 'frontStaticSharePercent', 'ladenMassKg', 'ladenCogHeightMm',
+  'ladenFrontSharePercent', 'rearValveKneeKPa', 'rearValveLadenKneeKPa', 'rearValveSlope', 'electronicDistribution',
+] as const
+
+/** Vehicles seeded before their grip and balance figures existed get them; vehicles that have them are left alone. */
+async function fillVehicleDynamics(vehicles: SeedVehicle[], t: Transaction): Promise<void> {
+  const bare = await Vehicle.findAll({ where: { wheelbaseMm: null }, attributes: ['id', 'make', 'model', 'generation', 'engineCode'], transaction: t })
+  const byKey = new Map(vehicles.map((v) => [vehicleKey(v), v]))
+  for (const row of bare) {
+    const seed = byKey.get(vehicleKey(row))
+    if (seed) await row.update(Object.fromEntries(DYNAMICS_FIELDS.map((f) => [f, seed[f]])), { transaction: t })
+  }
 }

@@ -21,6 +21,7 @@ import { invalidInput, notFound } from './errors'
 import { cataloguePartsFor, vehicleLabel } from './inspections'
 import { garageVehicleOf } from './garage-vehicles/register'
 import { noteOdometerText } from './garage-vehicles/odometer'
+import { photosOf } from './inspection-photos'
 
 const VEHICLE_AND_AUTHOR: Includeable[] = [
   { model: Vehicle, as: 'vehicle', attributes: ['id', 'make', 'model', 'generation', 'yearFrom', 'yearTo'] },
@@ -42,14 +43,15 @@ export function inspectionSummary(row: Inspection): InspectionSummary {
   }
 }
 
-/** The full record: readings, verdicts and the catalogue parts recommended. */
-export function inspectionDetail(row: Inspection): InspectionDetail {
+/** The full record: readings, verdicts, the catalogue parts recommended and the photos of its findings. */
+export function inspectionDetail(row: Inspection, photos: InspectionDetail['photos'] = []): InspectionDetail {
   return {
     ...inspectionSummary(row),
     answers: row.answers ?? {},
     wearInput: row.wearInput,
     result: row.result,
     recommendedParts: row.recommendedParts ?? [],
+    photos,
   }
 }
 
@@ -67,7 +69,7 @@ export function listInspections(organisationId: number, query: InspectionListQue
 export async function findInspection(organisationId: number, id: number): Promise<InspectionDetail> {
   const row = await Inspection.findOne({ where: { id, organisationId }, include: VEHICLE_AND_AUTHOR })
   if (!row) throw notFound('Inspection')
-  return inspectionDetail(row)
+  return inspectionDetail(row, await photosOf(row.id))
 }
 
 export interface InspectionInput {

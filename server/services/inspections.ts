@@ -1,6 +1,7 @@
 /**
- * From wear verdicts to catalogue parts: for each part type an inspection recommends per axle, the parts the
- * catalogue lists as fitting that vehicle on that axle, honouring the option answers given. Plain Node.
+ * From wear verdicts to catalogue parts: for each part type an inspection recommends per axle (and side, for parts
+ * made left and right), the parts the catalogue lists as fitting that vehicle there, honouring the option answers
+ * given. Plain Node.
  */
 import { Op, type Transaction } from 'sequelize'
 import { Fitment, Part, VehicleOption, type Vehicle } from '../models/catalogue'
@@ -70,6 +71,8 @@ export async function cataloguePartsFor(
       if (part.type !== catalogueType) continue
       const axle = String(f.axle ?? '').toLowerCase()
       if (rec.axle !== 'system' && axle !== rec.axle && !WHOLE_VEHICLE_AXLES.has(axle)) continue
+      // a part judged at one wheel (a hose, a caliper) is that side's part, or one made for either side
+      if (rec.side && f.side && f.side !== 'pair' && f.side !== rec.side) continue
       const match = qualifierCondition(f.qualifiers, answers, options)
       if (!match.fits) continue
       if (parts.some((p) => p.partId === part.id)) continue

@@ -25,8 +25,6 @@ export const PREFILL_DEFAULTS = {
   pedalForceN: 300,
   /** Friction coefficient when no pad's SAE J866 code is known (common practice, mid F range). */
   frictionCoefficient: 0.38,
-  /** Leading/trailing shoe drum brake factor C* for both shoes (common practice). */
-  drumBrakeFactor: 2.0,
   /** Suspended pedal ratio when the vehicle data has none (common practice, typical 3-5:1). */
   pedalRatio: 4,
   /** Vacuum booster ratio when the vehicle data has none (common practice estimate). */
@@ -54,9 +52,10 @@ function chooseBrake(rows: VehicleBrake[], axle: AxleName, answers: Answers, opt
 }
 
 interface Friction { mu: number; text: string | null }
+interface PadData { sku: string; code: string; heightMm: number | null }
 
 /** μ for an axle from the SAE J866 code of the pad sets listed for it (first by SKU), else the stated default. */
-function frictionFor(axle: AxleName, pads: { sku: string; code: string }[]): Friction {
+function frictionFor(axle: AxleName, pads: PadData[]): Friction {
   for (const p of pads) {
     try {
       const code = parseFrictionCode(p.code)
@@ -70,14 +69,40 @@ function frictionFor(axle: AxleName, pads: { sku: string; code: string }[]): Fri
   return { mu: PREFILL_DEFAULTS.frictionCoefficient, text: null }
 }
 
-function axleFromBrake(brake: VehicleBrake, mu: number, tyreSize: string | undefined): Draft {
+/** The radial height of the axle's pads (first pad set by SKU that has one), for the effective radius. */
+function padHeightFor(pads: PadData[]): { heightMm: number; sku: string } | null {
+  const pad = pads.find((p) => p.heightMm !== null)
+  return pad ? { heightMm: pad.heightMm!, sku: pad.sku } : null
+}
+
+function axleFromBrake(brake: VehicleBrake, mu: number, tyreSize: string | undefined, padHeightMm: number | undefined): Draft {
   const tyre = tyreSize ? { tyreSize } : {}
   if (brake.kind === 'drum') {
-    return { kind: 'drum', wheelCylinderBoreMm: brake.wheelCylinderBoreMm ?? undefined, drumDiameterMm: brake.drumDiameterMm ?? undefined, brakeFactor: PREFILL_DEFAULTS.drumBrakeFactor, ...tyre }
+    // the layout's typical brake factor is the library's (shoe-layouts.ts), stated in its assumptions
+    return { kind: 'drum', wheelCylinderBoreMm: brake.wheelCylinderBoreMm ?? undefined, drumDiameterMm: brake.drumDiameterMm ?? undefined, shoeLayout: brake.drumShoeLayout ?? undefined, ...tyre }
   }
   return {
     kind: 'disc', caliper: brake.caliperType ?? undefined, pistonDiametersMm: brake.pistonDiametersMm ?? undefined,
-    discDiameterMm: brake.discDiameterMm ?? undefined, frictionCoefficient: mu, ...tyre,
+    discDiameterMm: brake.discDiameterMm ?? undefined, frictionCoefficient: mu,
+    ...(padHeightMm !== undefined ? { padHeightMm } : {}), ...(brake.padEdgeMarginMm != null ? { edgeMarginMm: brake.padEdgeMarginMm } : {}), ...tyre,
+  }
+}
+
+/**
+ * The vehicle block of the check (mass, wheelbase, centre of gravity, front share, laden state, rear valve,
+ * electronic distribution) when the data has it; null otherwise.
+ */
+function vehicleData(v: Vehicle): Draft | null {
+  if (v.kerbMassKg == null || v.wheelbaseMm == null || v.cogHeightMm == null || v.frontStaticSharePercent == null) return null
+  const laden = v.ladenMassKg != null && v.ladenCogHeightMm != null && v.ladenFrontSharePercent != null
+    ? { laden: { massKg: v.ladenMassKg, cogHeightMm: v.ladenCogHeightMm, frontStaticSharePercent: v.ladenFrontSharePercent } }
+    : {}
+  const valve = v.rearValveKneeKPa != null && v.rearValveSlope != null
+    ? { rearValve: { kneeKPa: v.rearValveKneeKPa, slope: v.rearValveSlope, ...(v.rearValveLadenKneeKPa != null ? { ladenKneeKPa: v.rearValveLadenKneeKPa } : {}) } }
+    : {}
+  return {
+    massKg: v.kerbMassKg, wheelbaseMm: v.wheelbaseMm, cogHeightMm: v.cogHeightMm, frontStaticSharePercent: v.frontStaticSharePercent,
+    ...laden, ...valve, ...(v.electronicDistribution != null ? { electronicDistribution: v.electronicDistribution } : {}),
   }
 }
 
@@ -166,13 +191,15 @@ export async function buildPrefill(vehicleId: number, sku: string | undefined, g
   const padsFor = (axle: AxleName) => padSets
     .filter((f) => f.axle === axle && matchQualifiers(f.qualifiers ?? {}, answers) !== 'excluded')
     .map((f) => (f as Fitment & { part: Part }).part)
-    .map((p) => ({ sku: p.sku, code: String((p.specs as Record<string, unknown>)?.frictionCode ?? '') }))
+    .map((p): PadData => {
+      const specs = (p.specs ?? {}) as Record<string, unknown>
+      return { sku: p.sku, code: String(specs.frictionCode ?? ''), heightMm: typeof specs.heightMm === 'number' ? specs.heightMm : null }
+    })
     .sort((a, b) => a.sku.localeCompare(b.sku))
 
   const axles: Record<AxleName, Draft> = { front: {}, rear: {} }
   const chosen: Record<AxleName, VehicleBrake | null> = { front: null, rear: null }
   let defaultMu = false
-  let drumFactor = false
   for (const name of ['front', 'rear'] as const) {
     const brake = chooseBrake(brakes, name, answers, options, notes)
     chosen[name] = brake
@@ -180,16 +207,18 @@ export async function buildPrefill(vehicleId: number, sku: string | undefined, g
       missing.push({ field: `axles.${name}`, message: `The catalogue has no original ${name} brake for this vehicle: enter it by hand.` })
       continue
     }
-    const friction = frictionFor(name, padsFor(name))
+    const pads = padsFor(name)
+    const friction = frictionFor(name, pads)
+    const height = brake.kind === 'disc' ? padHeightFor(pads) : null
     if (brake.kind === 'disc') {
       if (friction.text) assumptions.push(friction.text)
       else defaultMu = true
-    } else drumFactor = true
-    axles[name] = axleFromBrake(brake, friction.mu, tyre)
+      if (height) assumptions.push(`Pad height ${height.heightMm} mm on the ${name} axle from pad set ${height.sku}${brake.padEdgeMarginMm != null ? `, edge margin ${brake.padEdgeMarginMm} mm from the vehicle data` : ''}.`)
+    }
+    axles[name] = axleFromBrake(brake, friction.mu, tyre, height?.heightMm)
     missingFields(`axles.${name}`, axles[name], missing)
   }
   if (defaultMu) assumptions.push(`Friction coefficient ${PREFILL_DEFAULTS.frictionCoefficient} where no pad set with an SAE J866 code is listed (common practice).`)
-  if (drumFactor) assumptions.push(`Drum brake factor ${PREFILL_DEFAULTS.drumBrakeFactor} for leading/trailing shoes (common practice): the maker's figure depends on shoe layout and lining.`)
 
   const masterCylinder: Draft = {
     boreMm: vehicle.mcBoreMm ?? undefined,
@@ -200,15 +229,25 @@ export async function buildPrefill(vehicleId: number, sku: string | undefined, g
   assumptions.push(`Pedal force ${PREFILL_DEFAULTS.pedalForceN} N: a firm stop (common practice); FMVSS No. 135 allows up to 500 N for its service stop.`)
   if (vehicle.pedalRatio == null) assumptions.push(`Pedal ratio ${PREFILL_DEFAULTS.pedalRatio}:1, not in the vehicle data (common practice).`)
   if (vehicle.boosterRatio == null) assumptions.push(`Booster ratio ${PREFILL_DEFAULTS.boosterRatio}:1, not in the vehicle data (common practice estimate).`)
-  if (vehicle.kerbMassKg) assumptions.push(`Vehicle mass ${vehicle.kerbMassKg} kg: kerb mass from the vehicle data (no driver or load).`)
+  const dynamics = vehicleData(vehicle)
+  if (dynamics) {
+    assumptions.push(
+      `Vehicle ${vehicle.kerbMassKg} kg unladen (kerb mass)${vehicle.ladenMassKg != null ? `, ${vehicle.ladenMassKg} kg laden` : ''}; wheelbase, centre of gravity height and static front share from the vehicle data (typical of the class).`,
+    )
+  } else {
+    if (vehicle.kerbMassKg) assumptions.push(`Vehicle mass ${vehicle.kerbMassKg} kg: kerb mass from the vehicle data (no driver or load).`)
+    notes.push('The vehicle data has no wheelbase, centre of gravity or axle loads: enter them to see which axle locks first.')
+  }
+  if (vehicle.boosterRatio != null && vehicle.boosterRunOutKPa != null) assumptions.push(`Booster run-out ${vehicle.boosterRunOutKPa} kPa from the vehicle data (typical of the class).`)
 
   const hydraulics: Draft = {
     pedalForceN: PREFILL_DEFAULTS.pedalForceN,
     pedalRatio: vehicle.pedalRatio ?? PREFILL_DEFAULTS.pedalRatio,
     boosterRatio: vehicle.boosterRatio ?? PREFILL_DEFAULTS.boosterRatio,
+    ...(vehicle.boosterRatio != null && vehicle.boosterRunOutKPa != null ? { boosterRunOutKPa: vehicle.boosterRunOutKPa } : {}),
     masterCylinder,
     split: vehicle.circuitSplit,
-    ...(vehicle.kerbMassKg ? { massKg: vehicle.kerbMassKg } : {}),
+    ...(dynamics ? { vehicle: dynamics } : vehicle.kerbMassKg ? { massKg: vehicle.kerbMassKg } : {}),
     axles,
   }
 

@@ -5,6 +5,7 @@
  */
 import { z } from 'zod'
 import type { PartType, RecommendedPart, WearInput, WearResult } from '../utils/brake'
+import { WHEEL_POSITIONS } from '../utils/brake/wear-schemas'
 import { QualifiersSchema } from './parts'
 import { PageQuerySchema } from './page'
 
@@ -15,6 +16,9 @@ export const CATALOGUE_TYPE_OF: Record<PartType, string> = {
   drums: 'drum',
   shoes: 'shoe_set',
   'brake-fluid': 'fluid',
+  hoses: 'hose',
+  calipers: 'caliper',
+  'wheel-cylinders': 'wheel_cylinder',
 }
 
 /** POST /api/inspections */
@@ -41,6 +45,36 @@ export type InspectionListQuery = z.infer<typeof InspectionListQuerySchema>
 
 /** GET /api/inspections/:id */
 export const InspectionParamsSchema = z.object({ id: z.coerce.number().int().positive() })
+
+/** What a photo can show: the part of the wheel (or of the system) a finding is about (WearSubject). */
+export const PHOTO_SUBJECTS = ['disc', 'pads', 'drum', 'shoes', 'hose', 'pipe', 'caliper', 'wheel-cylinder', 'leak', 'parking-brake', 'fluid'] as const
+export const PHOTO_POSITIONS = [...WHEEL_POSITIONS, 'system'] as const
+export type PhotoSubject = (typeof PHOTO_SUBJECTS)[number]
+export type PhotoPosition = (typeof PHOTO_POSITIONS)[number]
+
+/** Photos are resized in the browser to at most `maxEdgePx` before upload; the server refuses more than `maxBytes`. */
+export const PHOTO_LIMITS = { maxBytes: 4 * 1024 * 1024, maxEdgePx: 1600, perInspection: 24 } as const
+
+/** The text fields beside the file of POST /api/inspections/:id/photos (multipart). */
+export const InspectionPhotoFieldsSchema = z.object({
+  position: z.enum(PHOTO_POSITIONS, { error: 'Choose the wheel the photo shows.' }),
+  subject: z.enum(PHOTO_SUBJECTS, { error: 'Choose what the photo shows.' }),
+  caption: z.string({ error: 'Caption must be text.' }).trim().max(140, 'Caption is at most 140 characters.').default(''),
+}).strict()
+
+/** GET / DELETE /api/inspections/:id/photos/:photoId */
+export const InspectionPhotoParamsSchema = z.object({ id: z.coerce.number().int().positive(), photoId: z.coerce.number().int().positive() })
+
+export interface InspectionPhotoView {
+  id: number
+  position: PhotoPosition
+  subject: PhotoSubject
+  caption: string
+  bytes: number
+  createdAt: string
+  /** Where the garage reads it. */
+  url: string
+}
 
 /** One catalogue part that fits the vehicle for a recommendation. */
 export interface RecommendedCataloguePart {
@@ -80,4 +114,5 @@ export interface InspectionDetail extends InspectionSummary {
   wearInput: WearInput
   result: WearResult
   recommendedParts: InspectionRecommendation[]
+  photos: InspectionPhotoView[]
 }

@@ -161,6 +161,8 @@ export type OwnerQuoteLine = Pick<QuoteLineView,
   declineStatement: string | null
   /** after the decision: what the owner signed when declining it */
   declineAcknowledgement: DeclineAcknowledgement | null
+  /** photos of the inspection findings this line puts right (GET /api/quote-links/:token/photos/:id) */
+  photos: { id: number; where: string; caption: string }[]
 }
 
 /** The owner's view through the link: nothing of the garage beyond its name, contact and this quote. */

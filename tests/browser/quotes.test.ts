@@ -60,8 +60,8 @@ describe('a quote from the workshop to the owner\'s phone', () => {
     quoteUrl = new URL(page.url()).pathname
     const table = page.locator('table')
     await table.waitFor()
-    expect(await table.getByText('Required for safety').count()).toBeGreaterThanOrEqual(2) // discs and pads
-    expect(await table.getByText('Advised').count()).toBeGreaterThanOrEqual(1) // the fluid
+    expect(await table.getByText('Fix now').count()).toBeGreaterThanOrEqual(2) // discs and pads
+    expect(await table.getByText('Fix soon').count()).toBeGreaterThanOrEqual(1) // the fluid
     // technicians do not see the garage's trade prices (Millbrook's setting)
     expect(await page.getByRole('columnheader', { name: 'Markup' }).count()).toBe(0)
 
@@ -120,7 +120,7 @@ describe('a quote from the workshop to the owner\'s phone', () => {
     expect(count).toBeGreaterThanOrEqual(4)
     const live = async () => page.locator('[data-owner-live-total]').textContent()
     // required lines start approved; declining one opens what that means, to tick and sign
-    const required = lines.filter({ hasText: 'Required for safety' }).first()
+    const required = lines.filter({ hasText: 'Fix now' }).first()
     expect(await required.getByRole('radio', { name: 'Approve' }).getAttribute('aria-checked')).toBe('true')
     const withRequired = await live()
     await required.getByRole('radio', { name: 'Decline' }).tap()
@@ -130,7 +130,7 @@ describe('a quote from the workshop to the owner\'s phone', () => {
     expect(await live()).not.toBe(withRequired)
     expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390)
     // the total follows the choices
-    const advised = lines.filter({ hasText: 'Advised' }).first()
+    const advised = lines.filter({ hasText: 'Fix soon' }).first()
     await advised.getByRole('radio', { name: 'Approve' }).tap()
     const withAdvised = await live()
     await advised.getByRole('radio', { name: 'Decline' }).tap()

@@ -46,7 +46,7 @@ describe('GET /api/quotes/:id/pdf', () => {
     expect(text).toContain('Millbrook Motor Works')
     expect(text).toContain('PD12 FTX')
     expect(text).toContain('Fit caliper and bleed the brakes')
-    expect(text).toContain('Required for safety')
+    expect(text).toContain('Fix now')
     // the garage carries the core deposit unless it passes it on
     expect(text).toContain('Deposit carried by the garage')
     expect(text).toContain(gbp(quote.totals.netMinor))

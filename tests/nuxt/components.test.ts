@@ -20,7 +20,7 @@ describe('SafetyCaution', () => {
 })
 
 describe('VerdictBadge', () => {
-  it.each([['ok', 'OK'], ['advise', 'Advise'], ['fail', 'Fail']] as const)('shows %s in words, not colour alone', async (verdict, text) => {
+  it.each([['ok', 'Sound'], ['advise', 'Fix soon'], ['fail', 'Fix now']] as const)('shows %s in the words of the severity scale, not colour alone', async (verdict, text) => {
     const w = await mountSuspended(VerdictBadge, { props: { verdict } })
     expect(w.text()).toBe(text)
     expect(w.get('span').attributes('data-verdict')).toBe(verdict)

@@ -51,7 +51,8 @@ export async function addInspectionLines(
   // the owner reads the reasons: in plain words where the check has them
   const plain = new Map((inspection.result?.items ?? []).map((i) => [i.message, plainFinding(i)]))
   for (const [index, rec] of recs.entries()) {
-    const what = `${rec.axle === 'system' ? 'Brake system' : `${rec.axle[0]!.toUpperCase()}${rec.axle.slice(1)} axle`}: ${rec.partType.replace('-', ' ')}`
+    const where = rec.axle === 'system' ? 'Brake system' : `${rec.axle[0]!.toUpperCase()}${rec.axle.slice(1)} ${rec.side ?? 'axle'}`
+    const what = `${where}: ${rec.partType.replace('-', ' ')}`
     const choice = choices.find((c) => c.index === index)
     if (choice && choice.sku === null) { skipped.push({ index, what, why: 'left out by choice' }); continue }
     const pick = choice?.sku

@@ -4,7 +4,7 @@
  */
 import { Organisation, User } from '../../models/accounts'
 import type { Quote } from '../../models/quotes'
-import { QUOTE_SAFETY_CAUTION } from '../../../shared/utils/quote-wording'
+import { QUOTE_SAFETY_CAUTION, RECOMMENDATION_WORDS } from '../../../shared/utils/quote-wording'
 import { quotePdf, type QuoteOutput } from './document'
 import { ownerView } from './owner-view'
 import { quotePdfName, quoteReference } from './references'
@@ -22,7 +22,7 @@ export async function mailQuoteToOwner(q: Quote, token: string, out: QuoteOutput
     `Hello ${q.ownerName},`,
     '',
     `${garage} has prepared a quote for your ${view.vehicle}${plate(q)}: ${quoteReference(q)}, ${money(view.totals.grossMinor)} including tax.`,
-    required ? `${required} of the lines ${required === 1 ? 'is' : 'are'} marked as required for safety.` : '',
+    required ? `${required} of the lines ${required === 1 ? 'is' : 'are'} marked "${RECOMMENDATION_WORDS.required}": needed for the brakes to be safe.` : '',
     '',
     ...(view.messageToOwner ? [`A note from ${garage}:`, view.messageToOwner, ''] : []),
     'Open this link to see each line, approve or decline it, and sign:',

@@ -13,6 +13,7 @@ import { acknowledgementOf, coreRefundOf } from './garage-view'
 import { quoteReference } from './references'
 import { hoursOf, iso, isDecidable, isDecided, linesOf, quoteFigures } from './rows'
 import { settingsOf } from './settings'
+import { photosForLines } from '../inspection-photos'
 
 export async function ownerView(q: Quote, currency: string, t?: Transaction): Promise<OwnerQuoteView> {
   const [lines, org, settings] = await Promise.all([
@@ -22,6 +23,7 @@ export async function ownerView(q: Quote, currency: string, t?: Transaction): Pr
   ])
   const { status, lineOf, totals, approvedTotals, quoted, approved } = quoteFigures(q, lines)
   // a deposit's 0 % is not a rate the owner pays: name the one rate when there is one
+  const photos = await photosForLines({ organisationId: q.organisationId, inspectionId: q.inspectionId ?? null }, lines, t)
   const rates = quoted.byRate.map((r) => r.taxBp).filter((bp) => bp > 0)
   return {
     state: status === 'superseded' ? 'superseded' : isDecided(status) ? 'decided' : 'open',
@@ -37,7 +39,7 @@ export async function ownerView(q: Quote, currency: string, t?: Transaction): Pr
     findings: q.findings ?? [],
     messageToOwner: q.messageToOwner ?? '',
     terms: settings.quoteTerms,
-    lines: lines.map((l) => ownerLine(l, lineOf(l))),
+    lines: lines.map((l) => ({ ...ownerLine(l, lineOf(l)), photos: photos.get(l.id) ?? [] })),
     totals,
     approvedTotals,
     taxByRate: quoted.byRate,
@@ -48,7 +50,7 @@ export async function ownerView(q: Quote, currency: string, t?: Transaction): Pr
 }
 
 /** One line for the owner: no trade price, markup or stock; for a required line, what declining it means. */
-function ownerLine(l: QuoteLine, f: TotalsLine): OwnerQuoteLine {
+function ownerLine(l: QuoteLine, f: TotalsLine): Omit<OwnerQuoteLine, 'photos'> {
   const decidable = isDecidable(l)
   const needsAcknowledgement = decidable && l.recommendation === 'required'
   return {

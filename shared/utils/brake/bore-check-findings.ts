@@ -1,10 +1,8 @@
 /**
  * The findings of a bore check in plain words, ordered by severity: about one system on its own (stroke, circuit
- * split, share), about the replacement against the original (balance, pedal feel, torque, travel, ports) and about
- * stopping (FMVSS No. 135 service stop and circuit failure).
+ * split, share, booster knee, pad data) and about the replacement against the original (balance, pedal feel,
+ * torque, travel, ports). Grip, the order of locking and stopping are in bore-check-balance.ts.
  */
-import type { CircuitFailureResult } from './circuit'
-import { FMVSS_135, stoppingDistanceM } from './circuit'
 import type { Comparison } from './comparison'
 import type { BrakeSystem, ChainResult } from './hydraulics'
 import { DEFAULT_PISTON_TRAVEL_MM } from './hydraulics'
@@ -99,8 +97,9 @@ export function systemFindings(
         'the circuits would not be separated as designed. Use a master cylinder made for this split.',
     })
   }
-  // Under half the braking on the front axle is unusual for a road vehicle (common practice).
-  if (chain.frontSharePercent < 50) {
+  // Under half the braking on the front axle is unusual for a road vehicle (common practice). With vehicle data
+  // the order of locking says it better (bore-check-balance.ts).
+  if (chain.frontSharePercent < 50 && chain.adhesion === null) {
     findings.push({
       severity: 'warning',
       code: 'front-share-low',
@@ -110,6 +109,30 @@ export function systemFindings(
     })
   }
 
+  if (scope.masterCylinder && chain.boosterRunOutKPa === null && system.boosterRatio > 1) {
+    findings.push({
+      severity: 'info',
+      code: 'booster-run-out-unknown',
+      message: 'The booster\'s run-out pressure is not known, so it is taken as a fixed ratio at any pedal force: pressures past its knee are overstated.',
+    })
+  }
+  if (scope.masterCylinder && chain.pastKnee && chain.kneePedalForceN !== null) {
+    findings.push({
+      severity: 'info',
+      code: 'booster-past-knee',
+      message: `${subject} is past the booster's knee (${fmt(chain.kneePedalForceN, 0)} N pedal force): extra pedal force adds pressure through the pedal ratio alone, so the pedal feels much harder from there.`,
+    })
+  }
+  for (const name of ['front', 'rear'] as const) {
+    const sweep = chain.axles[name].padSweep
+    if (scope[name] && chain.axles[name].effectiveRadiusSource === 'pad-uniform-wear' && sweep?.padHeightSource === 'estimated') {
+      findings.push({
+        severity: 'info',
+        code: 'pad-height-estimated',
+        message: `No pad height for the ${name} axle (${who}): a fifth of the disc diameter (${fmt(sweep.padHeightMm)} mm) is assumed, so its effective radius (${fmt(chain.axles[name].effectiveRadiusMm)} mm) and torque are estimates.`,
+      })
+    }
+  }
   if (chain.shareBasis === 'torque') {
     findings.push({
       severity: 'info',
@@ -223,41 +246,6 @@ export function comparisonFindings(
         `The replacement master cylinder has ${after.ports} ports, the original ${before.ports}: the brake lines won't connect as before. ` +
         'Never join the two circuits together to make them fit.',
     })
-  }
-  return findings
-}
-
-/** Findings from the circuit-failure check and the FMVSS No. 135 service-stop comparison. */
-export function stoppingFindings(
-  chain: ChainResult,
-  failures: CircuitFailureResult[],
-  pedalForceN: number,
-  who: 'original' | 'replacement',
-): BoreCheckFinding[] {
-  const findings: BoreCheckFinding[] = []
-  const service = FMVSS_135.service
-  if (chain.decelerationMps2 !== null && pedalForceN <= service.maxPedalForceN) {
-    const distance = stoppingDistanceM(service.speedKmh, chain.decelerationMps2)
-    if (distance > service.distanceM) {
-      findings.push({
-        severity: 'danger',
-        code: 'service-stop-short',
-        message:
-          `At ${fmt(pedalForceN, 0)} N pedal force the ${who} system gives ${fmt(chain.decelerationMps2, 2)} m/s², ` +
-          `a theoretical stop from 100 km/h of ${fmt(distance, 0)} m: more than the ${service.distanceM} m of FMVSS No. 135 S7.5.`,
-      })
-    }
-  }
-  for (const f of failures) {
-    if (f.meetsReference === false) {
-      findings.push({
-        severity: 'warning',
-        code: 'circuit-failure-short',
-        message:
-          `${f.label} (${who}): ${fmt(f.remainingSharePercent)} % of the braking remains, a theoretical stop from 100 km/h of ` +
-          `${fmt(f.stoppingDistanceFrom100KmhM ?? 0, 0)} m, more than the ${f.reference.distanceM} m partial-failure figure (FMVSS No. 135 S7.10, from memory).`,
-      })
-    }
   }
   return findings
 }

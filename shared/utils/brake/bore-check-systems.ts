@@ -12,7 +12,10 @@ export function originalSystem(input: HydraulicsInput): BrakeSystem {
     pedalForceN: input.pedalForceN,
     pedalRatio: input.pedalRatio,
     boosterRatio: input.boosterRatio,
+    boosterRunOutKPa: input.boosterRunOutKPa,
+    tyreRoadFriction: input.tyreRoadFriction,
     massKg: input.massKg,
+    vehicle: input.vehicle,
     split: input.split,
     masterCylinder: input.masterCylinder,
     axles: input.axles,
@@ -30,7 +33,8 @@ export interface ResolvedReplacement {
 /**
  * Builds the replacement system: replaced parts from `input.replacement`, everything else from the original.
  * Fields a replacement part leaves out that belong to the vehicle (tyres) or are likely unchanged (stroke,
- * ports, piston travel) are taken from the original and listed in `inherited`.
+ * ports, piston travel, and the pad's height and edge margin on the same disc) are taken from the original and
+ * listed in `inherited`.
  */
 export function resolveReplacement(input: HydraulicsInput): ResolvedReplacement | null {
   const rep = input.replacement
@@ -70,6 +74,15 @@ export function resolveReplacement(input: HydraulicsInput): ResolvedReplacement 
     if (merged.pistonTravelMm === undefined && original.pistonTravelMm !== undefined && merged.kind === original.kind) {
       merged.pistonTravelMm = original.pistonTravelMm
       inherited.push(`axles.${name}.pistonTravelMm`)
+    }
+    // a new caliper on the same disc sweeps the same annulus with the same pads
+    if (merged.kind === 'disc' && original.kind === 'disc' && merged.discDiameterMm === original.discDiameterMm) {
+      for (const key of ['padHeightMm', 'edgeMarginMm'] as const) {
+        if (merged[key] === undefined && original[key] !== undefined) {
+          merged[key] = original[key]
+          inherited.push(`axles.${name}.${key}`)
+        }
+      }
     }
     return merged
   }

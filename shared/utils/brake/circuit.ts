@@ -4,45 +4,14 @@
  * Front/rear split: a failed circuit leaves one axle only. Diagonal split: each circuit holds one front wheel and
  * the opposite rear wheel, so about half the braking stays, with a side-to-side pull per circuit.
  * The intact circuit is assumed to reach the same line pressure as before (theoretical; in practice the pedal
- * first travels further while the tandem master cylinder piston takes up the failed side).
+ * first travels further while the tandem master cylinder piston takes up the failed side). The wheels still braking
+ * can only use the friction of the load on them (failedCircuitGripRate).
  */
-import type { CircuitSplit, WheelPosition } from './schemas'
+import type { CircuitSplit, VehicleData } from './schemas'
+import type { WheelPosition } from './wear-schemas'
 import type { ChainResult } from './hydraulics'
 import { STANDARD_GRAVITY_MPS2 } from './units'
-
-/** A stopping-distance figure from FMVSS No. 135 (49 CFR 571.135), used for comparison only. */
-export interface StoppingReference {
-  source: string
-  speedKmh: number
-  distanceM: number
-  maxPedalForceN: number
-  /**
-   * v² / (2 s): the mean deceleration if the whole distance were spent braking at a constant rate. The regulation's
-   * distance also covers brake build-up, so a real vehicle needs a little more than this.
-   */
-  meanDecelerationMps2: number
-}
-
-function reference(source: string, speedKmh: number, distanceM: number, maxPedalForceN: number): StoppingReference {
-  const v = speedKmh / 3.6
-  return { source, speedKmh, distanceM, maxPedalForceN, meanDecelerationMps2: (v * v) / (2 * distanceM) }
-}
-
-/** FMVSS No. 135 figures at 100 km/h. */
-export const FMVSS_135 = {
-  /** S7.5 cold effectiveness: stop from 100 km/h within 70 m at ≤ 500 N pedal force (49 CFR 571.135 S7.5). */
-  service: reference('FMVSS No. 135 S7.5 (49 CFR 571.135): 70 m from 100 km/h, pedal force ≤ 500 N', 100, 70, 500),
-  /**
-   * S7.10 hydraulic circuit failure: 168 m from 100 km/h at ≤ 500 N pedal force (0.10 V + 0.0158 V²).
-   * from memory: not confirmed against the regulation text at hand.
-   */
-  partialFailure: reference(
-    'FMVSS No. 135 S7.10 (49 CFR 571.135), from memory: 168 m from 100 km/h with one circuit failed, pedal force ≤ 500 N',
-    100,
-    168,
-    500,
-  ),
-} as const
+import { FMVSS_135, fmvssStoppingDistanceM, type StoppingReference } from './stopping'
 
 export type CircuitId = 'front' | 'rear' | 'front-left-rear-right' | 'front-right-rear-left'
 
@@ -56,10 +25,10 @@ export interface CircuitFailureResult {
   /** Share of the intact system's braking that remains, %. */
   remainingSharePercent: number
   remainingBrakingForceN: number | null
-  /** Theoretical deceleration at the given pedal force, m/s²; null without mass or rolling radii. */
+  /** Deceleration at the given pedal force (capped by the grip of the wheels still braking), m/s²; null without mass or rolling radii. */
   decelerationMps2: number | null
   decelerationG: number | null
-  /** Theoretical stop from 100 km/h at that constant deceleration (no build-up time), m. */
+  /** Theoretical stop from 100 km/h at that deceleration, with FMVSS No. 135's 0.10 V build-up term, m. */
   stoppingDistanceFrom100KmhM: number | null
   reference: StoppingReference
   /** True/false when comparable (mass known and pedal force within the reference's limit); otherwise null. */
@@ -67,28 +36,37 @@ export interface CircuitFailureResult {
   notes: string[]
 }
 
-/** Theoretical stopping distance (m) from `speedKmh` at a constant deceleration (m/s²): s = v² / (2 a). */
-export function stoppingDistanceM(speedKmh: number, decelerationMps2: number): number {
-  const v = speedKmh / 3.6
-  return (v * v) / (2 * decelerationMps2)
+/**
+ * The most a failed system can decelerate before its braked wheels slide: the friction μ times the load on the
+ * wheels still braking, as a share of the weight. One axle braking: z = μ ψ / (1 − μ χ) front, μ (1 − ψ) / (1 + μ χ)
+ * rear, with ψ the static front share and χ = h / E (the load transfer of vehicle-load.ts solved for z); one
+ * front and the opposite rear wheel: half the weight, z = μ / 2. Without vehicle data an axle is capped at μ.
+ */
+export function failedCircuitGripRate(failed: CircuitId, mu: number, vehicle?: VehicleData): number {
+  if (failed !== 'front' && failed !== 'rear') return mu / 2
+  if (!vehicle) return mu
+  const psi = vehicle.frontStaticSharePercent / 100
+  const chi = vehicle.cogHeightMm / vehicle.wheelbaseMm
+  return failed === 'rear' ? (mu * psi) / (1 - mu * chi) : (mu * (1 - psi)) / (1 + mu * chi)
 }
 
 /**
  * Share of braking and deceleration left for each failed circuit, at the chain's pedal force.
- * @param chain result of computeChain for the system
+ * @param chain result of computeChain for the system (its mass and tyre-road friction are used)
  * @param split the vehicle's circuit split
  * @param pedalForceN pedal force the chain was computed at (N), for the FMVSS comparison
- * @param massKg vehicle mass (kg), optional
+ * @param vehicle vehicle data, for the grip of the wheels still braking
  */
 export function circuitFailure(
   chain: ChainResult,
   split: CircuitSplit,
   pedalForceN: number,
-  massKg?: number,
+  vehicle?: VehicleData,
 ): CircuitFailureResult[] {
   const front = chain.frontSharePercent
   const rear = chain.rearSharePercent
   const total = chain.totalBrakingForceN
+  const massKg = chain.massKg
   const ref = FMVSS_135.partialFailure
   const withinPedalLimit = pedalForceN <= ref.maxPedalForceN
 
@@ -100,14 +78,16 @@ export function circuitFailure(
     notes: string[],
   ): CircuitFailureResult => {
     const remainingForce = total === null ? null : (total * remainingSharePercent) / 100
-    const decel = remainingForce !== null && massKg ? remainingForce / massKg : null
-    const distance = decel !== null && decel > 0 ? stoppingDistanceM(ref.speedKmh, decel) : null
+    const brakes = remainingForce !== null && massKg ? remainingForce / massKg : null
+    const grip = failedCircuitGripRate(failedCircuit, chain.tyreRoadFriction, vehicle) * STANDARD_GRAVITY_MPS2
+    const decel = brakes === null ? null : Math.min(brakes, grip)
+    const distance = decel !== null && decel > 0 ? fmvssStoppingDistanceM(ref.speedKmh, decel) : null
     const extra = [...notes]
     if (!withinPedalLimit) {
       extra.push(`The FMVSS No. 135 comparison needs a pedal force of ${ref.maxPedalForceN} N or less.`)
     }
-    if (decel !== null && decel > STANDARD_GRAVITY_MPS2) {
-      extra.push('The theoretical deceleration exceeds 1 g: tyre grip, not the brakes, would set the limit.')
+    if (brakes !== null && brakes > grip) {
+      extra.push('The brakes still working could lock their wheels: tyre grip, not the brakes, sets this deceleration.')
     }
     return {
       failedCircuit,

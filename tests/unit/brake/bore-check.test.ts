@@ -55,7 +55,7 @@ describe('computeHydraulics without a replacement', () => {
     expect(r.inputs.pedalForceN).toBe(300)
   })
 
-  it('line pressure follows P = F / A', () => {
+  it('line pressure follows P = F / A (unit check: no run-out given, the booster is a fixed ratio)', () => {
     // Pascal's law, check-values.md: pushrod = pedal × pedal ratio × booster ratio
     expectRel(r.original.linePressureKPa, ((300 * 4 * 4) / pistonArea(22.22)) * 1000, 1e-12)
     expectRel(r.original.axles.front.padForceN!, (r.original.linePressureKPa / 1000) * pistonArea(57), 1e-12)
@@ -226,5 +226,61 @@ describe('nothing is computed from half an input', () => {
     const input = vehicle() as { axles: Record<string, unknown> }
     delete input.axles.rear
     expect(() => computeHydraulics(input as HydraulicsInputRaw)).toThrow(/axles\.rear: rear axle is required/)
+  })
+})
+
+describe('grip, balance and the order of locking', () => {
+  /** The same car with its vehicle data: 1350 kg, wheelbase 2600 mm, CG 540 mm, 58 % on the front; laden 1800 kg. */
+  function withVehicle(extra: Record<string, unknown> = {}): HydraulicsInputRaw {
+    const { massKg: _m, ...rest } = vehicle() as HydraulicsInputRaw & { massKg?: number }
+    return {
+      ...rest, boosterRunOutKPa: 10000,
+      vehicle: { massKg: 1350, wheelbaseMm: 2600, cogHeightMm: 540, frontStaticSharePercent: 58, laden: { massKg: 1800, cogHeightMm: 555, frontStaticSharePercent: 55 }, ...extra },
+    }
+  }
+
+  it('answers the contract: per axle effectiveRadiusMm, decelerationMps2 and adhesion { front, rear, locksFirst }', () => {
+    const r = computeHydraulics(withVehicle())
+    expect(r.original.axles.front.effectiveRadiusMm).toBeGreaterThan(0)
+    expect(r.decelerationMps2).toBe(r.original.decelerationMps2)
+    expect(r.adhesion).toEqual(r.original.adhesion)
+    expect(['front', 'rear', 'together']).toContain(r.adhesion!.locksFirst)
+    // never more than the tyre-road friction: 0.8 g by default, said in the assumptions
+    expect(r.decelerationMps2!).toBeLessThanOrEqual(0.8 * 9.80665 + 1e-9)
+    expect(r.assumptions.join(' ')).toMatch(/Tyre-road friction 0\.8/)
+    expect(r.lockingOrder.original).toHaveLength(2)
+    expect(r.serviceStop.original.map((s) => s.loadState)).toEqual(['unladen', 'laden'])
+  })
+
+  it('the original locks the front first in the band; much bigger rear calipers push it out: danger, naming the band', () => {
+    const original = computeHydraulics(withVehicle())
+    expect(original.lockingOrder.original!.every((o) => o.meets)).toBe(true)
+    const input = withVehicle()
+    input.replacement = { axles: { rear: { kind: 'disc', caliper: 'floating', pistonDiametersMm: [48], discDiameterMm: 260, frictionCoefficient: 0.38 } } }
+    const r = computeHydraulics(input)
+    expect(r.lockingOrder.replacement!.some((o) => !o.meets)).toBe(true)
+    const f = r.findings.find((x) => x.code === 'locking-order-worse')
+    expect(f?.severity).toBe('danger')
+    expect(f?.message).toMatch(/UN ECE Regulation 13-H Annex 5/)
+    expect(f?.message).toMatch(/z = 0\.\d\d to 0\.80 unladen/)
+  })
+
+  it('with electronic distribution fitted the same change is a warning that says so', () => {
+    const input = withVehicle({ electronicDistribution: true })
+    input.replacement = { axles: { rear: { kind: 'disc', caliper: 'floating', pistonDiametersMm: [48], discDiameterMm: 260, frictionCoefficient: 0.38 } } }
+    const f = computeHydraulics(input).findings.find((x) => x.code === 'locking-order-worse')
+    expect(f?.severity).toBe('warning')
+    expect(f?.message).toMatch(/electronic brake-force distribution/)
+  })
+
+  it('a weak system fails the FMVSS No. 135 service stop at 500 N in the laden state', () => {
+    const input = withVehicle()
+    input.pedalRatio = 2
+    input.boosterRatio = 1
+    const r = computeHydraulics(input)
+    const laden = r.serviceStop.original.find((s) => s.loadState === 'laden')!
+    expect(laden.pedalForceN).toBe(500)
+    expect(laden.meets).toBe(false)
+    expect(r.findings.filter((f) => f.code === 'service-stop-long').some((f) => /, laden \(1800 kg\)/.test(f.message))).toBe(true)
   })
 })

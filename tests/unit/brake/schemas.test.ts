@@ -1,10 +1,6 @@
 import { describe, it, expect } from 'vitest'
-import {
-  hydraulicsInputSchema,
-  parseHydraulicsInput,
-  parseWearInput,
-  type FieldIssue,
-} from '#shared/utils/brake/schemas'
+import { hydraulicsInputSchema, parseHydraulicsInput, type FieldIssue } from '#shared/utils/brake/schemas'
+import { parseWearInput } from '#shared/utils/brake/wear-schemas'
 
 function good() {
   return {
@@ -50,19 +46,54 @@ describe('hydraulics input schema', () => {
     expect(issues(piston)).toContainEqual({ field: 'axles.front.pistonDiametersMm[1]', message: 'caliper piston diameter must be greater than 0 mm' })
   })
 
-  it('friction coefficient outside 0.05-1.0', () => {
-    for (const mu of [0, 0.04, 1.01, 3]) {
+  it('friction coefficient outside 0.1-0.8 (not a brake lining)', () => {
+    for (const mu of [0, 0.05, 0.81, 3]) {
       const body = good()
       body.axles.front!.frictionCoefficient = mu
       expect(issues(body)).toEqual([
-        { field: 'axles.front.frictionCoefficient', message: 'friction coefficient must be between 0.05 and 1.0' },
+        { field: 'axles.front.frictionCoefficient', message: 'friction coefficient must be between 0.1 and 0.8 (brake linings are about 0.25-0.55)' },
       ])
     }
-    for (const mu of [0.05, 1.0]) {
+    for (const mu of [0.1, 0.8]) {
       const body = good()
       body.axles.front!.frictionCoefficient = mu
       expect(parseHydraulicsInput(body).ok).toBe(true)
     }
+  })
+
+  it('values far outside what cars have are refused with the range named', () => {
+    const pedal = good()
+    pedal.pedalForceN = 2500
+    expect(issues(pedal)).toEqual([{ field: 'pedalForceN', message: 'pedal force must be between 10 N and 1000 N (check the unit)' }])
+    const bore = good()
+    bore.masterCylinder.boreMm = 0.875
+    expect(issues(bore)[0]).toEqual({ field: 'masterCylinder.boreMm', message: 'master cylinder bore must be between 14 mm and 38 mm (check the unit)' })
+    const runOut = good()
+    runOut.boosterRunOutKPa = 100
+    expect(issues(runOut)[0]!.message).toMatch(/between 2000 kPa and 20000 kPa/)
+    const grip = good()
+    grip.tyreRoadFriction = 2.9
+    expect(issues(grip)[0]).toEqual({ field: 'tyreRoadFriction', message: 'tyre-road friction must be between 0.1 and 1.2 (check the unit)' })
+  })
+
+  it('vehicle data: every figure named, laden not lighter than unladen, the mass given once', () => {
+    const body = good()
+    body.vehicle = { massKg: 1400, wheelbaseMm: 2.6, cogHeightMm: 550, frontStaticSharePercent: 60, laden: { massKg: 1200, cogHeightMm: 560, frontStaticSharePercent: 55 } }
+    const found = issues(body)
+    expect(found).toContainEqual({ field: 'vehicle.wheelbaseMm', message: 'wheelbase must be between 1700 mm and 4500 mm (check the unit)' })
+    const laden = good()
+    laden.vehicle = { massKg: 1400, wheelbaseMm: 2600, cogHeightMm: 550, frontStaticSharePercent: 60, laden: { massKg: 1200, cogHeightMm: 560, frontStaticSharePercent: 55 } }
+    expect(issues(laden)).toEqual([{ field: 'vehicle.laden.massKg', message: 'laden mass must be at least the unladen mass (1400 kg)' }])
+    const twice = good()
+    twice.massKg = 1300
+    twice.vehicle = { massKg: 1400, wheelbaseMm: 2600, cogHeightMm: 550, frontStaticSharePercent: 60 }
+    expect(issues(twice)[0]!.field).toBe('massKg')
+  })
+
+  it('pad height that leaves no friction band is refused', () => {
+    const body = good()
+    body.axles.front!.padHeightMm = 110
+    expect(issues(body)[0]).toMatchObject({ field: 'axles.front.padHeightMm', message: expect.stringMatching(/check the pad height/) })
   })
 
   it('missing axle', () => {
@@ -104,8 +135,8 @@ describe('hydraulics input schema', () => {
     booster.boosterRatio = 0.5
     expect(issues(booster)[0]!.message).toMatch(/1 means no booster/)
     const inches = good()
-    inches.axles.front!.discDiameterMm = 11.75 * 25.4 * 25.4
-    expect(issues(inches)[0]!.message).toMatch(/check the unit/)
+    inches.axles.front!.discDiameterMm = 11.75
+    expect(issues(inches)[0]!.message).toMatch(/between 150 mm and 480 mm \(check the unit\)/)
     const tyre = good()
     tyre.axles.front!.tyreSize = '31x10.50R15'
     expect(issues(tyre)[0]).toEqual({ field: 'axles.front.tyreSize', message: 'tyre size must be a metric size code like "205/55 R16"' })
@@ -136,6 +167,11 @@ describe('wear input schema', () => {
       expect(r.data.fluid?.gradeInSystem).toBe('DOT 5.1')
       expect(r.data.fluid?.gradeToAdd).toBe('DOT 4')
     }
+    const class6 = parseWearInput({ fluid: { gradeInSystem: 'class 6', boilingPointC: 190 } })
+    expect(class6.ok && class6.data.fluid?.gradeInSystem).toBe('ISO 4925 Class 6')
+    const noGrade = parseWearInput({ fluid: { boilingPointC: 190 } })
+    expect(noGrade.ok).toBe(false)
+    if (!noGrade.ok) expect(noGrade.issues[0]).toMatchObject({ field: 'fluid.gradeInSystem' })
   })
 
   it('rejects bad readings with the field named', () => {
@@ -158,7 +194,7 @@ describe('wear input schema', () => {
       ]),
     )
     expect(r.issues.find((i) => i.field === 'fluid.gradeInSystem')!.message).toBe(
-      'grade in system must be "DOT 3" or "DOT 4" or "DOT 5.1" or "DOT 5"',
+      'grade in system must be "DOT 3" or "DOT 4" or "DOT 5.1" or "DOT 5" or "ISO 4925 Class 6"',
     )
   })
 

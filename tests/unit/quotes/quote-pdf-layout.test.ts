@@ -21,7 +21,7 @@ function line(id: number, over: Partial<OwnerQuoteLine> = {}): OwnerQuoteLine {
     taxIncluded: id % 3 === 0, taxShares: [{ taxBp: 2000, netMinor: 246_912, taxMinor: 49_382 }],
     recommendation: id % 2 ? 'required' : 'advised', reason: 'Measured 21.4 mm against a discard thickness of 22.0 mm on the outer face.',
     coreCharge: null, coreRefund: null, parentLineId: null, decidable: true, declinable: true, needsAcknowledgement: id % 2 === 1,
-    declineStatement: null, declineAcknowledgement: null, ownerDecision: 'approved', ...over,
+    declineStatement: null, declineAcknowledgement: null, ownerDecision: 'approved', photos: [], ...over,
   }
 }
 

@@ -26,7 +26,7 @@ function view(lines: number): OwnerQuoteView {
       id: i + 1, kind: 'part' as const, description: `Brake part number ${i + 1}`, quantity: 1, hours: null, unitPriceMinor: 1000,
       amountMinor: 1000, taxBp: 2000, taxMinor: 200, grossMinor: 1200, taxIncluded: false, taxShares: [{ taxBp: 2000, netMinor: 1000, taxMinor: 200 }],
       recommendation: i === 0 ? 'required' as const : null, reason: null, coreCharge: null, coreRefund: null, parentLineId: null,
-      decidable: true, declinable: true, needsAcknowledgement: i === 0, declineStatement: null, declineAcknowledgement: null, ownerDecision: null,
+      decidable: true, declinable: true, needsAcknowledgement: i === 0, declineStatement: null, declineAcknowledgement: null, ownerDecision: null, photos: [],
     })),
     totals: { netMinor: 1000 * lines, taxMinor: 200 * lines, grossMinor: 1200 * lines }, approvedTotals: null,
     taxByRate: [{ taxBp: 2000, netMinor: 1000 * lines, taxMinor: 200 * lines }], approvedTaxByRate: null, decisionAddress: null,
