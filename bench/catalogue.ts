@@ -110,8 +110,9 @@ function cannon(url: string, paths: string[], cookie?: string, pid?: number): Pr
     }, (err: Error | null, result: CannonResult) => {
       clearInterval(sampler)
       if (err) return rej(err)
-      const seconds = times.map((xs, i) => ({ n: xs.length, p99: xs.length ? pct(xs, 99) : 0, rssMb: rss[i] ?? 0 }))
-      res({ ...result, seconds: seconds.slice(0, duration) })
+      // a second without a single answer counts too (a stall), with the run's own timeout as its tail
+      const seconds = Array.from({ length: duration }, (_, i) => times[i] ?? []).map((xs, i) => ({ n: xs.length, p99: xs.length ? pct(xs, 99) : 10_000, rssMb: rss[i] ?? 0 }))
+      res({ ...result, seconds })
     })
     run.on('response', (_client: unknown, _status: number, _bytes: number, responseTime: number) => {
       const s = Math.floor((performance.now() - t0) / 1000)
