@@ -132,9 +132,11 @@ async function main() {
   const updateCsv = updateFile(catalogue)
   const createCsv = newPartsFile()
   const { createMailCatcher } = await import('../fakes/mail/server')
-  const mail = createMailCatcher({ smtpPort: 0, httpPort: 0 })
+  // ports from the environment when given (PORT, MAIL_FAKE_SMTP_PORT, MAIL_FAKE_HTTP_PORT), else free ones
+  const envPort = (name: string) => Number(process.env[name]) || 0
+  const mail = createMailCatcher({ smtpPort: envPort('MAIL_FAKE_SMTP_PORT'), httpPort: envPort('MAIL_FAKE_HTTP_PORT') })
   const { smtpPort } = await mail.listen()
-  const port = await freePort()
+  const port = envPort('PORT') || await freePort()
   const base = `http://127.0.0.1:${port}`
   const env = {
     ...process.env, NODE_ENV: 'production', HOST: '127.0.0.1', PORT: String(port), UV_THREADPOOL_SIZE: '16',

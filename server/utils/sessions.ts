@@ -64,6 +64,20 @@ export async function checkSessionRecord(sid: string, userId: number, limits: Se
 async function sessionRows(sid: string, fresh: boolean): Promise<SessionRows | null> {
   const cached = fresh ? undefined : cachedSessionRows(sid)
   if (cached) return cached
+  if (fresh) return readSessionRows(sid)
+  // when the remembered rows lapse, every request of the session in flight misses at once: they share one read
+  // (50 parallel reads queued on the one connection stalled the session for ~100-400 ms, bench/catalogue.ts),
+  // but only requests that saw no write since it started, so a change still counts from the next request
+  const generation = rowsGeneration()
+  const shared = reading.get(sid)
+  if (shared && shared.generation === generation) return shared.rows
+  const rows = readSessionRows(sid).finally(() => { if (reading.get(sid)?.rows === rows) reading.delete(sid) })
+  reading.set(sid, { generation, rows })
+  return rows
+}
+const reading = new Map<string, { generation: number; rows: Promise<SessionRows | null> }>()
+
+async function readSessionRows(sid: string): Promise<SessionRows | null> {
   const readAt = rowsGeneration()
   const found = await SessionRecord.findByPk(sid, {
     include: [{ model: User, as: 'user', required: true, include: [{ model: Organisation, as: 'organisation', required: true }] }],

@@ -16,6 +16,32 @@ export type IdEntry = [key: string, slot: number, kind: number]
 
 const ALPHABET = 'abcdefghijklmnopqrstuvwxyz0123456789'
 
+/**
+ * How likely a slip is, lower first. Transposed neighbours and a key next to the right one are the commonest
+ * single-character typing errors (Damerau 1964; Kernighan, Church & Gale 1990 weight substitutions by keyboard
+ * nearness), then a doubled character dropped or added, then any other.
+ */
+export const SLIP = { swap: 0, neighbour: 1, doubled: 2, other: 3 } as const
+
+/** Keys that touch: the digits' neighbours in the top row and, orthogonally, on a numeric keypad (0 under 1 and 2). */
+const DIGIT_NEIGHBOURS: Record<string, string> = {
+  0: '129', 1: '024', 2: '0135', 3: '246', 4: '1357', 5: '2468', 6: '3579', 7: '468', 8: '579', 9: '068',
+}
+const QWERTY = ['qwertyuiop', 'asdfghjkl', 'zxcvbnm']
+const letterAt = new Map<string, [number, number]>(QWERTY.flatMap((row, r) => [...row].map((ch, c) => [ch, [r, c]] as [string, [number, number]])))
+
+/** Whether two keys touch (digits: top row and keypad; letters: same row or the row next to it, QWERTY). */
+export function isNeighbourKey(a: string, b: string): boolean {
+  if (a in DIGIT_NEIGHBOURS) return DIGIT_NEIGHBOURS[a]!.includes(b)
+  const p = letterAt.get(a), q = letterAt.get(b)
+  if (!p || !q) return false
+  // staggered rows: a key touches the one below it and the one below-left
+  if (p[0] === q[0]) return Math.abs(p[1] - q[1]) === 1
+  if (Math.abs(p[0] - q[0]) !== 1) return false
+  const [upper, lower] = p[0] < q[0] ? [p, q] : [q, p]
+  return lower[1] === upper[1] || lower[1] === upper[1] - 1
+}
+
 /** The sorted identifiers; lookups answer entry numbers, read back with {@link key}, {@link slot}, {@link kind}. */
 export class IdentifierTable {
   private keys: string[] = []
@@ -81,17 +107,32 @@ export class IdentifierTable {
 
   /** Entries one slip away (Damerau: one substitution, deletion, insertion or swap of neighbours). */
   oneSlip(key: string): number[] {
-    const variants = new Set<string>()
-    for (let i = 0; i < key.length; i++) {
-      variants.add(key.slice(0, i) + key.slice(i + 1))
-      if (i + 1 < key.length) variants.add(key.slice(0, i) + key[i + 1] + key[i] + key.slice(i + 2))
-      for (const c of ALPHABET) if (c !== key[i]) variants.add(key.slice(0, i) + c + key.slice(i + 1))
+    return this.oneSlipRanked(key).map((x) => x.entry)
+  }
+
+  /**
+   * Entries one slip away, the likeliest slips first ({@link slipCost}): with part numbers handed out in sequence,
+   * most one-slip variants of a number are other real parts, so which slip is likelier decides what is shown.
+   */
+  oneSlipRanked(key: string): { entry: number; cost: number }[] {
+    const variants = new Map<string, number>()
+    const add = (v: string, cost: number) => {
+      const before = variants.get(v)
+      if (v !== key && (before === undefined || cost < before)) variants.set(v, cost)
     }
-    for (let i = 0; i <= key.length; i++) for (const c of ALPHABET) variants.add(key.slice(0, i) + c + key.slice(i))
-    variants.delete(key)
-    const out: number[] = []
-    for (const v of variants) for (const i of this.exact(v)) out.push(i)
-    return out
+    for (let i = 0; i < key.length; i++) {
+      const c = key[i]!
+      // missing character: a doubled one dropped is the commonest kind
+      add(key.slice(0, i) + key.slice(i + 1), c === key[i - 1] || c === key[i + 1] ? SLIP.doubled : SLIP.other)
+      if (i + 1 < key.length) add(key.slice(0, i) + key[i + 1] + c + key.slice(i + 2), SLIP.swap)
+      for (const x of ALPHABET) if (x !== c) add(key.slice(0, i) + x + key.slice(i + 1), isNeighbourKey(c, x) ? SLIP.neighbour : SLIP.other)
+    }
+    for (let i = 0; i <= key.length; i++) {
+      for (const x of ALPHABET) add(key.slice(0, i) + x + key.slice(i), x === key[i - 1] || x === key[i] ? SLIP.doubled : SLIP.other)
+    }
+    const out: { entry: number; cost: number }[] = []
+    for (const [v, cost] of variants) for (const entry of this.exact(v)) out.push({ entry, cost })
+    return out.sort((a, b) => a.cost - b.cost || a.entry - b.entry)
   }
 
   /** Entries whose key starts with `key` (not equal to it), at most `limit`. */

@@ -26,28 +26,23 @@ interface ContextRow { priceVersion: ActivePriceVersion | null; bp: number | nul
 
 /**
  * The active price version, the caller's tier discount and the catalogue revisions (bumped by triggers on every
- * catalogue or stock change, see migration 0004), remembered per tier for {@link CONTEXT_TTL_MS} and forgotten at
- * once after any write transaction in this process, so an apply, a rollback or a tier change counts from the next
- * request; a change made by another process shows within that second.
+ * catalogue or stock change, see migration 0004), remembered per tier and forgotten at once after any write
+ * transaction in this process, so an apply, a rollback or a tier change counts from the next request.
+ *
+ * A remembered row older than {@link CONTEXT_TTL_MS} is still answered while one read in the background refreshes
+ * it, so a change made by another process shows within about a second. Waiting for that read instead made every
+ * request in flight queue behind it, and each of them started its own read: under 50 connections the vehicle-parts
+ * route stalled for 100-400 ms once a second (bench/catalogue.ts). Only a request with nothing remembered (the first,
+ * or the first after a write) waits, and concurrent ones share that one read.
  */
 export async function pricingContext(user: Pick<User, 'role'>, org: Pick<Organisation, 'kind' | 'tierId' | 'techniciansSeePrices'>, now = Date.now()): Promise<PricingContext> {
   const tier = org.tierId ?? -1
-  const hit = contextCacheOn() ? contextRows.get(tier) : undefined
-  let row: ContextRow | undefined
-  if (hit && now - hit.at < CONTEXT_TTL_MS) row = hit.row
+  let row: ContextRow
+  if (!contextCacheOn()) row = await readContextRow(tier)
   else {
-    const readAt = writes
-    // the revisions before the version: should an apply land between the two reads, the revision is the older
-    // one, so the caches are rebuilt on the next request instead of keeping rows read under a newer revision
-    const [rest] = await getDb().query<Omit<ContextRow, 'priceVersion'>>(
-      `SELECT (SELECT percent_bp FROM discount_tiers WHERE id = :tier) AS bp,
-              (SELECT catalogue FROM catalogue_revisions WHERE id = 1) AS rev,
-              (SELECT stock FROM catalogue_revisions WHERE id = 1) AS stockRev`,
-      { type: QueryTypes.SELECT, replacements: { tier } },
-    )
-    const priceVersion = await activePriceVersion()
-    row = { priceVersion, bp: rest?.bp ?? null, rev: rest?.rev ?? null, stockRev: rest?.stockRev ?? null }
-    if (readAt === writes && contextCacheOn()) contextRows.set(tier, { at: now, row })
+    const hit = contextRows.get(tier)
+    if (hit && now - hit.at >= CONTEXT_TTL_MS) void refreshContext(tier).catch(() => {}) // answered below meanwhile
+    row = hit ? hit.row : await refreshContext(tier)
   }
   return {
     priceVersion: row.priceVersion, view: priceViewOf(user, org, Number(row.bp ?? 0)),
@@ -57,10 +52,37 @@ export async function pricingContext(user: Pick<User, 'role'>, org: Pick<Organis
 
 export const CONTEXT_TTL_MS = 1_000
 const contextRows = new Map<number, { at: number; row: ContextRow }>()
+const reading = new Map<number, Promise<ContextRow>>()
 let writes = 0
-afterEveryWrite(() => { writes++; contextRows.clear() })
+afterEveryWrite(() => { writes++; contextRows.clear(); reading.clear() })
 let cacheFlag: boolean | undefined
 const contextCacheOn = () => (cacheFlag ??= process.env.BORELINE_CATALOGUE_CACHE !== '0')
+
+/** One read per tier at a time; remembered only when no write ended while it ran. */
+function refreshContext(tier: number): Promise<ContextRow> {
+  let pending = reading.get(tier)
+  if (pending) return pending
+  const readAt = writes
+  pending = readContextRow(tier).then((row) => {
+    if (readAt === writes) contextRows.set(tier, { at: Date.now(), row })
+    return row
+  }).finally(() => { if (reading.get(tier) === pending) reading.delete(tier) })
+  reading.set(tier, pending)
+  return pending
+}
+
+async function readContextRow(tier: number): Promise<ContextRow> {
+  // the revisions before the version: should an apply land between the two reads, the revision is the older
+  // one, so the caches are rebuilt on the next request instead of keeping rows read under a newer revision
+  const [rest] = await getDb().query<Omit<ContextRow, 'priceVersion'>>(
+    `SELECT (SELECT percent_bp FROM discount_tiers WHERE id = :tier) AS bp,
+            (SELECT catalogue FROM catalogue_revisions WHERE id = 1) AS rev,
+            (SELECT stock FROM catalogue_revisions WHERE id = 1) AS stockRev`,
+    { type: QueryTypes.SELECT, replacements: { tier } },
+  )
+  const priceVersion = await activePriceVersion()
+  return { priceVersion, bp: rest?.bp ?? null, rev: rest?.rev ?? null, stockRev: rest?.stockRev ?? null }
+}
 
 /** The revisions inside a transaction (before and after a change). */
 export async function readRevision(transaction?: Transaction): Promise<CatalogueRevision> {

@@ -354,8 +354,9 @@ export class PartSearchIndex {
       const exact = ids.exact(t.term).sort((a, b) => KIND_SCORE[ids.kind(b)]! - KIND_SCORE[ids.kind(a)]!)
       // a discontinued SKU ranks after the part that replaced it (its superseded entry scores higher)
       for (const e of exact) push(e, ids.kind(e) === ID_KIND.sku && this.statusOf[ids.slot(e)] !== 0 ? 2.5e9 : KIND_SCORE[ids.kind(e)]!)
-      // a typo is looked for only when nothing matched exactly
-      if (!exact.length && t.fuzzy > 0) for (const e of ids.oneSlip(t.term)) push(e, 1e9 - ids.kind(e), 'similar')
+      // one slip away, even when the typed number exists: with numbers handed out in sequence a slipped SKU is
+      // usually another real part, listed first, and the one meant must still be on the page after it
+      if (t.fuzzy > 0) for (const { entry, cost } of ids.oneSlipRanked(t.term)) push(entry, 1e9 - cost * 1e6 - ids.kind(entry), 'similar')
       if (t.prefix) for (const e of ids.prefixed(t.term, MAX_PREFIX_HITS)) push(e, 5e8 - ids.key(e).length, 'prefix')
     }
     hits.sort((a, b) => b.score - a.score)
