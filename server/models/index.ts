@@ -12,6 +12,7 @@ import { initInspectionModels } from './inspections'
 import { initQuoteModels } from './quotes'
 import { initPriceFileModels } from './price-files'
 import { initOrderModels } from './orders'
+import { initSecondFactorModels } from './second-factor'
 
 export * from './accounts'
 export * from './accounts-extra'
@@ -20,6 +21,7 @@ export * from './inspections'
 export * from './quotes'
 export * from './price-files'
 export * from './orders'
+export * from './second-factor'
 
 let initialised: Sequelize | undefined
 
@@ -32,6 +34,7 @@ export function initModels(sequelize: Sequelize = getDb()): Sequelize {
   initQuoteModels(sequelize)
   initPriceFileModels(sequelize)
   initOrderModels(sequelize)
+  initSecondFactorModels(sequelize)
   initialised = sequelize
   return sequelize
 }
