@@ -7,12 +7,11 @@
  * from loopback addresses of their own (127.0.2.x), so the rest of the suite is not throttled.
  */
 import { randomBytes } from 'node:crypto'
-import ExcelJS from 'exceljs'
 import { describe, expect, it } from 'vitest'
 import { setup } from '@nuxt/test-utils/e2e'
 import { as, Client, DEMO_PASSWORD, env, people } from '../support/api'
 import { fromAddress, sendFrom } from '../support/accounts'
-import { postChunked, serverRssMb, watchServer } from '../support/probe'
+import { postChunked, serverRssMb, watchServer, wideXlsx } from '../support/probe'
 import { getFrom } from '../support/quotes'
 
 await setup({ host: env().baseUrl })
@@ -73,14 +72,12 @@ describe('password hashing cannot be driven by anyone', () => {
 })
 
 describe('request bodies have a limit and a type', () => {
-  it('refuses a 20 MB JSON body with 413 quickly, before reading it', async () => {
-    const body = Buffer.alloc(20 * MB, 0x20)
-    body.write('{"email":"a@b.test","password":"')
-    const t0 = performance.now()
-    const r = await sendFrom('127.0.0.1', '/api/auth/sign-in', body, { 'content-type': 'application/json' })
+  it('refuses a 20 MB JSON body with 413 quickly, from its declared length, before reading it', async () => {
+    const r = await postChunked('/api/auth/sign-in', 20 * MB, 'application/json', undefined, true)
     expect(r.status).toBe(413)
     expect(r.body.message).toMatch(/larger than 1 MB/)
-    expect(performance.now() - t0).toBeLessThan(3000)
+    expect(r.sentBytes).toBeLessThan(20 * MB)
+    expect(r.ms).toBeLessThan(3000)
   })
 
   it('refuses a chunked body with no length once it passes the limit, long before its end', async () => {
@@ -113,16 +110,8 @@ describe('request bodies have a limit and a type', () => {
 
 describe('a wide spreadsheet cannot freeze the server', () => {
   it('refuses an XLSX with cells in column XFD on 20,000 rows while health stays under 1 s', async () => {
-    const wb = new ExcelJS.Workbook()
-    const sheet = wb.addWorksheet('Prices')
-    sheet.addRow(['sku', 'list_price'])
-    for (let i = 0; i < 20_000; i++) {
-      const row = sheet.getRow(i + 2)
-      row.getCell(1).value = `WX-${i}`
-      row.getCell(2).value = 12.5
-      row.getCell(16_384).value = 'x' // column XFD, the last a spreadsheet has
-    }
-    const file = Buffer.from(await wb.xlsx.writeBuffer())
+    // 20,000 rows with a cell in column XFD each, written by hand: exceljs itself takes over a minute to write it
+    const file = wideXlsx(20_000)
     const counter = await as(people.counter)
     const watch = watchServer()
     const fd = new FormData()
@@ -139,7 +128,7 @@ describe('a wide spreadsheet cannot freeze the server', () => {
     expect(detail.status).toBe('failed')
     expect(detail.errorMessage).toMatch(/column XFD/)
     expect(w.slowestHealthMs).toBeLessThan(1000)
-  })
+  }, 120_000)
 
   it('refuses, by its bytes, text named .docx and text named .csv that is no CSV', async () => {
     const counter = await as(people.counter)

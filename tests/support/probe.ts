@@ -46,10 +46,13 @@ export function watchServer(): Watch {
 }
 
 /**
- * POSTs a body in chunks with no Content-Length (`Transfer-Encoding: chunked`), up to `totalBytes`, stopping as soon
- * as the answer arrives. Returns the answer and how much was sent by then.
+ * POSTs a body of `totalBytes` in 64 KB pieces, stopping as soon as the answer arrives (as a browser or curl does
+ * when a server answers early): with no Content-Length (`Transfer-Encoding: chunked`), or with `declared` the length
+ * is announced up front. Returns the answer and how much was sent by then.
  */
-export function postChunked(path: string, totalBytes: number, contentType = 'application/json', localAddress?: string): Promise<{ status: number; body: any; sentBytes: number; ms: number }> {
+export function postChunked(
+  path: string, totalBytes: number, contentType = 'application/json', localAddress?: string, declared = false,
+): Promise<{ status: number; body: any; sentBytes: number; ms: number }> {
   const url = new URL(path, env().baseUrl)
   const t0 = performance.now()
   return new Promise((resolve, reject) => {
@@ -57,7 +60,7 @@ export function postChunked(path: string, totalBytes: number, contentType = 'app
     let answered = false
     const req = httpRequest({
       host: url.hostname, port: url.port, path: url.pathname, method: 'POST', agent: false, ...(localAddress ? { localAddress } : {}),
-      headers: { 'content-type': contentType, 'transfer-encoding': 'chunked' },
+      headers: { 'content-type': contentType, ...(declared ? { 'content-length': String(totalBytes) } : { 'transfer-encoding': 'chunked' }) },
     }, (res) => {
       answered = true
       const at = sent
@@ -74,14 +77,17 @@ export function postChunked(path: string, totalBytes: number, contentType = 'app
     req.on('error', (err) => { if (!answered) reject(err) })
     const chunk = Buffer.alloc(64 * 1024, 0x20)
     chunk.write('{"email":"')
-    const pump = () => {
-      while (!answered && sent < totalBytes) {
+    // one piece at a time with a pause between, so an early answer is read before the server closes the
+    // connection (a write after that fails with EPIPE and the kernel drops what was not read yet)
+    const pump = async () => {
+      while (!answered && !req.destroyed && sent < totalBytes) {
+        await new Promise<void>((done) => req.write(chunk, () => done()))
         sent += chunk.length
-        if (!req.write(chunk)) { req.once('drain', pump); return }
+        await new Promise((r) => setTimeout(r, 2))
       }
-      if (!answered) req.end()
+      if (!answered && !req.destroyed) req.end()
     }
-    pump()
+    void pump()
   })
 }
 
