@@ -40,5 +40,8 @@ export default defineNitroErrorHandler((error, event) => {
   })
   setResponseStatus(event, answer.statusCode, answer.statusMessage)
   if (answer.retryAfterSeconds !== undefined) setResponseHeader(event, 'retry-after', answer.retryAfterSeconds)
+  // a body refused as too large may still be arriving: the connection ends with this answer, so the next request
+  // goes on a fresh one instead of after bytes the server will not read
+  if (answer.statusCode === 413) setResponseHeader(event, 'connection', 'close')
   logRefusal(event, answer.statusCode, answer.message)
 })
