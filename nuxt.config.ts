@@ -10,7 +10,7 @@ export default defineNuxtConfig({
   compatibilityDate: '2026-11-01',
   devtools: { enabled: false },
   telemetry: false,
-  modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', 'nuxt-auth-utils', '@vueuse/nuxt', '@nuxt/eslint'],
+  modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', 'nuxt-auth-utils', '@vueuse/nuxt', '@nuxt/eslint', 'nuxt-security'],
   css: ['~/assets/css/main.css'],
   // components are named by file (app/components/quotes/QuoteCard.vue -> <QuoteCard>), folders show the domain
   components: [{ path: '~/components', pathPrefix: false }],
@@ -44,6 +44,8 @@ export default defineNuxtConfig({
     vehicleDataTimeoutMs: 4000,
     sessionIdleMinutes: 60,
     sessionAbsoluteHours: 12,
+    // how long an unpaid card order holds its stock, and its checkout stays open (the payment service's minimum is 30)
+    orderHoldMinutes: 30,
     session: {
       name: 'boreline-session',
       password: '',
@@ -63,6 +65,10 @@ export default defineNuxtConfig({
   nitro: {
     externals: {
       external: ['sqlite3', 'sequelize'],
+      // @noble/hashes is installed twice (pdfkit and formidable use 1.x, otplib 2.x), and 1.x imports itself by package
+      // name ("@noble/hashes/crypto"), which the traced copies resolve to 2.x: otplib is bundled with its 2.x instead,
+      // so only 1.x is traced
+      inline: ['otplib', '@otplib', '@noble/hashes'],
       // Node 20.19+ loads a package's "module-sync" export (exceljs -> get-intrinsic -> async-function/require.mjs);
       // the file tracer assumes that only from Node 22, so tell it, or those files are missing from .output
       traceOptions: { conditions: ['node', 'module-sync'] },
@@ -84,11 +90,52 @@ export default defineNuxtConfig({
           entryPoints: [fileURLToPath(new URL('./server/services/price-files/rows-worker.ts', import.meta.url))],
           outfile: join(nitro.options.output.serverDir, 'price-rows-worker.cjs'),
           bundle: true, platform: 'node', format: 'cjs', target: 'node20', logLevel: 'warning',
-          external: ['exceljs'], // never used by the worker (CSV only)
+          // XLSX files are read in the worker too: exceljs is loaded from the server's own node_modules beside it
+          external: ['exceljs'],
         })
       })
     },
   },
   auth: { hash: { scrypt: { ...SCRYPT_OPTIONS } } },
+  // The security module's headers and CSP (nonces on every script the server renders). Its request-size limiter
+  // (trusts Content-Length, skips PATCH and chunked bodies), rate limiter (keyed on X-Forwarded-For, not atomic) and
+  // XSS validator (buffers multipart bodies) are off: server/middleware/05.request-body.ts and the throttles in
+  // server/services/throttle.ts do those jobs. Cross-site requests are refused by the session middleware.
+  security: {
+    nonce: true,
+    sri: true,
+    hidePoweredBy: true,
+    removeLoggers: false,
+    headers: {
+      contentSecurityPolicy: {
+        'default-src': ["'self'"],
+        'base-uri': ["'none'"],
+        'object-src': ["'none'"],
+        'frame-ancestors': ["'none'"],
+        'form-action': ["'self'"],
+        'script-src': ["'self'", "'strict-dynamic'", "'nonce-{{nonce}}'"],
+        'script-src-attr': ["'none'"],
+        // Vue and Tailwind set style attributes; styles cannot run code
+        'style-src': ["'self'", "'unsafe-inline'"],
+        // QR codes and charts are drawn as data: and blob: images
+        'img-src': ["'self'", 'data:', 'blob:'],
+        'font-src': ["'self'"],
+        'connect-src': ["'self'"],
+        'frame-src': ["'self'"],
+        'worker-src': ["'self'"],
+        'upgrade-insecure-requests': false,
+      },
+      crossOriginEmbedderPolicy: false,
+      xFrameOptions: 'DENY',
+      referrerPolicy: 'no-referrer',
+      strictTransportSecurity: { maxAge: 31536000, includeSubdomains: true },
+    },
+    requestSizeLimiter: false,
+    rateLimiter: false,
+    xssValidator: false,
+    corsHandler: false,
+    allowedMethodsRestricter: false,
+    csrf: false,
+  },
   typescript: { strict: true },
 })

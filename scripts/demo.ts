@@ -1,6 +1,7 @@
 /**
  * npm run demo: builds if needed, migrates and seeds the demo database, starts the local fakes and the
- * production server on http://localhost:3000, and prints the demo sign-ins. Ctrl-C stops everything.
+ * production server on http://localhost:3000, and prints the demo sign-ins with the distributor staff's
+ * two-step sign-in secrets. Ctrl-C stops everything.
  */
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process'
 import { randomBytes } from 'node:crypto'
@@ -48,7 +49,7 @@ const server = spawn(process.execPath, [...serverNodeArgs(), '.output/server/ind
 children.push(server)
 server.on('exit', (code) => { stopAll(); process.exit(code ?? 0) })
 
-const { demoSignIns, DEMO_PASSWORD } = await import('../server/seed/accounts')
+const { demoSignIns, DEMO_PASSWORD, DEMO_TOTP_SECRETS } = await import('../server/seed/accounts')
 for (let i = 0; i < 120; i++) {
   try { if ((await fetch(`http://127.0.0.1:${port}/api/health`)).ok) break } catch { /* starting */ }
   await new Promise((r) => setTimeout(r, 500))
@@ -59,3 +60,6 @@ console.log(`\nBoreline is running on http://localhost:${port}  (e-mails it send
 console.log(`Demo sign-ins (password for all: ${DEMO_PASSWORD}):`)
 for (const s of demoSignIns()) console.log(`  ${s.email.padEnd(42)} ${s.role.padEnd(18)} ${s.organisation} (${s.status})`)
 console.log('Type LM65 WRD in the header\'s box as Millbrook to open a car with remembered answers; add YT68 KDM to see a registration look-up.')
+console.log('Distributor staff sign in with two steps. Add a secret to an authenticator app, or print the current code with')
+console.log('`npm run demo:code -- <e-mail>`:')
+for (const [email, secret] of Object.entries(DEMO_TOTP_SECRETS)) console.log(`  ${email.padEnd(42)} ${secret}`)

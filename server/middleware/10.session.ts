@@ -32,8 +32,9 @@ export default defineEventHandler(async (event) => {
   if (!path.startsWith('/api/') && !path.startsWith('/q/') && path !== '/' && path.includes('.')) return // static assets
 
   settings ??= (() => {
-    // read once: useRuntimeConfig(event) re-applies the environment on every call (measurable per request)
-    const config = useRuntimeConfig()
+    // read once: useRuntimeConfig(event) re-applies the environment on every call (measurable per request); with
+    // the event, so the cookie name set at start for HTTPS (plugins/00.https-cookies.ts) is the one read
+    const config = useRuntimeConfig(event)
     const s = config.session as { name?: string; maxAge?: number }
     return {
       limits: { idleMinutes: Number(config.sessionIdleMinutes), absoluteHours: Number(config.sessionAbsoluteHours) },

@@ -19,7 +19,8 @@ export default defineEventHandler(async (event) => {
   if (!m) return
   setResponseHeaders(event, { 'x-robots-tag': 'noindex', 'x-frame-options': 'DENY' })
   try {
-    const { quote } = await loadLinkedQuote(event, decodeURIComponent(m[1]!))
+    // a malformed link (`/q/%E0%A4%A`) is one more link that is not valid: a counted miss and a 404, never a 500
+    const { quote } = await loadLinkedQuote(event, decodedOrEmpty(m[1]!))
     event.context.quoteLink = { view: await ownerView(quote, serverFormats().currency) }
   } catch (err) {
     const answer = httpAnswerOf(err)
@@ -27,3 +28,11 @@ export default defineEventHandler(async (event) => {
     event.context.quoteLink = { statusCode: answer.statusCode, message: answer.message || 'This link is not valid.' }
   }
 })
+
+function decodedOrEmpty(segment: string): string {
+  try {
+    return decodeURIComponent(segment)
+  } catch {
+    return ''
+  }
+}

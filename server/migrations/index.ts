@@ -13,6 +13,7 @@ import * as m0007 from './0007-price-lists'
 import * as m0008 from './0008-orders'
 import * as m0009 from './0009-current-prices'
 import * as m0010 from './0010-one-vocabulary'
+import * as m0011 from './0011-second-factor'
 import * as m0012 from './0012-wheel-inspection'
 import * as m0013 from './0013-garage-vehicles'
 import * as m0014 from './0014-owner-money'
@@ -30,6 +31,7 @@ export const migrations: Migration[] = [
   { name: '0008-orders', ...m0008 },
   { name: '0009-current-prices', ...m0009 },
   { name: '0010-one-vocabulary', ...m0010 },
+  { name: '0011-second-factor', ...m0011 },
   { name: '0012-wheel-inspection', ...m0012 },
   { name: '0013-garage-vehicles', ...m0013 },
   { name: '0014-owner-money', ...m0014 },

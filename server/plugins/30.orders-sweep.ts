@@ -7,6 +7,7 @@
 import { databaseReady } from '../utils/ready'
 import { serverFormats } from '../utils/format'
 import { sweepOrders } from '../services/payments/sweep'
+import { holdMinutesOf } from '../services/orders/rules'
 
 export default defineNitroPlugin((nitro) => {
   const seconds = Number(process.env.BORELINE_ORDER_SWEEP_SECONDS ?? 300)
@@ -16,7 +17,7 @@ export default defineNitroPlugin((nitro) => {
     if (running) return
     running = true
     databaseReady()
-      .then(() => sweepOrders(serverFormats()))
+      .then(() => sweepOrders(serverFormats(), holdMinutesOf(useRuntimeConfig().orderHoldMinutes)))
       .then((r) => {
         if (r.paid || r.lapsed || r.refunds || r.coreRefunds || r.errors) console.info('[boreline] order sweep:', JSON.stringify(r))
       })

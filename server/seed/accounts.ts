@@ -2,15 +2,26 @@
  * Demo people and organisations: an invented distributor with two branches and four garages
  * (two approved on different tiers and terms, one pending, one rejected). Idempotent: rows are found by
  * their natural keys (branch code, tier name, organisation name, user e-mail) and updated in place.
+ * The distributor's staff come with two-step sign-in set up, on invented secrets that `npm run demo` prints (and
+ * `npm run demo:code` turns into the current code), so the demo can be tried without an authenticator app.
  */
 import type { Transaction } from 'sequelize'
 import { Branch, DiscountTier, Organisation, User } from '../models/accounts'
+import { SecondFactor } from '../models/second-factor'
+import { sealSecret } from '../services/mfa-secrets'
 import type { OrgStatus, PaymentTerms, Role } from '../../shared/types/accounts'
 import { hashPasswordOutsideNitro } from '../services/password'
 
 export const DEMO_PASSWORD = 'brake-demo-2026'
 
 export const DEMO_DISTRIBUTOR = 'Kestrel Friction Supply'
+
+/** The demo distributor staff's TOTP secrets (base32, 160 bits; invented for the demo, never for real use). */
+export const DEMO_TOTP_SECRETS: Readonly<Record<string, string>> = {
+  'rowan.pike@kestrel-friction.test': 'EAQ7SXZJOOEIUR3PQBLVHY6EUYSWMWAB',
+  'ines.okafor@kestrel-friction.test': 'AS5HAPZLJ5S7TVA2MU4RO356LYWVZBLA',
+  'dev.sandhu@kestrel-friction.test': 'XA3S6C6KBS3CIGJXOCKKQ4WMM2DWTSRD',
+}
 
 interface DemoOrg {
   name: string
@@ -91,6 +102,7 @@ export async function seedAccounts(t: Transaction, log: (s: string) => void): Pr
     tierIds[tier.name] = row.id
   }
   const hash = await hashPasswordOutsideNitro(DEMO_PASSWORD)
+  let enrolled = 0
   for (const o of DEMO_ORGS) {
     const values = {
       kind: o.kind, name: o.name, status: o.status, taxNumber: o.taxNumber, tradingAddress: o.address,
@@ -104,12 +116,30 @@ export async function seedAccounts(t: Transaction, log: (s: string) => void): Pr
     if (!org) org = await Organisation.create(values, { transaction: t })
     for (const p of o.people) {
       const existing = await User.findOne({ where: { email: p.email }, transaction: t })
-      if (!existing) {
-        await User.create({ organisationId: org.id, email: p.email, name: p.name, role: p.role, passwordHash: hash, status: 'active' }, { transaction: t })
-      }
+      const user = existing ?? await User.create({ organisationId: org.id, email: p.email, name: p.name, role: p.role, passwordHash: hash, status: 'active' }, { transaction: t })
+      const secret = DEMO_TOTP_SECRETS[p.email]
+      if (secret) enrolled += await enrolDemoPerson(t, user.id, secret, log)
     }
   }
-  log(`accounts: ${branches.length} branches, ${tiers.length} tiers, ${DEMO_ORGS.length} organisations`)
+  log(`accounts: ${branches.length} branches, ${tiers.length} tiers, ${DEMO_ORGS.length} organisations, two-step sign-in set up for ${enrolled} new`)
+}
+
+/**
+ * Sets up a demo person's authenticator secret unless they have one (a person who set up their own app keeps it).
+ * Sealing needs the server's key (NUXT_MFA_KEY or NUXT_SESSION_PASSWORD): without it they set one up at first
+ * sign-in instead.
+ */
+async function enrolDemoPerson(t: Transaction, userId: number, secret: string, log: (s: string) => void): Promise<number> {
+  if (await SecondFactor.findOne({ where: { userId }, transaction: t })) return 0
+  let sealed: string
+  try {
+    sealed = sealSecret(secret)
+  } catch {
+    log('accounts: no NUXT_MFA_KEY or NUXT_SESSION_PASSWORD set, so distributor staff set up two-step sign-in at their first sign-in')
+    return 0
+  }
+  await SecondFactor.create({ userId, secret: sealed, enrolledAt: new Date() }, { transaction: t })
+  return 1
 }
 
 /** The sign-ins printed by `npm run demo` and listed in the README. */

@@ -101,4 +101,27 @@ export const accountMail = {
       ['Set your password to accept (the link works once, for 7 days)', o.url],
     ])
   },
+  secondFactorReset(o: { name: string; by: string; signInUrl: string }): MailContent {
+    return compose('your two-step sign-in was reset', [
+      `Hello ${o.name},`,
+      `${o.by} has reset the two-step sign-in of your Boreline account, so your authenticator app and recovery codes no longer work for it, and you have been signed out everywhere.`,
+      ['Sign in with your password; distributor staff then set up two-step sign-in again', o.signInUrl],
+      'If you did not ask for this, tell your administrator.',
+    ])
+  },
+  secondFactorChanged(o: { name: string; what: string }): MailContent {
+    return compose('two-step sign-in changed on your account', [
+      `Hello ${o.name},`,
+      `${o.what} If this was not you, sign in and change your password, or ask your administrator to reset your two-step sign-in.`,
+    ])
+  },
+  applicationWithKnownEmail(o: { signInUrl: string; resetUrl: string }): MailContent {
+    return compose('a trade account application used your e-mail address', [
+      'Hello,',
+      'Someone has just applied for a Boreline trade account with this e-mail address, which already belongs to an account. Nothing was created for that application.',
+      ['If it was you, sign in with your existing account', o.signInUrl],
+      ['Forgotten your password? Choose a new one', o.resetUrl],
+      'If it was not you, you need not do anything.',
+    ])
+  },
 }

@@ -11,6 +11,8 @@ import type { AccountOverview, PersonView } from '../../shared/types/trade-accou
 import { changedFields } from './audit-changes'
 import { invalidInput } from './errors'
 import { hashPasswordOutsideNitro, verifyPasswordOutsideNitro } from './password'
+import { assertStrongPassword } from './password-strength'
+import { securityEvent } from './security-log'
 import { endSessions } from './session-ends'
 import { personView } from './staff'
 import { passwordAttempt } from './throttle'
@@ -56,6 +58,7 @@ export async function changePassword(user: User, sessionId: string, input: { cur
   }
   await release()
   if (input.newPassword === input.currentPassword) throw invalidInput({ newPassword: 'Choose a password different from the current one.' })
+  assertStrongPassword(input.newPassword, 'newPassword', [user.email, user.name])
   const passwordHash = await hashPasswordOutsideNitro(input.newPassword)
   const version = user.sessionVersion + 1
   await withWrite(async (t) => {
@@ -64,4 +67,5 @@ export async function changePassword(user: User, sessionId: string, input: { cur
     await endSessions(t, [user.id], sessionId)
     await audit(t, { actorUserId: user.id, organisationId: user.organisationId, action: 'user.password_changed', entity: 'user', entityId: user.id })
   })
+  securityEvent('password.changed', { userId: user.id, organisationId: user.organisationId, address }, 'info')
 }

@@ -14,6 +14,8 @@ import { ROLE_LABELS, type Role } from '../../shared/types/accounts'
 import type { PageQuery } from '../../shared/schemas/page'
 import type { PersonView, StaffList } from '../../shared/types/trade-accounts'
 import { accountMail } from './account-mail'
+import { enrolledAmong, removeFactor } from './second-factor'
+import { securityEvent } from './security-log'
 import { endSessions } from './session-ends'
 import { issueToken, voidTokensOf } from './tokens'
 import { conflict, forbidden, invalidInput, notFound } from './errors'
@@ -51,7 +53,10 @@ export async function listStaff(auth: Manager, query: PageQuery): Promise<StaffL
   const page = await pageOf(
     query,
     (window) => User.findAndCountAll({ where: { organisationId: auth.org.id, status: { [Op.ne]: 'removed' } }, order: [['name', 'ASC'], ['id', 'ASC']], ...window }),
-    (people) => people.map((p) => ({ ...personView(p), manageable: isManageable(auth, p), isYou: p.id === auth.user.id })),
+    async (people) => {
+      const withFactor = await enrolledAmong(people.map((p) => p.id))
+      return people.map((p) => ({ ...personView(p), manageable: isManageable(auth, p), isYou: p.id === auth.user.id, secondFactor: withFactor.has(p.id) }))
+    },
   )
   return { ...page, assignableRoles: assignableRoles(auth) }
 }
@@ -117,6 +122,7 @@ export async function changeRole(auth: Manager, target: User, role: Role): Promi
       await User.update({ role }, { where: { id: target.id }, transaction: t })
       await audit(t, { actorUserId: auth.user.id, organisationId: auth.org.id, action: 'user.role_changed', entity: 'user', entityId: target.id, changes: { role: { from: target.role, to: role } } })
     })
+    securityEvent('role.changed', { userId: auth.user.id, organisationId: auth.org.id, targetUserId: target.id, reason: `${target.role} to ${role}` }, 'info')
   }
   return personView((await User.findByPk(target.id))!)
 }
@@ -132,4 +138,24 @@ export async function removeColleague(auth: Manager, target: User): Promise<void
     await endSessions(t, [target.id])
     await audit(t, { actorUserId: auth.user.id, organisationId: auth.org.id, action: 'user.removed', entity: 'user', entityId: target.id, changes: { status: { from: target.status, to: 'removed' }, role: target.role } })
   })
+  securityEvent('person.removed', { userId: auth.user.id, organisationId: auth.org.id, targetUserId: target.id }, 'info')
+}
+
+/**
+ * Resets a colleague's two-step sign-in (their app and recovery codes stop working, e.g. after a lost phone): every
+ * session of theirs ends, and at their next sign-in distributor staff set up an app again. Audited; they are e-mailed.
+ * 409 when they have none.
+ */
+export async function resetSecondFactor(auth: Manager, target: User): Promise<PersonView> {
+  const had = await enrolledAmong([target.id])
+  if (!had.size) throw conflict(`${target.name} does not use two-step sign-in.`)
+  await withWrite(async (t) => {
+    await removeFactor(t, target.id)
+    await User.update({ sessionVersion: target.sessionVersion + 1 }, { where: { id: target.id }, transaction: t })
+    await endSessions(t, [target.id])
+    await audit(t, { actorUserId: auth.user.id, organisationId: auth.org.id, action: 'user.mfa_reset', entity: 'user', entityId: target.id })
+  })
+  securityEvent('mfa.reset', { userId: auth.user.id, organisationId: auth.org.id, targetUserId: target.id }, 'info')
+  await sendMail({ to: target.email, ...accountMail.secondFactorReset({ name: target.name, by: auth.user.name, signInUrl: appLink('/sign-in') }) })
+  return personView((await User.findByPk(target.id))!)
 }

@@ -1,10 +1,10 @@
 /**
  * A garage's statement: its ledger in the order it was written, with the running balance (positive = owed to
  * the distributor), and the same as CSV. CSV cells that begin with = + - @ (or tab / CR) are neutralised by
- * csv-stringify's `escape_formulas`, so a garage reference typed as a formula cannot run in a spreadsheet;
+ * the one CSV writer (csv-export.ts), so a garage reference typed as a formula cannot run in a spreadsheet;
  * amounts are numbers and stay numbers. Plain Node.
  */
-import { stringify } from 'csv-stringify/sync'
+import { safeCsv } from './csv-export'
 import { Organisation } from '../models/accounts'
 import { LedgerEntry, Order } from '../models/orders'
 import { notFound } from './errors'
@@ -84,7 +84,7 @@ export function statementCsv(s: Statement): string {
     amount: e.amountMinor,
     balance: e.balanceMinor,
   })))
-  return stringify(records, {
+  return safeCsv(records, {
     header: true,
     columns: [
       { key: 'date', header: 'Date' },
@@ -95,7 +95,6 @@ export function statementCsv(s: Statement): string {
       { key: 'amount', header: `Amount (${s.currency})` },
       { key: 'balance', header: `Balance (${s.currency})` },
     ],
-    escape_formulas: true,
     cast: { number: (minor: number) => (minor / 100).toFixed(2) },
   })
 }

@@ -18,19 +18,35 @@ import { accountMail } from './account-mail'
 import { chosenTier } from './discount-tiers'
 import { conflict, invalidInput } from './errors'
 import { hashPasswordOutsideNitro } from './password'
+import { assertStrongPassword } from './password-strength'
+import { securityEvent } from './security-log'
+import { admitApplication } from './throttle'
 import { moveIntoStore, newStoredName } from './proof-store'
 import { checkProofFile, MISSING_PROOF, receiveProof, type CheckedProof } from './proof-upload'
 import { commitGarageChange, tellGarage, termsOf } from './trade-account-changes'
 import { iso, latestProof, tierLabel, tradeAccountDetail, type Garage } from './trade-accounts'
 
-const DUPLICATE = 'An account with this e-mail already exists. Sign in, or use another address.'
+/** The one answer to an application taken, whether or not its e-mail already had an account. */
+export const APPLICATION_RECEIVED = {
+  status: 'pending',
+  message: 'Application received. We have e-mailed the address you gave; the distributor checks each application by hand and e-mails the decision.',
+} as const
 
 /**
  * Takes an application from its multipart form: the garage (pending), its manager (who may sign in to follow
  * it), the document under a name of our own, and the audit entry, in one transaction; then e-mails the applicant
- * and the distributor admins. 422/413/415 name the field at fault; temporary and stored files go on every failure.
+ * and the distributor admins. 422/413/415 name the field at fault; temporary and stored files go on every failure;
+ * 429 once the address has sent too many. An e-mail that already has an account gets the same answer after the same
+ * work (its password hashed too), nothing is created, and the owner of the address is told by e-mail instead: the
+ * answer never says which addresses have accounts.
  */
-export async function submitTradeApplication(req: IncomingMessage, uploadsDir: string): Promise<{ id: number; status: string }> {
+export async function submitTradeApplication(req: IncomingMessage, uploadsDir: string, address: string): Promise<typeof APPLICATION_RECEIVED> {
+  try {
+    await admitApplication(address)
+  } catch (err) {
+    req.resume() // the answer is sent on a connection that has read the form
+    throw err
+  }
   const upload = await receiveProof(req, uploadsDir)
   let storedPath: string | null = null
   try {
@@ -41,12 +57,15 @@ export async function submitTradeApplication(req: IncomingMessage, uploadsDir: s
     }
     const input = parsed.data
     const proof = await checkProofFile(upload.file)
-    if (await User.findOne({ where: { email: input.email }, attributes: ['id'] })) throw invalidInput({ email: DUPLICATE })
+    assertStrongPassword(input.password, 'password', [input.email, input.contactName, input.businessName])
     const passwordHash = await hashPasswordOutsideNitro(input.password)
+    if (await User.findOne({ where: { email: input.email }, attributes: ['id'] })) return await knownEmail(input.email, address)
     const storedName = newStoredName(proof.ext)
     storedPath = await moveIntoStore(upload.file!.path, uploadsDir, storedName)
-    const { org, user } = await createApplication(input, passwordHash, { ...proof, storedName })
+    const created = await createApplication(input, passwordHash, { ...proof, storedName })
+    if (!created) return await knownEmail(input.email, address) // the same e-mail applied at the same moment
     storedPath = null // committed: the file belongs to the application now
+    const { org, user } = created
 
     await sendMail({ to: user.email, ...accountMail.applicationReceived({ contactName: user.name, businessName: org.name, statusUrl: appLink('/sign-in') }) })
     const admins = await User.findAll({ where: { role: 'distributor_admin', status: 'active' }, attributes: ['email'] })
@@ -54,13 +73,21 @@ export async function submitTradeApplication(req: IncomingMessage, uploadsDir: s
       const notice = accountMail.applicationNotice({ businessName: org.name, contactName: org.contactName, email: org.email, reviewUrl: appLink(`/admin/applications/${org.id}`) })
       await sendMail({ to: admins.map((a) => a.email), ...notice })
     }
-    return { id: org.id, status: org.status }
+    return APPLICATION_RECEIVED
   } finally {
     if (storedPath) await rm(storedPath, { force: true })
     await upload.cleanup()
   }
 }
 
+/** An application with an e-mail that already has an account: nothing is kept; the address's owner is told. */
+async function knownEmail(email: string, address: string): Promise<typeof APPLICATION_RECEIVED> {
+  securityEvent('application.known_email', { email, address }, 'info')
+  await sendMail({ to: email, ...accountMail.applicationWithKnownEmail({ signInUrl: appLink('/sign-in'), resetUrl: appLink('/forgot-password') }) })
+  return APPLICATION_RECEIVED
+}
+
+/** The garage and its manager, or null when the e-mail was taken meanwhile. */
 async function createApplication(input: TradeApplicationInput, passwordHash: string, proof: CheckedProof & { storedName: string }) {
   return withWrite(async (t) => {
     const org = await Organisation.create({
@@ -80,7 +107,7 @@ async function createApplication(input: TradeApplicationInput, passwordHash: str
     })
     return { org, user }
   }).catch((err) => {
-    if (err instanceof UniqueConstraintError) throw invalidInput({ email: DUPLICATE })
+    if (err instanceof UniqueConstraintError) return null
     throw err
   })
 }

@@ -90,13 +90,29 @@ export async function receiveUpload(req: IncomingMessage, spec: UploadSpec): Pro
       cleanup,
     }
   } catch (err) {
-    // formidable stops reading when it fails; drain the rest so the client receives our answer
+    // formidable stops reading when it fails; drain the rest so the client receives our answer, and wait briefly for
+    // its end: answered while the body is still coming, the connection is closed under a client still sending (EPIPE,
+    // a browser's "connection reset" instead of the message); a body that goes on for long gets the answer anyway
     req.resume()
+    await endOrTimeout(req, 2000)
     // a file being written is unlinked by formidable a tick later; ours go now, and again after that tick
     await cleanup()
     setTimeout(() => { void cleanup() }, 50)
     throw refusalOf(err, spec)
   }
+}
+
+function endOrTimeout(req: IncomingMessage, ms: number): Promise<void> {
+  if (req.complete || req.readableEnded) return Promise.resolve()
+  return new Promise((resolve) => {
+    const timer = setTimeout(done, ms)
+    function done() {
+      clearTimeout(timer)
+      req.off('end', done).off('close', done).off('error', done)
+      resolve()
+    }
+    req.once('end', done).once('close', done).once('error', done)
+  })
 }
 
 function refusalOf(err: unknown, spec: UploadSpec): Error {

@@ -6,11 +6,12 @@
  */
 import type { H3Event } from 'h3'
 import { getRequestIP, getRouterParams, setResponseHeaders } from 'h3'
+import { Organisation } from '../models/accounts'
 import { Quote } from '../models/quotes'
 import { expireDueQuotes, findQuoteOf, hashQuoteToken, linkNotValid, quoteDetail, quotePdf, quotePdfName, type QuoteOutput } from '../services/quotes'
 import { readLogo } from '../services/garage-logo'
 import { admitLinkRequest, countLinkMiss } from '../services/quote-link-throttle'
-import { DomainError, forbidden, notFound } from '../services/errors'
+import { DomainError, conflict, forbidden, notFound } from '../services/errors'
 import { QuoteParamsSchema, QuoteTokenParamsSchema } from '../../shared/schemas/quotes'
 import { can, type Ability } from '../../shared/utils/abilities'
 import { requireAuth, type AuthContext } from './auth'
@@ -82,6 +83,16 @@ export async function loadLinkedQuote(event: H3Event, token?: string): Promise<{
     throw linkNotValid()
   }
   return { quote, address }
+}
+
+/**
+ * 409 while the garage's trade account is not in good standing (suspended): the owner's decisions are not taken, and
+ * the message tells them to contact the garage. The quote itself stays readable.
+ */
+export async function refuseWhileGarageSuspended(quote: Quote): Promise<void> {
+  const org = await Organisation.findByPk(quote.organisationId, { attributes: ['name', 'phone', 'status'] })
+  if (!org || org.status === 'approved') return
+  throw conflict(`${org.name} cannot take decisions through this link at the moment. Please contact them${org.phone ? ` on ${org.phone}` : ''} directly.`)
 }
 
 /**

@@ -6,6 +6,7 @@
  */
 import Stripe from 'stripe'
 import { DomainError } from '../services/errors'
+import { securityEvent } from '../services/security-log'
 
 let client: Stripe | undefined
 let clientKey = ''
@@ -31,10 +32,14 @@ export function useStripe(): Stripe {
  * and the signing secret (`whsec_...`); a missing, bad or stale signature is 400 and nothing is done.
  */
 export function verifiedStripeEvent(raw: string | Buffer | undefined, signature: string | undefined): Stripe.Event {
-  if (!raw || !signature) throw new DomainError('bad_request', 'A signed event body is required.')
+  if (!raw || !signature) {
+    securityEvent('webhook.bad_signature', { path: '/api/webhooks/stripe', reason: 'no signature or body' })
+    throw new DomainError('bad_request', 'A signed event body is required.')
+  }
   try {
     return useStripe().webhooks.constructEvent(raw, signature, String(useRuntimeConfig().stripeWebhookSecret))
   } catch {
+    securityEvent('webhook.bad_signature', { path: '/api/webhooks/stripe', reason: 'signature does not verify' })
     throw new DomainError('bad_request', 'The event signature does not verify.')
   }
 }

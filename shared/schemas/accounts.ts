@@ -25,8 +25,11 @@ export const PersonNameSchema = text('a name', 2, 120)
 
 // ---------------------------------------------------------------- application
 
-/** The text fields of `POST /api/trade-applications` (multipart); the file travels in the field `proof`. */
-export const TradeApplicationSchema = z.object({
+/**
+ * The text fields of `POST /api/trade-applications` (multipart); the file travels in the field `proof`. Strict: any
+ * other field is refused by name.
+ */
+export const TradeApplicationSchema = z.strictObject({
   businessName: text('the business name', 2, 160),
   tradingAddress: text('the trading address', 8, 500),
   taxNumber: text('the tax or VAT number', 4, 40),

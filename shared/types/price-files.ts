@@ -16,6 +16,8 @@ export type MissingAction = 'keep' | 'discontinue'
 export const PRICE_FILE_LIMITS = {
   maxBytes: 50 * 1024 * 1024,
   maxRows: 200_000,
+  /** cells per row: a price file needs a dozen columns; a cell far to the right (column XFD) is refused unread */
+  maxColumns: 100,
   /** XLSX (a zip): more entries or more inflated bytes than this is refused before anything is inflated */
   maxZipEntries: 2_000,
   maxZipInflatedBytes: 800 * 1024 * 1024,

@@ -93,6 +93,8 @@ export interface StaffMember extends PersonView {
   /** the caller may change this person's role or remove them */
   manageable: boolean
   isYou: boolean
+  /** the person signs in with two steps (an authenticator app) */
+  secondFactor: boolean
 }
 
 /** `GET /api/staff`: one page of the caller's own organisation's people. */

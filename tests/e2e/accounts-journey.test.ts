@@ -7,7 +7,7 @@ import { createHash } from 'node:crypto'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { setup } from '@nuxt/test-utils/e2e'
 import { Client, as, env, mailFor, people, waitForMail } from '../support/api'
-import { applicationFields, applicationForm, applyAsNewGarage, dbRows, dbValue, newApprovedGarage, pdfBytes, postApplication, unique } from '../support/accounts'
+import { applicationFields, applicationForm, applyAsNewGarage, dbRows, dbValue, garageIdOf, newApprovedGarage, pdfBytes, postApplication, unique } from '../support/accounts'
 
 await setup({ host: env().baseUrl })
 
@@ -29,7 +29,7 @@ describe('apply -> approve -> sign in', () => {
     const res = await postApplication(new Client(), applicationForm(fields, [{ name: 'Trade Registration.PDF', bytes: document, type: 'application/pdf' }]))
     expect(res.status).toBe(201)
     expect(res.body.status).toBe('pending')
-    id = res.body.id
+    id = garageIdOf(fields.email)
     const stored = dbRows<{ stored_name: string; original_name: string; mime: string; size_bytes: number }>(`SELECT * FROM proof_documents WHERE organisation_id = ${id}`)
     expect(stored).toHaveLength(1)
     expect(stored[0]).toMatchObject({ original_name: 'Trade Registration.PDF', mime: 'application/pdf', size_bytes: document.length })

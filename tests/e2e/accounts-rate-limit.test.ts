@@ -1,7 +1,8 @@
 /**
- * Sign-in throttling: at most 10 failed attempts per e-mail and per client address in 15 minutes, holding
- * against 50 parallel attempts and a changing X-Forwarded-For. Each test sends from loopback addresses of its
- * own (127.0.0.x) and with e-mails nobody else uses, so the rest of the suite (all on 127.0.0.1) is unaffected.
+ * Sign-in throttling: at most 10 failed attempts per e-mail from one address and 30 per address in 15 minutes,
+ * holding against 50 parallel attempts and a changing X-Forwarded-For; an e-mail failing from many addresses is
+ * slowed, never locked (tests/e2e/security-accounts.test.ts). Each test sends from loopback addresses of its own
+ * (127.0.0.x) and with e-mails nobody else uses, so the rest of the suite (all on 127.0.0.1) is unaffected.
  */
 import { describe, expect, it } from 'vitest'
 import { setup } from '@nuxt/test-utils/e2e'
@@ -25,27 +26,36 @@ function expectRetry(r: { status: number; headers: Record<string, string | strin
 }
 
 describe('sign-in throttling', () => {
-  it('per e-mail: of 50 parallel wrong passwords from 50 addresses, 10 are checked and 40 get 429', async () => {
+  it('per e-mail and address: of 50 parallel wrong passwords from one address, 10 are checked and 40 get 429', async () => {
     const { fields } = await applyAsNewGarage()
+    const address = '127.0.0.100'
     const results = await Promise.all(Array.from({ length: 50 }, (_, i) =>
-      fromAddress(`127.0.0.${100 + i}`, '/api/auth/sign-in', { email: fields.email, password: `wrong-password-${i}` }, forged(i))))
+      fromAddress(address, '/api/auth/sign-in', { email: fields.email, password: `wrong-password-${i}` }, forged(i))))
     expect(tally(results)).toEqual({ 401: 10, 429: 40 })
     for (const r of results.filter((x) => x.status === 429)) expectRetry(r)
     for (const r of results.filter((x) => x.status === 401)) expect(r.body.message).toBe('That e-mail and password do not match an account.')
-    // now even the right password is refused for this e-mail, from a fresh address
-    const right = await fromAddress('127.0.0.160', '/api/auth/sign-in', { email: fields.email, password: fields.password })
+    // now even the right password is refused for this e-mail from that address …
+    const right = await fromAddress(address, '/api/auth/sign-in', { email: fields.email, password: fields.password })
     expect(right.status).toBe(429)
     expectRetry(right)
-    // the same e-mail in another letter case is the same e-mail
-    expect((await fromAddress('127.0.0.161', '/api/auth/sign-in', { email: fields.email.toUpperCase(), password: fields.password })).status).toBe(429)
+    // (the same e-mail in another letter case is the same e-mail)
+    expect((await fromAddress(address, '/api/auth/sign-in', { email: fields.email.toUpperCase(), password: fields.password })).status).toBe(429)
+    // … while its owner, elsewhere, is not locked out
+    expect((await fromAddress('127.0.0.101', '/api/auth/sign-in', { email: fields.email, password: fields.password })).status).toBe(200)
   })
 
-  it('per address: 50 parallel attempts for 50 e-mails with a changing X-Forwarded-For, 10 checked and 40 get 429', async () => {
+  it('per address: 50 parallel attempts for 50 e-mails with a changing X-Forwarded-For, 30 checked and 20 get 429', async () => {
     const address = '127.0.0.60'
     const results = await Promise.all(Array.from({ length: 50 }, (_, i) =>
       fromAddress(address, '/api/auth/sign-in', { email: uniqueEmail(`spray-${i}`), password: 'guess-guess-guess' }, forged(i))))
-    expect(tally(results)).toEqual({ 401: 10, 429: 40 })
+    // 30 are let through to the password check: each is checked (401) or, when the bounded hashing queue has
+    // waited its limit on a busy machine, told to come back (503 with Retry-After); never more than 30
+    const t = tally(results)
+    expect(t[429]).toBe(20)
+    expect((t[401] ?? 0) + (t[503] ?? 0)).toBe(30)
+    expect(t[401]).toBeGreaterThan(0)
     for (const r of results.filter((x) => x.status === 429)) expectRetry(r)
+    for (const r of results.filter((x) => x.status === 503)) expect(Number(r.headers['retry-after'])).toBeGreaterThan(0)
     // a demo person's right password from that address is refused too …
     expect((await fromAddress(address, '/api/auth/sign-in', { email: people.technician, password: DEMO_PASSWORD }, forged(99))).status).toBe(429)
     // … while everyone else is unaffected
@@ -56,10 +66,11 @@ describe('sign-in throttling', () => {
   it('does not count right passwords as failures', async () => {
     const { fields } = await applyAsNewGarage()
     const address = '127.0.0.62'
-    for (let i = 0; i < 9; i++) expect((await fromAddress(address, '/api/auth/sign-in', { email: fields.email, password: 'not-the-password' })).status).toBe(401)
+    // four failures: below the point where the e-mail starts to be slowed, so this test stays quick
+    for (let i = 0; i < 4; i++) expect((await fromAddress(address, '/api/auth/sign-in', { email: fields.email, password: 'not-the-password' })).status).toBe(401)
     // each success is counted first, then given back: five in a row never reach the limit
     for (let i = 0; i < 5; i++) expect((await fromAddress(address, '/api/auth/sign-in', { email: fields.email, password: fields.password })).status).toBe(200)
-    expect((await fromAddress(address, '/api/auth/sign-in', { email: fields.email, password: 'not-the-password' })).status).toBe(401)
+    for (let i = 0; i < 6; i++) expect((await fromAddress(address, '/api/auth/sign-in', { email: fields.email, password: 'not-the-password' })).status).toBe(401)
     expect((await fromAddress(address, '/api/auth/sign-in', { email: fields.email, password: 'not-the-password' })).status).toBe(429)
   })
 })

@@ -70,11 +70,19 @@ const rows: Row[] = [
   { route: 'GET /api/trade-applications/mine', call: (c) => c.get('/api/trade-applications/mine'), expect: signedIn({ admin: 404, counter: 404, manager: 200, technician: 200 }, 200) },
   { route: 'PATCH /api/account/profile', call: (c) => c.patch('/api/account/profile', {}), expect: signedIn({ admin: 422, counter: 422, manager: 422, technician: 422 }) },
   { route: 'POST /api/account/password', call: (c) => c.post('/api/account/password', {}), expect: signedIn({ admin: 422, counter: 422, manager: 422, technician: 422 }) },
+  // two-step sign-in: bodies that fail validation, so nobody's factor changes (the code step checks its body first)
+  { route: 'POST /api/auth/mfa', call: (c) => c.post('/api/auth/mfa', {}), expect: all(422) },
+  { route: 'GET /api/account/mfa', call: (c) => c.get('/api/account/mfa'), expect: signedIn({ admin: 200, counter: 200, manager: 200, technician: 200 }) },
+  { route: 'POST /api/account/mfa/enrolment', call: (c) => c.post('/api/account/mfa/enrolment', { code: '1' }), expect: signedIn({ admin: 422, counter: 422, manager: 422, technician: 422 }) },
+  { route: 'POST /api/account/mfa/enrolment/confirm', call: (c) => c.post('/api/account/mfa/enrolment/confirm', {}), expect: signedIn({ admin: 422, counter: 422, manager: 422, technician: 422 }) },
+  { route: 'POST /api/account/mfa/off', call: (c) => c.post('/api/account/mfa/off', {}), expect: signedIn({ admin: 422, counter: 422, manager: 422, technician: 422 }) },
+  { route: 'POST /api/account/mfa/recovery-codes', call: (c) => c.post('/api/account/mfa/recovery-codes', {}), expect: signedIn({ admin: 422, counter: 422, manager: 422, technician: 422 }) },
   // staff: managers of a garage, the distributor admin; someone of another organisation is 404
   { route: 'GET /api/staff', call: (c) => c.get('/api/staff'), expect: signedIn({ admin: 200, manager: 200 }) },
   { route: 'POST /api/staff', call: (c) => c.post('/api/staff', {}), expect: signedIn({ admin: 422, manager: 422 }) },
   { route: 'PATCH /api/staff/:id', call: (c) => c.patch(`/api/staff/${ids.foreignStaff}`, { role: 'garage_manager' }), expect: signedIn({ admin: 404, manager: 404 }) },
   { route: 'DELETE /api/staff/:id', call: (c) => c.del(`/api/staff/${ids.foreignStaff}`), expect: signedIn({ admin: 404, manager: 404 }) },
+  { route: 'POST /api/staff/:id/mfa-reset', call: (c) => c.post(`/api/staff/${ids.foreignStaff}/mfa-reset`), expect: signedIn({ admin: 404, manager: 404 }) },
   // distributor admin
   { route: 'GET /api/admin/trade-applications', call: (c) => c.get('/api/admin/trade-applications?status=pending'), expect: signedIn({ admin: 200 }) },
   { route: 'GET /api/admin/trade-applications/:id', call: (c) => c.get(`/api/admin/trade-applications/${ids.pendingApp}`), expect: signedIn({ admin: 200 }) },

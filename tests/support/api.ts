@@ -1,8 +1,15 @@
 /**
  * A small HTTP client for e2e tests with its own cookie jar: one `Client` is one browser-like caller.
- * `signIn(email)` uses the demo password. Responses are not thrown on 4xx/5xx: tests assert the status.
+ * `signIn(email)` uses the demo password and, for people with two-step sign-in (the distributor's staff), gives the
+ * code computed from their secret (tests/support/totp.ts), setting up an app first when the server asks for one.
+ * `as(email)` for such people reuses one session per person for the whole run: each code works once, so signing
+ * them in afresh for every test would wait 30 seconds a time. Responses are not thrown on 4xx/5xx: tests assert the
+ * status.
  */
+import { existsSync, readFileSync, writeFileSync } from 'node:fs'
+import { join } from 'node:path'
 import { inject } from 'vitest'
+import { freshCode, rememberSecret, secretOf, withRunLock } from './totp'
 
 export const DEMO_PASSWORD = 'brake-demo-2026'
 
@@ -63,14 +70,42 @@ export class Client {
   async signIn(email: string, password = DEMO_PASSWORD): Promise<Res> {
     const r = await this.post('/api/auth/sign-in', { email, password })
     if (r.status !== 200) throw new Error(`sign-in as ${email} failed: ${r.status} ${r.text}`)
-    return r
+    return r.body?.mfaRequired ? this.secondStep(email, r.body.enrolment?.secret) : r
+  }
+
+  /** The code step of a sign-in: a fresh code from the person's secret (a newly offered one is set up and remembered). */
+  async secondStep(email: string, offeredSecret?: string): Promise<Res> {
+    if (offeredSecret) rememberSecret(email, offeredSecret)
+    for (let attempt = 0; ; attempt++) {
+      const r = await this.post('/api/auth/mfa', { code: await freshCode(email, offeredSecret ?? secretOf(email)) })
+      if (r.status === 200) return r
+      // a step used outside this run's record (by a test of its own): the next one will do
+      if (attempt >= 2 || r.status !== 401 || !r.body?.data?.fields?.code) throw new Error(`second step as ${email} failed: ${r.status} ${r.text}`)
+    }
   }
 }
 
+/**
+ * A signed-in client. People with two-step sign-in share one session per person for the run (kept in a file of the
+ * run, checked before use, signed in again when it has ended); everyone else signs in afresh.
+ */
 export async function as(email: string): Promise<Client> {
   const c = new Client()
-  await c.signIn(email)
-  return c
+  if (!secretOf(email)) {
+    await c.signIn(email)
+    return c
+  }
+  const file = join(env().tmpDir, `session-${email.toLowerCase()}.json`)
+  return withRunLock(`session-${email.toLowerCase()}`, async () => {
+    if (existsSync(file)) {
+      for (const [k, v] of JSON.parse(readFileSync(file, 'utf8')) as [string, string][]) c.cookies.set(k, v)
+      if ((await c.get('/api/me')).status === 200) return c
+      c.cookies.clear()
+    }
+    await c.signIn(email)
+    writeFileSync(file, JSON.stringify([...c.cookies]))
+    return c
+  })
 }
 
 /** Messages the mail catcher holds for one recipient. */

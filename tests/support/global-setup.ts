@@ -24,7 +24,16 @@ interface Shared {
   closers: (() => Promise<void>)[]
   dir: string
 }
-export interface TestEnv { baseUrl: string; mailUrl: string; paymentsUrl: string; dbPath: string; uploadsDir: string; tmpDir: string; smtpPort: number; vehicleDataUrl: string }
+export interface TestEnv {
+  baseUrl: string; mailUrl: string; paymentsUrl: string; dbPath: string; uploadsDir: string; tmpDir: string
+  smtpPort: number; vehicleDataUrl: string
+  /** the server process, for tests that watch its memory */
+  serverPid: number
+  /** where the server writes its security log (JSON lines) */
+  securityLog: string
+  /** the environment the repository's scripts need to work on this run's database (user:create) */
+  scriptEnv: Record<string, string>
+}
 
 const KEY = Symbol.for('boreline.e2e.shared')
 const g = globalThis as unknown as Record<symbol, Promise<Shared> | undefined>
@@ -118,6 +127,8 @@ async function start(): Promise<Shared> {
     UV_THREADPOOL_SIZE: '16',
     DATABASE_URL: `sqlite:${dbPath}`,
     NUXT_SESSION_PASSWORD: 'e2e-session-password-0123456789-abcdefghijkl',
+    NUXT_MFA_KEY: 'e2e-second-factor-key-0123456789-abcdefghij',
+    BORELINE_SECURITY_LOG: join(dir, 'security.log'),
     NUXT_PUBLIC_ORIGIN: baseUrl,
     NUXT_UPLOADS_DIR: uploadsDir,
     NUXT_SMTP_HOST: '127.0.0.1',
@@ -143,7 +154,11 @@ async function start(): Promise<Shared> {
   mkdirSync(tmpDir)
   return {
     refs: 0, server, closers, dir,
-    env: { baseUrl, mailUrl: `http://127.0.0.1:${httpPort}`, paymentsUrl, dbPath, uploadsDir, tmpDir, smtpPort, vehicleDataUrl },
+    env: {
+      baseUrl, mailUrl: `http://127.0.0.1:${httpPort}`, paymentsUrl, dbPath, uploadsDir, tmpDir, smtpPort, vehicleDataUrl,
+      serverPid: server.pid!, securityLog: String(env.BORELINE_SECURITY_LOG),
+      scriptEnv: { DATABASE_URL: String(env.DATABASE_URL), NUXT_MFA_KEY: String(env.NUXT_MFA_KEY), NUXT_SESSION_PASSWORD: String(env.NUXT_SESSION_PASSWORD) },
+    },
   }
 }
 

@@ -19,7 +19,7 @@ import { DEMO_PASSWORD, env } from './api'
 export const WEBHOOK_SECRET = 'whsec_boreline_test_secret'
 
 let bound = false
-function models(): void {
+export function models(): void {
   if (bound) return
   process.env.DATABASE_URL = `sqlite:${env().dbPath}`
   initModels(getDb())

@@ -2,8 +2,16 @@
 import type { Order } from '../../models/orders'
 import { DELIVERY_NOTE_STATUSES } from '../../../shared/types/orders'
 
-/** How long a card order may hold stock without a checkout being opened (the sweep lets it lapse after). */
-export const UNPAID_HOLD_MINUTES = 60
+/**
+ * How long an unpaid card order holds its stock: without a checkout it lapses in the sweep after this long, and a
+ * checkout expires this long after it opens. The payment service keeps a checkout open for 30 minutes at least and
+ * 24 hours at most, so the configured value is kept within those.
+ */
+export const DEFAULT_HOLD_MINUTES = 30
+export function holdMinutesOf(configured: unknown): number {
+  const n = Number(configured)
+  return Number.isFinite(n) ? Math.min(23 * 60, Math.max(30, Math.round(n))) : DEFAULT_HOLD_MINUTES
+}
 
 type State = Pick<Order, 'status' | 'paymentMethod' | 'paymentState'>
 

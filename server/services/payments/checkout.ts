@@ -1,6 +1,9 @@
 /**
  * Card checkout for a garage's own order through the payment service. An open checkout is reused, so after a
- * declined card the garage simply tries again on the same page; a lapsed order takes its stock again first.
+ * declined card the garage simply tries again on the same page. A checkout stays open for the order's hold time
+ * (runtime config `orderHoldMinutes`) and then expires, giving the stock back. A lapsed order is priced again first
+ * (reprice.ts): when a price changed, the garage sees the new total (409) before paying it; otherwise it takes its
+ * stock again.
  */
 import type Stripe from 'stripe'
 import type { User } from '../../models/accounts'
@@ -13,7 +16,9 @@ import type { Formats } from '../../../shared/utils/format'
 import { DomainError, conflict } from '../errors'
 import { findGarageOrder } from '../orders/find'
 import { mayPay } from '../orders/rules'
+import { repriceLapsedOrder } from '../orders/reprice'
 import { reserveStock } from '../orders/stock'
+import type { PriceChange } from '../orders/reprice'
 import { settleSession } from './events'
 import { orderKey } from './keys'
 
@@ -62,12 +67,17 @@ async function openCheckout(order: Order, fmt: Formats): Promise<{ url: string; 
   return null
 }
 
-/** Readies the order for a new checkout: a lapsed order takes its stock again (409 "Only N left" when it has gone). */
-function prepareAttempt(orgId: number, orderId: number): Promise<Order> {
+/**
+ * Readies the order for a new checkout: a lapsed order is priced again (returned as `repriced`, nothing else done,
+ * when a price changed) and takes its stock again (409 "Only N left" when it has gone).
+ */
+function prepareAttempt(orgId: number, orderId: number, userId: number): Promise<{ order: Order; repriced: PriceChange | null }> {
   return withWrite(async (t) => {
     const o = await findGarageOrder(orgId, orderId, t)
     assertPayable(o)
     if (o.status === 'lapsed') {
+      const repriced = await repriceLapsedOrder(t, o, userId)
+      if (repriced) return { order: o, repriced }
       await reserveStock(t, o.branch!, o.lines ?? [])
       o.stockHeld = true
       o.status = 'awaiting_payment'
@@ -77,17 +87,23 @@ function prepareAttempt(orgId: number, orderId: number): Promise<Order> {
       o.checkoutAttempt = (o.checkoutAttempt ?? 0) + 1
     }
     await o.save({ transaction: t })
-    return o
+    return { order: o, repriced: null }
   })
 }
 
-/** Opens (or reopens) the card checkout of a garage's own order and returns where to send the browser. */
-export async function startCheckout(orgId: number, orderId: number, user: Pick<User, 'email'>, fmt: Formats): Promise<{ url: string; alreadyPaid: boolean }> {
+/**
+ * Opens (or reopens) the card checkout of a garage's own order and returns where to send the browser; the checkout
+ * expires after `holdMinutes`. 409 with `repriced` when a lapsed order's prices changed (the order now shows them).
+ */
+export async function startCheckout(orgId: number, orderId: number, user: Pick<User, 'id' | 'email'>, fmt: Formats, holdMinutes: number): Promise<{ url: string; alreadyPaid: boolean }> {
   const current = await findGarageOrder(orgId, orderId)
   assertPayable(current)
   const reopened = await openCheckout(current, fmt)
   if (reopened) return reopened
-  const order = await prepareAttempt(orgId, orderId)
+  const { order, repriced } = await prepareAttempt(orgId, orderId, user.id)
+  if (repriced) {
+    throw conflict(`Prices have changed since this order was placed: it now comes to ${fmt.money(repriced.totalMinor)} (it was ${fmt.money(repriced.previousTotalMinor)}). The order shows the new prices; pay again to go ahead.`, { repriced })
+  }
   const reference = orderReference(order.id)
   const back = appLink(`/orders/${order.id}`)
   let session: Stripe.Checkout.Session
@@ -99,6 +115,8 @@ export async function startCheckout(orgId: number, orderId: number, user: Pick<U
       metadata: { orderId: String(order.id), reference },
       payment_intent_data: { metadata: { orderId: String(order.id), reference }, description: `Boreline order ${reference}` },
       customer_email: user.email,
+      // the checkout closes when the hold ends (a minute's margin over the payment service's 30-minute minimum)
+      expires_at: Math.floor(Date.now() / 1000) + holdMinutes * 60 + 60,
       success_url: `${back}?checkout=done&session_id={CHECKOUT_SESSION_ID}`,
       cancel_url: `${back}?checkout=left`,
     }, { idempotencyKey: `${orderKey(order)}-checkout-${order.checkoutAttempt ?? 0}` })

@@ -1,6 +1,6 @@
 /**
  * The periodic reconciliation of what lost or late webhooks would have told us: unpaid checkouts that completed
- * or expired, card orders that never opened a checkout (their stock goes back after UNPAID_HOLD_MINUTES), and
+ * or expired, card orders that never opened a checkout (their stock goes back after the hold time), and
  * refunds that could not be sent yet. Each pass looks at up to SWEEP_BATCH rows of each kind; the next pass takes
  * the rest, so a backlog drains without one pass holding the payment service for long.
  */
@@ -8,7 +8,6 @@ import { Op } from 'sequelize'
 import { CoreReturn, Order } from '../../models/orders'
 import { stripeProblem, useStripe } from '../../utils/stripe'
 import type { Formats } from '../../../shared/utils/format'
-import { UNPAID_HOLD_MINUTES } from '../orders/rules'
 import { lapseOrder } from './effects'
 import { expireSession, settleSession } from './events'
 import { handleOnce } from './record-once'
@@ -30,7 +29,7 @@ async function each<R>(rows: R[], what: (row: R) => string, step: (row: R) => Pr
   }
 }
 
-export async function sweepOrders(fmt: Formats, now = new Date()): Promise<SweepResult> {
+export async function sweepOrders(fmt: Formats, holdMinutes: number, now = new Date()): Promise<SweepResult> {
   const r: SweepResult = { paid: 0, lapsed: 0, refunds: 0, coreRefunds: 0, errors: 0 }
   const waiting = await Order.findAll({ where: { status: 'awaiting_payment', checkoutSessionId: { [Op.ne]: null } }, limit: SWEEP_BATCH })
   for (const o of waiting) {
@@ -44,7 +43,7 @@ export async function sweepOrders(fmt: Formats, now = new Date()): Promise<Sweep
     }
   }
   const stale = await Order.findAll({
-    where: { status: 'awaiting_payment', checkoutSessionId: null, createdAt: { [Op.lt]: new Date(now.getTime() - UNPAID_HOLD_MINUTES * 60_000) } },
+    where: { status: 'awaiting_payment', checkoutSessionId: null, createdAt: { [Op.lt]: new Date(now.getTime() - holdMinutes * 60_000) } },
     limit: SWEEP_BATCH,
   })
   await each(stale, (o) => `lapse of order ${o.id}`, async (o) => (await handleOnce(null, o.id, async (t, order) => {

@@ -1,6 +1,6 @@
 /**
  * The check of one price file (the queue runs one at a time, queue.ts). It reads the header and decides the
- * columns here; the rows are read and validated as a stream by a worker thread (CSV; row-thread.ts) or here (XLSX),
+ * columns here; the rows are read and validated as a stream by a worker thread (CSV and XLSX; row-thread.ts),
  * arriving as packed batches (row-batches.ts) that this thread compares with the snapshot of the prices in use
  * (compare.ts, snapshot.ts). The findings stay in memory and are written at the end as a few JSON chunks per kind,
  * with the counts, in one short write transaction (findings.ts). The event loop is given back between batches, so
@@ -61,10 +61,11 @@ export async function runCheck(id: number, report: ReportProgress): Promise<void
 
     const baseId = await activePriceVersionId()
     timing.mark('header')
-    // CSV rows are read and validated by a worker thread while this one compares them (row-thread.ts); XLSX rows,
-    // or every file where the worker bundle is missing, are packed here, batch by batch, the same way
-    const job: RowJob = { path, delimiter: delimiter ?? ',', afterRow: header.rowNumber, mapping, headers, decimal }
-    const workerFile = priceFile.fileFormat === 'csv' ? rowsWorkerPath() : null
+    // rows are read and validated by a worker thread while this one compares them (row-thread.ts), so a heavy file
+    // never holds up the server's requests; where the worker bundle is missing they are packed here, the same way
+    const format = priceFile.fileFormat === 'xlsx' ? 'xlsx' : 'csv'
+    const job: RowJob = { format, path, delimiter: delimiter ?? ',', afterRow: header.rowNumber, mapping, headers, decimal }
+    const workerFile = rowsWorkerPath()
     if (workerFile) {
       await source.rows.return(undefined)
       packed = workerBatches(workerFile, job)

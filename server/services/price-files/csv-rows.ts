@@ -6,7 +6,7 @@ import { isUtf8 } from 'node:buffer'
 import { createReadStream } from 'node:fs'
 import { open } from 'node:fs/promises'
 import Papa from 'papaparse'
-import { PriceFileError, type FileRow, type RowSource } from './file-rows'
+import { PriceFileError, assertRowWidth, type FileRow, type RowSource } from './file-rows'
 import { encodingError } from './utf8'
 
 /** Picks the delimiter that splits the header line into the most cells, ignoring quoted text. */
@@ -94,7 +94,11 @@ export function csvRows(path: string, delimiter: string): RowSource {
         throw new PriceFileError(`The file cannot be read as CSV at row ${n + res.data.length + 1}: one row is longer than 64 KB (often a quote that is never closed). Check that row; nothing has been changed.`, 'csv_syntax')
       }
       const out: FileRow[] = new Array(res.data.length)
-      for (let i = 0; i < res.data.length; i++) out[i] = { rowNumber: ++n, cells: res.data[i] as string[] }
+      for (let i = 0; i < res.data.length; i++) {
+        const cells = res.data[i] as string[]
+        assertRowWidth(cells.length, n + 1)
+        out[i] = { rowNumber: ++n, cells }
+      }
       return out
     }
     try {

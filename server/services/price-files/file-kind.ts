@@ -3,6 +3,8 @@
  * will be proven to be CSV by parsing; anything else is named in the refusal ("a PDF document").
  */
 import { open, stat } from 'node:fs/promises'
+import { extname } from 'node:path'
+import { detectDelimiter, readFirstLine } from './csv-rows'
 import { PriceFileError } from './file-rows'
 
 const XLSX_MIME = 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet'
@@ -49,4 +51,37 @@ export async function sniffPriceFile(path: string): Promise<SniffResult> {
     throw new PriceFileError('The file is empty.', 'empty')
   }
   return { format: 'csv', bom }
+}
+
+// names a text price file may carry (or none)
+const TEXT_EXTENSIONS = new Set(['', 'csv', 'txt', 'tsv', 'tab'])
+
+/**
+ * Text that is to be read as a CSV price file must say so and look so, by its bytes: its name does not claim another
+ * format (a text file named .docx or .xlsx is something else, whatever it holds), it is not markup or data (HTML,
+ * XML, JSON), and its first line has at least two columns (a price file needs a SKU and a price).
+ */
+export async function proveCsvText(path: string, fileName: string): Promise<void> {
+  const ext = extname(fileName).slice(1).toLowerCase()
+  if (!TEXT_EXTENSIONS.has(ext)) {
+    throw new PriceFileError(`This file is named .${ext} but holds plain text, going by its content: it is neither a spreadsheet nor a CSV price file. Save the prices as CSV or XLSX and upload that.`, 'wrong_type')
+  }
+  const first = (await readFirstLine(path)).trim()
+  if (/^[<{[]/.test(first)) {
+    throw new PriceFileError('This file holds markup or data (HTML, XML or JSON), going by its content, not a CSV price file.', 'wrong_type')
+  }
+  if (columnsIn(first, detectDelimiter(first)) < 2) {
+    throw new PriceFileError('This text is not a CSV price file: its first line has no columns separated by commas, semicolons or tabs.', 'wrong_type')
+  }
+}
+
+/** Cells in one CSV line, quotes respected. */
+function columnsIn(line: string, delimiter: string): number {
+  let n = 1
+  let quoted = false
+  for (const ch of line) {
+    if (ch === '"') quoted = !quoted
+    else if (!quoted && ch === delimiter) n++
+  }
+  return n
 }

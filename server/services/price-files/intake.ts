@@ -15,7 +15,7 @@ import { fieldMessages } from '../../../shared/utils/field-messages'
 import { invalidInput } from '../errors'
 import { receiveUpload, type UploadSpec } from '../upload-intake'
 import { PriceFileError } from './file-rows'
-import { sniffPriceFile } from './file-kind'
+import { proveCsvText, sniffPriceFile } from './file-kind'
 import { inspectZip } from './zip-safety'
 import { priceFileTmpDir, priceFilesDir } from './storage'
 import { enqueueCheck } from './queue'
@@ -39,11 +39,15 @@ function intakeSpec(): UploadSpec {
   }
 }
 
-/** CSV or XLSX from the bytes; the person sees what else it is (a PDF, an image, a zip bomb) beside the file field. */
-async function fileKind(path: string): Promise<{ format: 'csv' | 'xlsx'; bom: boolean }> {
+/**
+ * CSV or XLSX from the bytes; the person sees what else it is (a PDF, an image, a zip bomb, text that is no CSV)
+ * beside the file field.
+ */
+async function fileKind(path: string, fileName: string): Promise<{ format: 'csv' | 'xlsx'; bom: boolean }> {
   try {
     const sniff = await sniffPriceFile(path)
     if (sniff.format === 'xlsx') await inspectZip(path)
+    else await proveCsvText(path, fileName)
     return { format: sniff.format, bom: !!sniff.bom }
   } catch (err) {
     if (err instanceof PriceFileError) throw invalidInput({ file: err.message }, err.message)
@@ -60,7 +64,7 @@ export async function receivePriceFile(req: IncomingMessage, userId: number): Pr
     const fields = parsed.data
     const file = received.file
     if (!file) throw invalidInput({ file: 'Choose a price file (CSV or XLSX) to upload.' })
-    const { format, bom } = await fileKind(file.path)
+    const { format, bom } = await fileKind(file.path, file.originalName)
     const storedName = `${randomUUID()}.${format}`
     await mkdir(priceFilesDir(), { recursive: true })
     await rename(file.path, join(priceFilesDir(), storedName))

@@ -1,11 +1,11 @@
 /**
  * The refused rows of a check as a CSV file: each row's number, the columns at fault and the reason, then its cells
  * as read under the file's own headers, so the fixed rows can be uploaded again as they are. Cells are written by
- * csv-stringify with `escape_formulas: true`, so a formula that came in with the file cannot run when the list is
- * opened in a spreadsheet.
+ * the one CSV writer (csv-export.ts: formulas and leading separators neutralised), so a formula that came in with the
+ * file cannot run when the list is opened in a spreadsheet.
  */
-import { stringify } from 'csv-stringify/sync'
 import type { PriceFile } from '../../models/price-files'
+import { safeCsv } from '../csv-export'
 import { F, readFindings } from './findings'
 
 export async function refusedRowsCsv(priceFile: PriceFile): Promise<{ name: string; csv: string }> {
@@ -17,7 +17,7 @@ export async function refusedRowsCsv(priceFile: PriceFile): Promise<{ name: stri
     const raw = f[F.raw] ?? {}
     return [f[F.row], f[F.columns] ?? '', f[F.reason] ?? '', ...cellColumns.map((h) => raw[h] ?? (h === m?.sku ? f[F.sku] ?? '' : ''))]
   })
-  const csv = stringify(rows, { header: true, columns: ['row', 'problem_columns', 'problem', ...cellColumns], escape_formulas: true, bom: true })
+  const csv = safeCsv(rows, { header: true, columns: ['row', 'problem_columns', 'problem', ...cellColumns], bom: true })
   const base = priceFile.fileName.replace(/\.[^.]+$/, '').replace(/[^A-Za-z0-9._-]+/g, '-').slice(0, 60) || 'price-file'
   return { name: `${base}-refused-rows.csv`, csv }
 }

@@ -3,14 +3,16 @@
  * to the one that compares them with the catalogue: the numbers of a batch in one Float64Array, its SKUs,
  * descriptions and types as one joined string each, refused rows as objects (few). A batch of 2,000 rows is a
  * handful of transferable buffers and strings instead of 2,000 objects to clone, so the reading can run in a
- * worker thread (rows-worker.ts, CSV files) while the server thread compares; XLSX files (and every file with
- * `BORELINE_PRICE_WORKER=0`) are packed the same way on the server thread, so the comparing code has one input.
+ * worker thread (rows-worker.ts, CSV and XLSX files) while the server thread compares; with `BORELINE_PRICE_WORKER=0`
+ * (or no worker bundle, `nuxi dev`) they are packed the same way on the server thread, so the comparing code has one
+ * input.
  *
  * Plain functions and classes, no Nitro imports: the worker bundle and the unit tests import this file.
  */
 import { PRICE_FILE_LIMITS, type ColumnMapping } from '../../../shared/types/price-files'
-import { PriceFileError, type FileRow } from './file-rows'
+import { PriceFileError, type FileRow, type RowSource } from './file-rows'
 import { csvRows } from './csv-rows'
+import { xlsxRows } from './xlsx-rows'
 import { columnIndex } from './mapping'
 import { rowValidator, type RowIssue, type RowValidator, type RowValues } from './rows'
 
@@ -43,6 +45,8 @@ export interface RowBatch {
 
 /** What a reader needs to validate and pack a file's rows. */
 export interface RowJob {
+  /** CSV unless said otherwise */
+  format?: 'csv' | 'xlsx'
   path: string
   delimiter: string
   /** rows up to and including this one (the header) are skipped */
@@ -190,9 +194,17 @@ export async function* packRows(source: AsyncIterable<FileRow[]>, bytesRead: () 
   if (last) yield last
 }
 
-/** Rows of a CSV file after its header, validated and packed (what the worker runs). */
-export async function* packedCsv(job: RowJob): AsyncGenerator<RowBatch> {
-  const source = csvRows(job.path, job.delimiter)
+/** Rows of a CSV file after its header, validated and packed. */
+export function packedCsv(job: RowJob): AsyncGenerator<RowBatch> {
+  return packedFrom(csvRows(job.path, job.delimiter), job)
+}
+
+/** Rows of a price file of either format after its header, validated and packed (what the worker runs). */
+export function packedFile(job: RowJob): AsyncGenerator<RowBatch> {
+  return packedFrom(job.format === 'xlsx' ? xlsxRows(job.path, job.decimal) : csvRows(job.path, job.delimiter), job)
+}
+
+async function* packedFrom(source: RowSource, job: RowJob): AsyncGenerator<RowBatch> {
   try {
     yield* packRows(source.rows, source.bytesRead, job)
   } finally {

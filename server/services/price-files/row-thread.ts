@@ -1,5 +1,5 @@
 /**
- * Runs the reading and validating of a CSV price file in a worker thread (rows-worker.ts, bundled beside the
+ * Runs the reading and validating of a price file (CSV or XLSX) in a worker thread (rows-worker.ts, bundled beside the
  * server as `price-rows-worker.cjs`), so the server thread only compares: on this 2-core machine the two halves
  * of a 200,000-row check then run side by side. Where the bundle is not there (`nuxi dev`) or
  * `BORELINE_PRICE_WORKER=0`, the caller packs the rows on its own thread instead (same batches, same results).
@@ -30,7 +30,7 @@ export function rowsWorkerPath(): string | null {
   return located
 }
 
-/** The packed batches of a CSV file, read and validated by a worker thread; stopping early ends the worker. */
+/** The packed batches of a price file, read and validated by a worker thread; stopping early ends the worker. */
 export async function* workerBatches(file: string, job: RowJob): AsyncGenerator<RowBatch> {
   const worker = new Worker(file, { workerData: job })
   let exitCode = 0

@@ -1,5 +1,6 @@
 /**
- * The worker thread that reads and validates a CSV price file (papaparse, zod) while the server thread compares
+ * The worker thread that reads and validates a price file (CSV with papaparse, XLSX with exceljs) while the server
+ * thread compares
  * the rows with the catalogue: bundled on its own beside the server at build time (nuxt.config.ts, esbuild) as
  * `price-rows-worker.cjs`. It posts packed batches (row-batches.ts), their buffers transferred, then `done`; a
  * problem with the file is posted as `refused` with the message the person sees.
@@ -7,7 +8,7 @@
 import { setPriority } from 'node:os'
 import { parentPort, workerData } from 'node:worker_threads'
 import { PriceFileError } from './file-rows'
-import { packedCsv, transferables, type RowBatch, type RowJob } from './row-batches'
+import { packedFile, transferables, type RowBatch, type RowJob } from './row-batches'
 
 export type WorkerMessage =
   | { type: 'batch'; batch: RowBatch }
@@ -19,7 +20,7 @@ async function run(job: RowJob): Promise<void> {
   const port = parentPort!
   let count = 0
   try {
-    for await (const batch of packedCsv(job)) {
+    for await (const batch of packedFile(job)) {
       count = batch.count
       port.postMessage({ type: 'batch', batch } satisfies WorkerMessage, transferables(batch))
     }

@@ -1,10 +1,11 @@
 /**
  * The rows of the first worksheet of an XLSX price file as text cells, streamed by exceljs (call inspectZip and
- * proveZipSizes from zip-safety.ts first).
+ * proveZipSizes from zip-safety.ts first). Runs in the rows worker thread for the check (rows-worker.ts); a row
+ * wider than the column limit is refused before its cells are read.
  */
 import { createReadStream } from 'node:fs'
 import { Transform } from 'node:stream'
-import { PriceFileError, type FileRow, type RowSource } from './file-rows'
+import { PriceFileError, assertRowWidth, type FileRow, type RowSource } from './file-rows'
 
 /** An exceljs cell value as the text a CSV would hold: formulas become "=..." so the checks refuse them. */
 export function xlsxCellText(v: unknown, decimal: '.' | ','): string {
@@ -46,6 +47,8 @@ export function xlsxRows(path: string, decimal: '.' | ','): RowSource {
           const out: FileRow[] = []
           for (const row of list) {
             const values = row.values ?? []
+            // a sparse array as long as the row's last cell: its length is known before any cell is looked at
+            assertRowWidth(values.length - 1, row.number)
             const cells: string[] = []
             for (let i = 1; i < values.length; i++) cells.push(xlsxCellText(values[i], decimal).trim())
             out.push({ rowNumber: row.number, cells })

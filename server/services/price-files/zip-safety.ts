@@ -1,6 +1,7 @@
 /**
  * Whether an XLSX (a zip) is safe to inflate: entry count and sizes from the central directory, refused before
- * anything is inflated, then the declared sizes proven while inflating once into nothing.
+ * anything is inflated, then the declared sizes proven while inflating once into nothing, and the first worksheet's
+ * columns and rows counted on the way (sheet-shape.ts), before any reader walks its cells.
  */
 import { createReadStream } from 'node:fs'
 import { open, stat } from 'node:fs/promises'
@@ -9,6 +10,7 @@ import { Transform, type TransformCallback } from 'node:stream'
 import { pipeline } from 'node:stream/promises'
 import { PRICE_FILE_LIMITS } from '../../../shared/types/price-files'
 import { PriceFileError } from './file-rows'
+import { sheetShapeScan } from './sheet-shape'
 
 export interface ZipEntry {
   name: string
@@ -109,29 +111,41 @@ export async function inspectZip(path: string, limits = PRICE_FILE_LIMITS): Prom
   }
 }
 
+const WORKSHEET = /^xl\/worksheets\/[^/]+\.xml$/
+
 /**
  * Inflates every entry once, discarding the output, and refuses the file as soon as an entry yields more
  * bytes than the directory declared: the declared sizes checked above are then true, whatever a crafted
- * file claims. Runs on streams (constant memory) and stops at the first excess.
+ * file claims. The first worksheet in the file (the one read) is scanned for a cell beyond the column limit or
+ * too many rows on the way. Runs on streams (constant memory) and stops at the first excess.
  */
 export async function proveZipSizes(path: string, entries: ZipEntry[]): Promise<void> {
   const fh = await open(path, 'r')
   const lh = Buffer.alloc(30)
+  const firstSheet = entries.filter((e) => WORKSHEET.test(e.name)).sort((a, b) => a.localHeaderOffset - b.localHeaderOffset)[0]
   try {
     for (const e of entries) {
-      if (e.method !== 8 || e.compressedSize === 0) continue
+      const shape = e === firstSheet ? sheetShapeScan() : null
+      // a stored entry has nothing to prove, but a stored first worksheet is still scanned
+      if (e.compressedSize === 0 || (e.method !== 8 && !shape)) continue
       await fh.read(lh, 0, 30, e.localHeaderOffset)
       const start = e.localHeaderOffset + 30 + lh.readUInt16LE(26) + lh.readUInt16LE(28)
       let produced = 0
       const counter = new Transform({
         transform(chunk: Buffer, _enc, cb: TransformCallback) {
           produced += chunk.length
-          if (produced > e.uncompressedSize) cb(new PriceFileError(`The entry “${e.name}” of this XLSX file inflates beyond its declared size: refused as a possible zip bomb.`, 'zip_bomb'))
-          else cb()
+          if (produced > e.uncompressedSize) return cb(new PriceFileError(`The entry “${e.name}” of this XLSX file inflates beyond its declared size: refused as a possible zip bomb.`, 'zip_bomb'))
+          try {
+            shape?.push(chunk)
+          } catch (err) {
+            return cb(err as Error)
+          }
+          cb()
         },
       })
       try {
-        await pipeline(createReadStream(path, { start, end: start + e.compressedSize - 1 }), createInflateRaw(), counter)
+        const raw = createReadStream(path, { start, end: start + e.compressedSize - 1 })
+        await (e.method === 8 ? pipeline(raw, createInflateRaw(), counter) : pipeline(raw, counter))
       } catch (err) {
         if (err instanceof PriceFileError) throw err
         throw new PriceFileError(`This XLSX file is damaged: the entry “${e.name}” cannot be inflated.`, 'damaged')

@@ -4,7 +4,7 @@ import { TradeTermsSchema, DecisionSchema, InviteSchema, PasswordSchema, Profile
 import { can } from '#shared/utils/abilities'
 import { fieldMessages } from '../../../shared/utils/field-messages'
 import { cleanFileName, proofPath } from '../../../server/services/proof-store'
-import { countSignInAttempt, SIGN_IN_LIMIT } from '../../../server/services/throttle'
+import { countSignInAttempt, delayFor, forgetSignInFailures, FREE_FAILURES, MAX_DELAY_MS, SIGN_IN_LIMIT } from '../../../server/services/throttle'
 import { escapeHtml } from '../../../server/services/account-mail'
 
 describe('trade-account inputs', () => {
@@ -90,25 +90,48 @@ describe('stored documents', () => {
 })
 
 describe('sign-in throttle', () => {
-  it('lets exactly 10 of 50 parallel attempts through for one e-mail, however many addresses', async () => {
-    const results = await Promise.all(Array.from({ length: 50 }, (_, i) => countSignInAttempt('victim@throttle.test', `10.0.0.${i}`)))
-    expect(results.filter((r) => r.ok)).toHaveLength(SIGN_IN_LIMIT.points)
+  it('lets exactly 10 of 50 parallel attempts through for one e-mail from one address', async () => {
+    const results = await Promise.all(Array.from({ length: 50 }, () => countSignInAttempt('victim@throttle.test', '10.0.0.1')))
+    expect(results.filter((r) => r.ok)).toHaveLength(SIGN_IN_LIMIT.pointsPerPair)
     const refused = results.filter((r) => !r.ok) as { retryAfterSeconds: number }[]
     expect(refused).toHaveLength(40)
     for (const r of refused) expect(r.retryAfterSeconds).toBeGreaterThan(0)
     for (const r of refused) expect(r.retryAfterSeconds).toBeLessThanOrEqual(SIGN_IN_LIMIT.durationSeconds)
   })
 
-  it('lets exactly 10 of 50 parallel attempts through for one address, however many e-mails', async () => {
+  it('never locks an e-mail: 50 parallel attempts from 50 addresses all go through, each held a little longer', async () => {
+    const results = await Promise.all(Array.from({ length: 50 }, (_, i) => countSignInAttempt('owner@throttle.test', `10.0.1.${i}`)))
+    expect(results.every((r) => r.ok)).toBe(true)
+    const delays = results.map((r) => (r.ok ? r.delayMs : -1)).sort((a, b) => a - b)
+    expect(delays.slice(0, FREE_FAILURES)).toEqual([0, 0, 0, 0, 0])
+    expect(delays.at(-1)).toBe(MAX_DELAY_MS)
+  })
+
+  it('rises from 0.25 s doubling to 8 s once an e-mail has failed 5 times (worked: 250 ms x 2^(n - 5))', () => {
+    expect([0, 4, 5, 6, 7, 8, 9, 10, 11, 50].map(delayFor)).toEqual([0, 0, 250, 500, 1000, 2000, 4000, 8000, 8000, 8000])
+  })
+
+  it('lets exactly 30 of 50 parallel attempts through for one address, however many e-mails', async () => {
     const results = await Promise.all(Array.from({ length: 50 }, (_, i) => countSignInAttempt(`user${i}@spray.test`, '192.0.2.7')))
-    expect(results.filter((r) => r.ok)).toHaveLength(10)
+    expect(results.filter((r) => r.ok)).toHaveLength(SIGN_IN_LIMIT.pointsPerAddress)
   })
 
   it('gives the attempt back when the password was right', async () => {
     for (let i = 0; i < 30; i++) {
       const a = await countSignInAttempt('regular@throttle.test', '192.0.2.8')
       expect(a.ok).toBe(true)
-      if (a.ok) await a.release()
+      if (a.ok) {
+        expect(a.delayMs).toBe(0)
+        await a.release()
+      }
     }
+  })
+
+  it('starts an e-mail afresh after a used reset link: no delay, every address may try again', async () => {
+    for (let i = 0; i < 10; i++) await countSignInAttempt('forgetful@throttle.test', '192.0.2.9')
+    expect((await countSignInAttempt('forgetful@throttle.test', '192.0.2.9')).ok).toBe(false)
+    await forgetSignInFailures('forgetful@throttle.test')
+    const again = await countSignInAttempt('forgetful@throttle.test', '192.0.2.9')
+    expect(again).toMatchObject({ ok: true, delayMs: 0 })
   })
 })
