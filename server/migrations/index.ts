@@ -13,6 +13,7 @@ import * as m0007 from './0007-price-lists'
 import * as m0008 from './0008-orders'
 import * as m0009 from './0009-current-prices'
 import * as m0010 from './0010-one-vocabulary'
+import * as m0015 from './0015-counter-day'
 
 export interface Migration { name: string; up: (qi: QueryInterface) => Promise<void>; down: (qi: QueryInterface) => Promise<void> }
 
@@ -27,4 +28,5 @@ export const migrations: Migration[] = [
   { name: '0008-orders', ...m0008 },
   { name: '0009-current-prices', ...m0009 },
   { name: '0010-one-vocabulary', ...m0010 },
+  { name: '0015-counter-day', ...m0015 },
 ]

@@ -12,6 +12,7 @@ import { initInspectionModels } from './inspections'
 import { initQuoteModels } from './quotes'
 import { initPriceFileModels } from './price-files'
 import { initOrderModels } from './orders'
+import { initCounterModels } from './counter'
 
 export * from './accounts'
 export * from './accounts-extra'
@@ -20,6 +21,7 @@ export * from './inspections'
 export * from './quotes'
 export * from './price-files'
 export * from './orders'
+export * from './counter'
 
 let initialised: Sequelize | undefined
 
@@ -32,6 +34,7 @@ export function initModels(sequelize: Sequelize = getDb()): Sequelize {
   initQuoteModels(sequelize)
   initPriceFileModels(sequelize)
   initOrderModels(sequelize)
+  initCounterModels(sequelize)
   initialised = sequelize
   return sequelize
 }

@@ -8,11 +8,13 @@ import { seedCatalogue } from './catalogue'
 import { seedQuotes } from './quotes'
 import { seedProofDocuments } from './proof-documents'
 import { seedOrders } from './orders'
+import { seedBranches } from './branches'
 
 export async function runSeed(log: (s: string) => void = console.log): Promise<void> {
   await withWrite(async (t) => {
     await seedAccounts(t, log)
     await seedCatalogue(t, log)
+    await seedBranches(t, log)
     await seedQuotes(t, log)
     await seedProofDocuments(t, log)
     await seedOrders(t, log)
