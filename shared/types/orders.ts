@@ -43,7 +43,7 @@ export const COUNTER_MOVES: Partial<Record<OrderStatus, OrderStatus[]>> = {
 /** What the button for each counter move says. */
 export const COUNTER_MOVE_LABELS: Partial<Record<OrderStatus, string>> = {
   picking: 'Start picking',
-  dispatched: 'Mark dispatched',
+  dispatched: 'Send what is picked',
   delivered: 'Mark delivered',
 }
 

@@ -1,7 +1,6 @@
 /** The garage is told what the counter decided on its return, after the commit. Nitro only (the e-mail). */
-import { Order } from '../../models/orders'
-import { PartReturn, IssuedDocument } from '../../models/counter'
-import { OrderLine } from '../../models/orders'
+import { Order, OrderLine } from '../../models/orders'
+import { IssuedDocument, PartReturn } from '../../models/counter'
 import { returnReference } from '../../../shared/types/returns'
 import type { Formats } from '../../../shared/utils/format'
 import { sendToGarage } from '../orders/mail'
