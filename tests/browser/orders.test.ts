@@ -71,10 +71,10 @@ describe('ordering and paying in the browser', () => {
     await counter.goto('/counter/orders', { waitUntil: 'networkidle' })
     const row = counter.locator('tr', { has: counter.getByRole('link', { name: `BL-${String(orderId).padStart(6, '0')}` }) })
     await row.getByRole('button', { name: 'Start picking' }).click()
-    await row.getByRole('button', { name: 'Mark dispatched' }).waitFor()
+    await row.getByRole('button', { name: 'Send what is picked' }).waitFor()
     await shot(counter, 'orders-04-queue')
     await counter.goto(`/counter/orders/${orderId}`, { waitUntil: 'networkidle' })
-    await counter.getByRole('button', { name: 'Mark dispatched' }).click()
+    await counter.getByRole('button', { name: 'Send what is picked' }).click()
     await counter.getByRole('button', { name: 'Mark delivered' }).waitFor()
     expect(await status(counter)).toBe('On its way')
 

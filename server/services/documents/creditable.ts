@@ -6,20 +6,13 @@
  */
 import { Op, type Transaction } from 'sequelize'
 import { DocumentLine, IssuedDocument } from '../../models/counter'
-import type { DocumentLineKind } from '../../../shared/types/documents'
+import type { DocumentLineKind, DocumentLineView } from '../../../shared/types/documents'
 import { divRoundHalfUp } from '../../../shared/utils/money'
 import { conflict } from '../errors'
 
-export interface CreditPiece {
+/** A line of a credit note, and the order line it credits. */
+export interface CreditPiece extends DocumentLineView {
   orderLineId: number
-  kind: DocumentLineKind
-  sku: string
-  description: string
-  quantity: number
-  unitMinor: number
-  netMinor: number
-  taxBp: number
-  taxMinor: number
 }
 
 export interface Creditable { invoiced: DocumentLine; quantity: number; netMinor: number; taxMinor: number }
