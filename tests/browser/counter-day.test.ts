@@ -3,7 +3,7 @@
  * quantity, orders more than the shelf holds and chooses to have what is here sent now; counter staff pick one
  * fewer than expected (the rest back-ordered, never a silent change) and send it, which issues the invoice; the
  * garage downloads the invoice, sends a wrong part back, the counter accepts it and the garage downloads the
- * credit note. Then the same pages at 390 px wide, where none may scroll sideways.
+ * credit note. No page scrolls sideways, at 1280 px on the desk or at 390 px on a phone.
  * Uses its own garage and part so the demo data is left alone. Figures worked by hand: UK standard VAT 20 %
  * (gov.uk "VAT rates").
  */
@@ -40,6 +40,7 @@ async function pdfOf(page: Page, click: () => Promise<void>, name: string): Prom
   return bytes
 }
 
+/** How far the page reaches past the window's right edge, in CSS pixels (0 when nothing scrolls sideways). */
 const sideways = (page: Page) => page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth)
 
 let orderId = 0
@@ -77,6 +78,7 @@ describe('the counter\'s day in the browser', () => {
     // 5 x £45.00 = £225.00 + VAT 20 % £45.00 = £270.00
     expect(await page.getByTestId('order-total').textContent()).toBe('£270.00')
     await shot(page, 'counter-day-02-short-line')
+    expect(await sideways(page)).toBeLessThanOrEqual(0)
     await page.getByLabel('Charge to the trade account').check()
     await page.getByRole('button', { name: 'Place order for £270.00' }).click()
     await page.waitForURL(/\/orders\/\d+\?placed=1/)
@@ -100,6 +102,7 @@ describe('the counter\'s day in the browser', () => {
     await counterDocs.waitFor()
     expect(await counterDocs.textContent()).toContain('Parts sent')
     await shot(counter, 'counter-day-04-sent')
+    expect(await sideways(counter)).toBeLessThanOrEqual(0)
 
     // the garage sees two sent, three to come, and downloads the invoice: 2 x £45.00 + VAT £18.00 = £108.00
     await open(page, `/orders/${orderId}`)
@@ -109,6 +112,7 @@ describe('the counter\'s day in the browser', () => {
     const invoice = await pdfOf(page, () => invoiceRow.getByRole('link', { name: 'PDF' }).click(), 'counter-day-invoice')
     expect(invoice.subarray(0, 5).toString()).toBe('%PDF-')
     await shot(page, 'counter-day-05-garage-order')
+    expect(await sideways(page)).toBeLessThanOrEqual(0)
 
     // one of the two was the wrong part: it goes back
     await page.getByRole('link', { name: 'Return parts' }).click()

@@ -44,11 +44,12 @@ describe('ordering and paying in the browser', () => {
     const changes = page.getByTestId('price-changes')
     await changes.waitFor()
     expect(await changes.textContent()).toContain('quoted at £74.10, now £76.00')
-    // 2 x £76.00 = £152.00 + VAT 20 % (gov.uk "VAT rates") £30.40 + deposits 2 x £20.00 = £222.40
-    expect(await page.getByTestId('order-total').textContent()).toBe('£222.40')
+    // parts 2 x £76.00 = £152.00, deposits 2 x £20.00 = £40.00; a deposit carries its part's VAT (20 %, gov.uk
+    // "VAT rates"): VAT 20 % of £192.00 = £38.40; total £192.00 + £38.40 = £230.40
+    expect(await page.getByTestId('order-total').textContent()).toBe('£230.40')
     await shot(page, 'orders-01-from-quote')
     await page.getByLabel('Pay by card now').check()
-    await page.getByRole('button', { name: 'Place order and pay £222.40' }).click()
+    await page.getByRole('button', { name: 'Place order and pay £230.40' }).click()
 
     // the payment fake's hosted page
     await page.waitForURL((u) => u.href.startsWith(`${env().paymentsUrl}/pay/`))
@@ -85,21 +86,21 @@ describe('ordering and paying in the browser', () => {
     await page.getByRole('button', { name: 'Book return' }).click()
     await page.getByText('Booked to come back').waitFor()
 
-    // the counter accepts them: the deposit goes back to the card
+    // the counter accepts them: the deposits and their VAT (2 x £20.00 + 20 % = £48.00) go back to the card
     await counter.goto('/counter/core-returns', { waitUntil: 'networkidle' })
     const booked = counter.locator('[data-core]', { hasText: part.sku })
-    await booked.getByRole('button', { name: 'Accept: return £40.00' }).click()
+    await booked.getByRole('button', { name: 'Accept: return £48.00' }).click()
     await booked.waitFor({ state: 'detached' })
 
     await page.reload({ waitUntil: 'networkidle' })
     const credit = page.getByTestId('core-credit')
     await credit.waitFor()
-    expect(await credit.textContent()).toContain('£40.00 returned')
+    expect(await credit.textContent()).toContain('£48.00 returned')
     await shot(page, 'orders-05-core-credit')
     await page.goto('/statement', { waitUntil: 'networkidle' })
     const statement = page.getByTestId('statement')
     await statement.getByText('Core credit').waitFor()
-    expect(await statement.textContent()).toContain('-£40.00')
+    expect(await statement.textContent()).toContain('-£48.00')
     await shot(page, 'orders-06-statement')
 
     expect(foreignRequests(requests)).toEqual([])

@@ -15,7 +15,7 @@ import { withWrite } from '../../utils/db'
 import { audit } from '../../utils/audit'
 import type { ReturnDecisionInput } from '../../../shared/schemas/returns'
 import { orderReference } from '../../../shared/types/orders'
-import type { ReturnView } from '../../../shared/types/returns'
+import { returnReference, type ReturnView } from '../../../shared/types/returns'
 import type { Formats } from '../../../shared/utils/format'
 import { divRoundHalfUp } from '../../../shared/utils/money'
 import { conflict, invalidInput, notFound } from '../errors'
@@ -69,7 +69,7 @@ async function accept(t: Transaction, r: PartReturn, quantity: number, reason: s
   const note = await issueCreditNote(t, {
     invoice, order, reason: warranty ? 'warranty' : 'return', pieces, now: clock.now,
     notes: [
-      `${quantity} of ${r.quantity} x ${line.sku} accepted back (return ${r.id}).${reason ? ` ${reason}` : ''}`,
+      `${quantity} of ${r.quantity} x ${line.sku} accepted back (return ${returnReference(r.id)}).${reason ? ` ${reason}` : ''}`,
       order.paymentMethod === 'card' ? 'Refunded to the card the order was paid with.' : 'Credited to your trade account.',
     ],
   }, fmt)
