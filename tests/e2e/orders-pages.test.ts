@@ -2,12 +2,14 @@
  * The counter's pages and the basket kept with the account, by role: each page answers its own people (rendered
  * on the server), sends a role without the ability home, a signed-out visitor to sign in; another garage's order
  * or line renders as not found without a word of its contents. The basket: one per garage (not per browser),
- * a bad quantity is a 422 beside `items.N.quantity` and the basket stays as it was.
+ * a bad quantity is a 422 beside `items.N.quantity` and the basket stays as it was. The counter's routes (picks,
+ * goods in), the home branch, the branches and a return's photos, each by the roles that may and may not.
  */
 import { beforeAll, describe, expect, it } from 'vitest'
 import { setup } from '@nuxt/test-utils/e2e'
 import { Client, as, env, people } from '../support/api'
-import { makeGarage, makePart, type TestGarage, type TestPart } from '../support/orders'
+import { pngBytes } from '../support/accounts'
+import { branchId, makeGarage, makePart, stockOf, type TestGarage, type TestPart } from '../support/orders'
 
 await setup({ host: env().baseUrl })
 
@@ -100,5 +102,61 @@ describe('the basket kept with the garage\'s account', () => {
       expect((await c.request('/api/basket', { method: 'PUT', json: { items: [] } })).status).toBe(403)
     }
     expect((await new Client().get('/api/basket')).status).toBe(401)
+  })
+})
+
+describe('the counter\'s routes, the home branch and the photos, by role', () => {
+  it('lets only counter staff and the admin record picks and book goods in', async () => {
+    const ngt = await branchId('NGT')
+    const pick = { lines: [{ lineId: order.lines[0]!.id, picked: 1 }] }
+    const receipt = { sku: part.sku, branchId: ngt, quantity: 5 }
+    const shelf = await stockOf(part.id)
+    for (const c of [mine, tech]) {
+      expect((await c.post(`/api/counter/orders/${order.id}/picks`, pick)).status).toBe(403)
+      expect((await c.post('/api/counter/stock-receipts', receipt)).status).toBe(403)
+    }
+    expect((await new Client().post(`/api/counter/orders/${order.id}/picks`, pick)).status).toBe(401)
+    expect((await new Client().post('/api/counter/stock-receipts', receipt)).status).toBe(401)
+    expect(await stockOf(part.id)).toBe(shelf)
+    expect((await counter.post('/api/counter/orders/99999999/picks', pick)).status).toBe(404)
+    // everything on the order has left: nothing to pick
+    expect((await counter.post(`/api/counter/orders/${order.id}/picks`, pick)).status).toBe(409)
+    const booked = await admin.post('/api/counter/stock-receipts', { ...receipt, quantity: 1 })
+    expect(booked.status, booked.text).toBe(200)
+    expect(await stockOf(part.id)).toBe(shelf + 1)
+  })
+
+  it('keeps the home branch with the admin', async () => {
+    const rvs = await branchId('RVS')
+    for (const c of [mine, counter, tech]) expect((await c.patch(`/api/admin/trade-accounts/${garage.id}/home-branch`, { homeBranchId: rvs })).status).toBe(403)
+    expect((await new Client().patch(`/api/admin/trade-accounts/${garage.id}/home-branch`, { homeBranchId: rvs })).status).toBe(401)
+    expect((await admin.patch('/api/admin/trade-accounts/99999999/home-branch', { homeBranchId: rvs })).status).toBe(404)
+    const moved = await admin.patch(`/api/admin/trade-accounts/${garage.id}/home-branch`, { homeBranchId: rvs })
+    expect(moved.status, moved.text).toBe(200)
+  })
+
+  it('shows the branches and their runs to anyone signed in', async () => {
+    for (const c of [mine, tech, counter]) expect((await c.get('/api/branches')).status).toBe(200)
+    expect((await new Client().get('/api/branches')).status).toBe(401)
+  })
+
+  it('keeps a return\'s photos with its garage and the counter', async () => {
+    const asked = await mine.post('/api/returns', { orderLineId: order.lines[0]!.id, quantity: 1, reason: 'wrong_part' })
+    expect(asked.status, asked.text).toBe(201)
+    const photo = () => {
+      const form = new FormData()
+      form.append('photo', new Blob([pngBytes()], { type: 'image/png' }), 'box.png')
+      return form
+    }
+    const sent = await mine.request(`/api/returns/${asked.body.id}/photos`, { method: 'POST', body: photo() })
+    expect(sent.status, sent.text).toBe(200)
+    const url = `/api/returns/${asked.body.id}/photos/${sent.body.photos[0].id}`
+    expect((await theirs.request(`/api/returns/${asked.body.id}/photos`, { method: 'POST', body: photo() })).status).toBe(404)
+    expect((await counter.request(`/api/returns/${asked.body.id}/photos`, { method: 'POST', body: photo() })).status).toBe(403)
+    expect((await theirs.get(url)).status).toBe(404)
+    expect((await tech.get(url)).status).toBe(403)
+    expect((await new Client().get(url)).status).toBe(401)
+    expect((await mine.get(url)).status).toBe(200)
+    expect((await counter.get(url)).status).toBe(200)
   })
 })
