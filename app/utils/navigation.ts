@@ -27,6 +27,7 @@ export const NAV_ENTRIES: NavEntry[] = [
   { to: '/statement', label: 'Statement', ability: 'statement.view', side: 'garage' },
   { to: '/counter/orders', label: 'Order queue', ability: 'orders.work', side: 'distributor' },
   { to: '/counter/core-returns', label: 'Core returns', ability: 'coreReturns.decide', side: 'distributor' },
+  { to: '/counter/returns', label: 'Returns in', ability: 'returns.decide', side: 'distributor' },
   { to: '/garage/settings', label: 'Garage settings', ability: 'garage.settings', side: 'garage' },
   { to: '/staff', label: 'Staff', ability: 'garage.staff', side: 'garage' },
   { to: '/staff', label: 'Staff', ability: 'distributor.staff', side: 'distributor' },

@@ -7,6 +7,14 @@ export class Branch extends Model<InferAttributes<Branch>, InferCreationAttribut
   declare code: string
   declare name: string
   declare address: CreationOptional<string>
+  /** delivery and collection (columns of migration 0015-counter-day): the counter's weekday hours in minutes after
+   *  local midnight, how long a part takes to reach the counter, how long stock sent from here takes to reach
+   *  another branch */
+  declare collection: CreationOptional<boolean>
+  declare counterOpensMinute: CreationOptional<number>
+  declare counterClosesMinute: CreationOptional<number>
+  declare collectionMinutes: CreationOptional<number>
+  declare transferMinutes: CreationOptional<number>
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
 }
@@ -85,7 +93,16 @@ const id = { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true }
 const stamps = { createdAt: DataTypes.DATE, updatedAt: DataTypes.DATE }
 
 export function initAccountModels(sequelize: Sequelize): void {
-  Branch.init({ id, code: DataTypes.STRING, name: DataTypes.STRING, address: DataTypes.TEXT, ...stamps }, { sequelize, tableName: 'branches' })
+  Branch.init({
+    id, code: DataTypes.STRING, name: DataTypes.STRING, address: DataTypes.TEXT,
+    // columns of migration 0015-counter-day
+    collection: { type: DataTypes.BOOLEAN, defaultValue: true },
+    counterOpensMinute: { type: DataTypes.INTEGER, defaultValue: 450 },
+    counterClosesMinute: { type: DataTypes.INTEGER, defaultValue: 1050 },
+    collectionMinutes: { type: DataTypes.INTEGER, defaultValue: 15 },
+    transferMinutes: { type: DataTypes.INTEGER, defaultValue: 180 },
+    ...stamps,
+  }, { sequelize, tableName: 'branches' })
   DiscountTier.init({ id, name: DataTypes.STRING, percentBp: DataTypes.INTEGER, ...stamps }, { sequelize, tableName: 'discount_tiers' })
   Organisation.init({
     id, kind: DataTypes.STRING, name: DataTypes.STRING, status: DataTypes.STRING,

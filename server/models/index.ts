@@ -14,6 +14,7 @@ import { initPriceFileModels } from './price-files'
 import { initOrderModels } from './orders'
 import { initGarageVehicleModels } from './garage-vehicles'
 import { initSecondFactorModels } from './second-factor'
+import { initCounterModels } from './counter'
 
 export * from './accounts'
 export * from './accounts-extra'
@@ -24,6 +25,7 @@ export * from './price-files'
 export * from './orders'
 export * from './garage-vehicles'
 export * from './second-factor'
+export * from './counter'
 
 let initialised: Sequelize | undefined
 
@@ -38,6 +40,7 @@ export function initModels(sequelize: Sequelize = getDb()): Sequelize {
   initOrderModels(sequelize)
   initGarageVehicleModels(sequelize)
   initSecondFactorModels(sequelize)
+  initCounterModels(sequelize)
   initialised = sequelize
   return sequelize
 }

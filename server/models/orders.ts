@@ -1,6 +1,9 @@
-/** Orders, their lines, handled payment events, the garages' ledger and expected core returns (0008-orders). */
+/**
+ * Orders, their lines, handled payment events, the garages' ledger and expected core returns (0008-orders); each
+ * line's supply and stated tax, the order's fulfilment choice (0015-counter-day).
+ */
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type NonAttribute, type Sequelize } from 'sequelize'
-import type { CoreReturnStatus, LedgerKind, OrderStatus, PaymentMethod, PaymentState } from '../../shared/types/orders'
+import type { CoreReturnStatus, Fulfilment, LedgerKind, LineState, OrderStatus, PaymentMethod, PaymentState, SupplySource } from '../../shared/types/orders'
 import { Branch, Organisation, User } from './accounts'
 import { Part } from './catalogue'
 
@@ -36,6 +39,10 @@ export class Order extends Model<InferAttributes<Order>, InferCreationAttributes
   declare cancelReason: CreationOptional<string | null>
   declare cancelledByUserId: CreationOptional<number | null>
   declare refundId: CreationOptional<string | null>
+  declare fulfilment: CreationOptional<Fulfilment>
+  declare collect: CreationOptional<boolean>
+  /** the gross credited for lines cancelled before they left (what a card refund sends back) */
+  declare cancelledMinor: CreationOptional<number>
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
 
@@ -60,6 +67,24 @@ export class OrderLine extends Model<InferAttributes<OrderLine>, InferCreationAt
   declare quoteLineId: CreationOptional<number | null>
   declare quotedUnitNetMinor: CreationOptional<number | null>
   declare position: number
+  declare source: CreationOptional<SupplySource>
+  /** where the units are held (null while back-ordered and not yet arrived) */
+  declare sourceBranchId: CreationOptional<number | null>
+  declare state: CreationOptional<LineState>
+  declare fulfilment: CreationOptional<Fulfilment>
+  /** the requested line this supply fills */
+  declare lineGroup: CreationOptional<number>
+  declare promisedAt: CreationOptional<Date | null>
+  declare readyAt: CreationOptional<Date | null>
+  declare reservedAt: CreationOptional<Date | null>
+  declare pickedQuantity: CreationOptional<number | null>
+  declare dispatchId: CreationOptional<number | null>
+  declare splitFromLineId: CreationOptional<number | null>
+  /** the tax stated for the line's net and for its deposits */
+  declare taxMinor: CreationOptional<number>
+  declare depositTaxMinor: CreationOptional<number>
+
+  declare order?: NonAttribute<Order>
 }
 
 export class PaymentEvent extends Model<InferAttributes<PaymentEvent>, InferCreationAttributes<PaymentEvent>> {
@@ -102,6 +127,7 @@ export class CoreReturn extends Model<InferAttributes<CoreReturn>, InferCreation
   declare creditedMinor: CreationOptional<number | null>
   declare refundId: CreationOptional<string | null>
   declare refundPending: CreationOptional<boolean>
+  declare creditNoteId: CreationOptional<number | null>
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
 
@@ -124,12 +150,18 @@ export function initOrderModels(sequelize: Sequelize): void {
     declineReason: TEXT, declineCode: STRING, declinedAt: DATE,
     paidAt: DATE, pickingAt: DATE, dispatchedAt: DATE, deliveredAt: DATE,
     cancelledAt: DATE, cancelReason: TEXT, cancelledByUserId: INTEGER, refundId: STRING,
+    fulfilment: { type: STRING, defaultValue: 'ship_available' }, collect: { type: BOOLEAN, defaultValue: false },
+    cancelledMinor: { type: INTEGER, defaultValue: 0 },
     createdAt: DATE, updatedAt: DATE,
   }, { sequelize, tableName: 'orders' })
   OrderLine.init({
     id, orderId: INTEGER, partId: INTEGER, sku: STRING, description: STRING, quantity: INTEGER,
     unitListMinor: INTEGER, unitNetMinor: INTEGER, lineNetMinor: INTEGER, coreDepositUnitMinor: INTEGER,
     quoteLineId: INTEGER, quotedUnitNetMinor: INTEGER, position: INTEGER,
+    source: { type: STRING, defaultValue: 'home' }, sourceBranchId: INTEGER, state: { type: STRING, defaultValue: 'reserved' },
+    fulfilment: { type: STRING, defaultValue: 'ship_available' }, lineGroup: { type: INTEGER, defaultValue: 0 },
+    promisedAt: DATE, readyAt: DATE, reservedAt: DATE, pickedQuantity: INTEGER, dispatchId: INTEGER, splitFromLineId: INTEGER,
+    taxMinor: { type: INTEGER, defaultValue: 0 }, depositTaxMinor: { type: INTEGER, defaultValue: 0 },
   }, { sequelize, tableName: 'order_lines', timestamps: false })
   PaymentEvent.init({
     id, eventId: STRING, type: STRING, orderId: INTEGER, outcome: STRING, createdAt: DATE,
@@ -143,7 +175,7 @@ export function initOrderModels(sequelize: Sequelize): void {
     quantityExpected: INTEGER, quantityBooked: INTEGER, depositUnitMinor: INTEGER,
     garageNote: { type: STRING, defaultValue: '' }, bookedAt: DATE, bookedByUserId: INTEGER,
     decidedAt: DATE, decidedByUserId: INTEGER, reason: TEXT, creditedMinor: INTEGER, refundId: STRING,
-    refundPending: { type: BOOLEAN, defaultValue: false }, createdAt: DATE, updatedAt: DATE,
+    refundPending: { type: BOOLEAN, defaultValue: false }, creditNoteId: INTEGER, createdAt: DATE, updatedAt: DATE,
   }, { sequelize, tableName: 'core_returns' })
 
   Order.hasMany(OrderLine, { as: 'lines', foreignKey: 'orderId' })

@@ -1,8 +1,9 @@
 /**
  * Demo orders at different stages, placed through the same service the API uses (priced at the garage's net
- * prices, stock reserved, ledger written), then moved along as the counter would have done:
- *   Millbrook (trade account): delivered with one old unit booked back, dispatched, being picked, confirmed,
- *   and one cancelled and credited.
+ * prices, supplied from the shelf, by transfer or back-order, stock held, ledger written), then moved along as the
+ * counter would have done (dispatches through the same service, so each has its numbered invoice):
+ *   Millbrook (trade account): delivered with one old unit booked back, dispatched, being picked, confirmed with a
+ *   line more than the shelf holds (the rest by transfer or back-order), and one cancelled and credited.
  *   Tannery Yard (card): one delivered and paid, one waiting for payment after a declined card.
  * Idempotent: each demo order carries its own reference ("DEMO-…") and is only made when missing. Parts are
  * chosen from the seeded catalogue (the first in SKU order with enough stock), so the seed follows the catalogue.
@@ -10,12 +11,14 @@
  */
 import { Op, QueryTypes, type Transaction } from 'sequelize'
 import { Organisation, User } from '../models/accounts'
-import { LedgerEntry, Order } from '../models/orders'
+import { StockLevel } from '../models/catalogue'
+import { Order } from '../models/orders'
 import { placeOrder } from '../services/orders/place'
 import { bookOrderCharges } from '../services/orders/ledger'
-import { releaseStock } from '../services/orders/stock'
+import { cancelOrder } from '../services/orders/cancel'
+import { dispatchPicked } from '../services/orders/dispatch'
+import { orderIncludes } from '../services/orders/find'
 import { getDb } from '../utils/db'
-import { orderReference } from '../../shared/types/orders'
 import { formatsFor } from '../../shared/utils/format'
 
 type Stage = 'confirmed' | 'picking' | 'dispatched' | 'delivered' | 'cancelled' | 'awaiting_payment'
@@ -30,6 +33,8 @@ interface DemoOrder {
   exchange: number
   plain: number
   bookCore?: boolean
+  /** the first line asks for more than the branch's shelf holds */
+  short?: boolean
   decline?: { reason: string; code: string }
 }
 
@@ -37,7 +42,7 @@ const DEMO: DemoOrder[] = [
   { ref: 'DEMO-JOB-4471', garage: 'Millbrook Motor Works', payment: 'account', stage: 'delivered', daysAgo: 9, exchange: 1, plain: 1, bookCore: true },
   { ref: 'DEMO-JOB-4502', garage: 'Millbrook Motor Works', payment: 'account', stage: 'dispatched', daysAgo: 2, exchange: 1, plain: 0 },
   { ref: 'DEMO-JOB-4510', garage: 'Millbrook Motor Works', payment: 'account', stage: 'picking', daysAgo: 1, exchange: 0, plain: 2 },
-  { ref: 'DEMO-JOB-4513', garage: 'Millbrook Motor Works', payment: 'account', stage: 'confirmed', daysAgo: 0, exchange: 0, plain: 1 },
+  { ref: 'DEMO-JOB-4513', garage: 'Millbrook Motor Works', payment: 'account', stage: 'confirmed', daysAgo: 0, exchange: 0, plain: 1, short: true },
   { ref: 'DEMO-JOB-4460', garage: 'Millbrook Motor Works', payment: 'account', stage: 'cancelled', daysAgo: 12, exchange: 0, plain: 1 },
   { ref: 'DEMO-TY-0192', garage: 'Tannery Yard Autos', payment: 'card', stage: 'delivered', daysAgo: 6, exchange: 0, plain: 2 },
   {
@@ -45,6 +50,11 @@ const DEMO: DemoOrder[] = [
     decline: { reason: 'Your card has insufficient funds.', code: 'insufficient_funds' },
   },
 ]
+
+async function partIdOf(t: Transaction, sku: string): Promise<number> {
+  const [row] = await getDb().query<{ id: number }>('SELECT id FROM parts WHERE sku = :sku', { replacements: { sku }, type: QueryTypes.SELECT, transaction: t })
+  return row?.id ?? 0
+}
 
 async function pickParts(t: Transaction, branchId: number, withDeposit: boolean, count: number, skip: number): Promise<string[]> {
   if (count === 0) return []
@@ -64,6 +74,7 @@ export async function seedOrders(t: Transaction, log: (s: string) => void): Prom
   const fmt = formatsFor({ currency: process.env.NUXT_PUBLIC_CURRENCY, locale: process.env.NUXT_PUBLIC_LOCALE, timeZone: process.env.NUXT_PUBLIC_TIME_ZONE })
   let made = 0
   let n = 0
+  const counterPerson = await User.findOne({ where: { role: 'counter_staff' }, order: [['id', 'ASC']], transaction: t })
   // oldest first, so the statement's order of entries follows the dates
   for (const d of [...DEMO].sort((a, b) => b.daysAgo - a.daysAgo)) {
     n++
@@ -76,10 +87,17 @@ export async function seedOrders(t: Transaction, log: (s: string) => void): Prom
       ...await pickParts(t, org.homeBranchId, false, d.plain, n * 2),
     ]
     if (skus.length === 0) continue
-    const { order } = await placeOrder(t, org.id, manager, {
-      lines: skus.map((sku, i) => ({ sku, quantity: i === 0 ? 2 : 1 })), payment: d.payment, garageReference: d.ref,
-    }, null, fmt)
     const at = (hours: number) => new Date(Date.now() - d.daysAgo * 86_400_000 + hours * 3_600_000)
+    const clock = (hours: number) => ({ now: at(hours), timeZone: fmt.timeZone })
+    let first = 2
+    if (d.short) {
+      const shelf = await StockLevel.findOne({ where: { branchId: org.homeBranchId, partId: (await partIdOf(t, skus[0]!)) }, transaction: t })
+      first = (shelf?.quantity ?? 0) + 3
+    }
+    const placed = await placeOrder(t, org.id, manager, {
+      lines: skus.map((sku, i) => ({ sku, quantity: i === 0 ? first : 1 })), payment: d.payment, garageReference: d.ref,
+    }, null, fmt, at(0))
+    const order = (await Order.findByPk(placed.order.id, { include: orderIncludes(), transaction: t }))!
     const ledgerAt = at(0)
     if (d.payment === 'card' && d.stage !== 'awaiting_payment') {
       // paid by card before this demo began: its payment is history, so no payment-service id to refund against
@@ -87,32 +105,27 @@ export async function seedOrders(t: Transaction, log: (s: string) => void): Prom
       order.paymentState = 'paid'
       order.paidAt = at(0.1)
       await order.save({ transaction: t })
-      await bookOrderCharges(t, order, `pi_demo_${order.id}`, fmt, { expectCores: false })
+      await bookOrderCharges(t, order, `pi_demo_${order.id}`, fmt)
     }
     if (d.decline) {
       order.declineReason = d.decline.reason
       order.declineCode = d.decline.code
       order.declinedAt = at(0.05)
     }
-    const steps: [Stage, keyof Order, number][] = [['picking', 'pickingAt', 2], ['dispatched', 'dispatchedAt', 5], ['delivered', 'deliveredAt', 26]]
     const reach = ['confirmed', 'picking', 'dispatched', 'delivered'].indexOf(d.stage)
-    steps.forEach(([stage, field, h], i) => {
-      if (reach >= i + 1) {
-        order.status = stage
-        ;(order as unknown as Record<string, Date>)[field] = at(h)
-      }
-    })
+    if (reach >= 1) {
+      order.status = 'picking'
+      order.pickingAt = at(2)
+      await order.save({ transaction: t })
+    }
+    if (reach >= 2) await dispatchPicked(t, order, counterPerson ?? manager, clock(5), fmt)
+    if (reach >= 3) {
+      order.status = 'delivered'
+      order.deliveredAt = at(26)
+    }
     if (d.stage === 'cancelled') {
-      await releaseStock(t, order)
-      order.status = 'cancelled'
-      order.cancelledAt = at(3)
-      order.cancelReason = 'Ordered for the wrong axle; the garage phoned the counter.'
-      order.paymentState = 'credited'
-      await LedgerEntry.create({
-        organisationId: org.id, orderId: order.id, kind: 'credit', amountMinor: -order.totalMinor,
-        reference: orderReference(order.id), description: 'Order cancelled: credited to the account',
-      }, { transaction: t })
-      await getDb().query("UPDATE core_returns SET status = 'void' WHERE order_id = :id", { replacements: { id: order.id }, transaction: t })
+      // the e-mail it would send is history: the demo sends nothing
+      await cancelOrder(t, order, counterPerson ?? manager, 'Ordered for the wrong axle; the garage phoned the counter.', fmt, clock(3))
     }
     await order.save({ transaction: t })
     if (d.bookCore) {

@@ -4,7 +4,7 @@
  * shared/types/trade-accounts.ts. Plain Node.
  */
 import { Op, Sequelize, type Order, type WhereOptions } from 'sequelize'
-import { AuditEntry, DiscountTier, Organisation, User } from '../models/accounts'
+import { AuditEntry, Branch, DiscountTier, Organisation, User } from '../models/accounts'
 import { ProofDocument } from '../models/accounts-extra'
 import { LedgerEntry } from '../models/orders'
 import { pageOf } from '../utils/page'
@@ -104,16 +104,18 @@ export async function historyOf(entity: string, entityId: number | string): Prom
 
 /** The garage in full; the decision history only for those who may read the audit log. */
 export async function tradeAccountDetail(o: Garage, withHistory = true): Promise<TradeAccountDetail> {
-  const [doc, people, history, balance] = await Promise.all([
+  const [doc, people, history, balance, home] = await Promise.all([
     latestProof(o.id),
     User.findAll({ where: { organisationId: o.id }, order: [['name', 'ASC']] }),
     withHistory ? historyOf('organisation', o.id) : Promise.resolve([]),
     LedgerEntry.sum('amountMinor', { where: { organisationId: o.id } }),
+    o.homeBranchId ? Branch.findByPk(o.homeBranchId, { attributes: ['id', 'code', 'name'] }) : Promise.resolve(null),
   ])
   return {
     ...tradeAccountSummary(o),
     tradingAddress: o.tradingAddress, taxNumber: o.taxNumber, phone: o.phone, decisionReason: o.decisionReason ?? null,
     document: proofView(doc), people: people.map(personView), history, balanceMinor: Number(balance ?? 0) || 0,
+    homeBranch: home ? { id: home.id, code: home.code, name: home.name } : null,
   }
 }
 

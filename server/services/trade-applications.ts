@@ -24,6 +24,7 @@ import { admitApplication } from './throttle'
 import { moveIntoStore, newStoredName } from './proof-store'
 import { checkProofFile, MISSING_PROOF, receiveProof, type CheckedProof } from './proof-upload'
 import { commitGarageChange, tellGarage, termsOf } from './trade-account-changes'
+import { chosenBranch } from './orders/home-branch'
 import { iso, latestProof, tierLabel, tradeAccountDetail, type Garage } from './trade-accounts'
 
 /** The one answer to an application taken, whether or not its e-mail already had an account. */
@@ -135,9 +136,10 @@ export async function decideApplication(garage: Garage, input: DecisionInput, ac
 
 async function approve(garage: Garage, input: Extract<DecisionInput, { decision: 'approve' }>, actorId: number): Promise<TradeAccountDetail> {
   const tier = await chosenTier(input.tierId)
+  const branch = await chosenBranch(input.homeBranchId)
   const onAccount = input.terms === 'account'
   const values = {
-    status: 'approved' as const, tierId: tier.id, paymentTerms: input.terms,
+    status: 'approved' as const, tierId: tier.id, paymentTerms: input.terms, homeBranchId: branch.id,
     creditLimitMinor: onAccount ? input.creditLimitMinor! : 0, paymentDays: onAccount ? input.paymentDays! : 0,
     decisionReason: input.reason || null, decidedAt: new Date(),
   }
@@ -146,6 +148,7 @@ async function approve(garage: Garage, input: Extract<DecisionInput, { decision:
     changes: {
       status: { from: 'pending', to: 'approved' }, tier: { from: null, to: tierLabel(tier) }, terms: { from: null, to: values.paymentTerms },
       creditLimitMinor: { from: 0, to: values.creditLimitMinor }, paymentDays: { from: 0, to: values.paymentDays },
+      homeBranch: { from: null, to: branch.name },
       ...(input.reason ? { note: input.reason } : {}),
     },
   })

@@ -96,6 +96,8 @@ export const DecisionSchema = z.discriminatedUnion('decision', [
   z.strictObject({
     decision: z.literal('approve'),
     tierId: z.number({ message: 'Choose a discount tier.' }).int().positive('Choose a discount tier.'),
+    /** the branch that supplies the garage's orders (required: without one it could not order) */
+    homeBranchId: z.number({ message: 'Choose the garage\'s home branch.' }).int().positive('Choose the garage\'s home branch.'),
     terms: z.enum(PAYMENT_TERMS, { message: 'Choose card or trade account.' }),
     creditLimitMinor: money.optional(),
     paymentDays: days.optional(),

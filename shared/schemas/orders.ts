@@ -3,7 +3,7 @@
  * send them. Strict objects: an unknown field is refused by name (no mass assignment of prices or states).
  */
 import { z } from 'zod'
-import { CORE_RETURN_STATUSES, ORDER_STATUSES } from '../types/orders'
+import { CORE_RETURN_STATUSES, FULFILMENTS, ORDER_STATUSES } from '../types/orders'
 import { PageQuerySchema } from './page'
 
 const reason = z.string({ error: 'The reason must be text.' }).trim().max(300, 'The reason is at most 300 characters.').default('')
@@ -13,17 +13,31 @@ const id = (what: string) => z.number({ error: `Choose the ${what}.` }).int().po
 export const MAX_ORDER_LINES = 100
 export const MAX_LINE_QUANTITY = 999
 
+const fulfilment = z.enum(FULFILMENTS, { error: 'Choose to send what is here now, or to wait and send everything together.' })
+
+/** A quantity of one part: a whole number from 1 to 999 (the basket says why beside the field otherwise). */
+export const LineQuantitySchema = z.number({ error: 'Quantity must be a whole number.' }).int('Quantity must be a whole number.')
+  .min(1, 'Order at least 1.').max(MAX_LINE_QUANTITY, `At most ${MAX_LINE_QUANTITY} of one part per order.`)
+
+const sku = z.string({ error: 'Enter the part number.' }).trim().min(1, 'Enter the part number.').max(40, 'Part numbers are at most 40 characters.')
+
 export const OrderLineInputSchema = z.object({
-  sku: z.string({ error: 'Enter the part number.' }).trim().min(1, 'Enter the part number.').max(40, 'Part numbers are at most 40 characters.'),
-  quantity: z.number({ error: 'Quantity must be a whole number.' }).int('Quantity must be a whole number.')
-    .min(1, 'Order at least 1.').max(MAX_LINE_QUANTITY, `At most ${MAX_LINE_QUANTITY} of one part per order.`),
+  sku,
+  quantity: LineQuantitySchema,
+  /** for a line that cannot all go at once (default: the order's choice) */
+  fulfilment: fulfilment.optional(),
 }).strict()
 
 const orderBase = z.object({
   quoteId: id('quote').optional(),
   lines: z.array(OrderLineInputSchema, { error: 'lines must be a list of { sku, quantity }.' })
     .max(MAX_ORDER_LINES, `At most ${MAX_ORDER_LINES} lines per order.`).optional(),
+  /** the branch that supplies the order; the garage's home branch when left out */
   branchId: id('branch').optional(),
+  /** what to do with lines that cannot all go at once: send what is here (default), or wait for everything */
+  fulfilment: fulfilment.default('ship_available'),
+  /** collect from the branch's counter instead of waiting for a delivery run */
+  collect: z.boolean({ error: 'Say whether the order is collected.' }).default(false),
   payment: z.enum(['card', 'account'], { error: 'Choose card or trade account.' }),
   garageReference: z.string({ error: 'Your reference must be text.' }).trim().max(60, 'Your reference is at most 60 characters.').default(''),
 }).strict()
@@ -70,6 +84,41 @@ export const CounterOrderPatchSchema = z.object({
   status: z.enum(['picking', 'dispatched', 'delivered', 'cancelled'], { error: 'status must be picking, dispatched, delivered or cancelled.' }),
   reason,
 }).strict()
+
+/**
+ * POST /api/counter/orders/:id/picks: what the counter found on the shelf, per line. A short pick says where the
+ * rest comes from: a back-order from the supplier or a transfer from another branch.
+ */
+export const CounterPickSchema = z.object({
+  lines: z.array(z.object({
+    lineId: id('line'),
+    picked: z.number({ error: 'Enter how many were picked.' }).int('Enter a whole number.').min(0, 'Picked cannot be negative.'),
+    shortfall: z.enum(['back_order', 'transfer'], { error: 'Choose back-order or transfer for the rest.' }).optional(),
+  }).strict(), { error: 'lines must be a list of { lineId, picked, shortfall? }.' }).min(1, 'Record at least one line.').max(MAX_ORDER_LINES),
+}).strict()
+export type CounterPickInput = z.infer<typeof CounterPickSchema>
+
+/** POST /api/counter/stock-receipts: goods in from the supplier at a branch (back-orders there are filled first). */
+export const StockReceiptSchema = z.object({
+  sku,
+  branchId: id('branch'),
+  quantity: z.number({ error: 'Enter how many arrived.' }).int('Enter a whole number.').min(1, 'At least 1 arrived.').max(9_999, 'At most 9,999 at a time.'),
+  note,
+}).strict()
+export type StockReceiptInput = z.infer<typeof StockReceiptSchema>
+
+/** PUT /api/basket: the garage's basket, kept with its account. */
+export const BasketSchema = z.object({
+  items: z.array(z.object({
+    sku,
+    description: z.string({ error: 'The description must be text.' }).trim().max(300).default(''),
+    quantity: LineQuantitySchema,
+  }).strict(), { error: 'items must be a list of { sku, description, quantity }.' }).max(MAX_ORDER_LINES, `At most ${MAX_ORDER_LINES} lines in the basket.`),
+}).strict()
+export type BasketInput = z.infer<typeof BasketSchema>
+
+/** PATCH /api/admin/trade-accounts/:id/home-branch */
+export const HomeBranchSchema = z.object({ homeBranchId: id('home branch') }).strict()
 
 /** POST /api/core-returns: book an expected return (by its id, or by the order line it belongs to). */
 export const CoreReturnBookSchema = z.object({

@@ -8,9 +8,16 @@
  *                 │  └─checkout expired─> lapsed ──pay again (stock re-reserved)──> awaiting_payment
  *                 └──cancel──> cancelled <──cancel── confirmed, picking, lapsed
  *   account: confirmed ──> picking ──> dispatched ──> delivered   (cancel from confirmed or picking)
+ *   either:  picking ──send what is picked, the rest to follow──> part_dispatched ──> picking …
+ *            (cancelling a part-sent order cancels what has not left; the order then stands as dispatched)
+ *
+ * Each line has its own supply (where its units come from) and state:
+ *   reserved (units held at its branch) ──pick──> picked ──dispatch──> dispatched
+ *   waiting (back-ordered from the supplier) ──stock arrives, oldest order first──> reserved
+ *   any line not yet sent ──cancel──> cancelled
  */
 
-export const ORDER_STATUSES = ['awaiting_payment', 'confirmed', 'picking', 'dispatched', 'delivered', 'cancelled', 'lapsed'] as const
+export const ORDER_STATUSES = ['awaiting_payment', 'confirmed', 'picking', 'part_dispatched', 'dispatched', 'delivered', 'cancelled', 'lapsed'] as const
 export type OrderStatus = (typeof ORDER_STATUSES)[number]
 
 export const PAYMENT_METHODS = ['card', 'account'] as const
@@ -22,30 +29,32 @@ export type PaymentState = (typeof PAYMENT_STATES)[number]
 export const CORE_RETURN_STATUSES = ['expected', 'booked', 'accepted', 'rejected', 'void'] as const
 export type CoreReturnStatus = (typeof CORE_RETURN_STATUSES)[number]
 
-export const LEDGER_KINDS = ['order', 'core_deposit', 'payment', 'refund', 'credit', 'core_credit', 'account_payment'] as const
+export const LEDGER_KINDS = ['order', 'core_deposit', 'payment', 'refund', 'credit', 'core_credit', 'account_payment', 'return_credit'] as const
 export type LedgerKind = (typeof LEDGER_KINDS)[number]
 
 /** The moves counter staff make on the queue (PATCH /api/counter/orders/:id). */
 export const COUNTER_MOVES: Partial<Record<OrderStatus, OrderStatus[]>> = {
   confirmed: ['picking', 'cancelled'],
   picking: ['dispatched', 'cancelled'],
+  part_dispatched: ['picking', 'cancelled'],
   dispatched: ['delivered'],
 }
 
 /** What the button for each counter move says. */
 export const COUNTER_MOVE_LABELS: Partial<Record<OrderStatus, string>> = {
   picking: 'Start picking',
-  dispatched: 'Mark dispatched',
+  dispatched: 'Send what is picked',
   delivered: 'Mark delivered',
 }
 
 /** States in which the parts are the distributor's to pick or have left: a delivery note exists. */
-export const DELIVERY_NOTE_STATUSES: readonly OrderStatus[] = ['confirmed', 'picking', 'dispatched', 'delivered']
+export const DELIVERY_NOTE_STATUSES: readonly OrderStatus[] = ['confirmed', 'picking', 'part_dispatched', 'dispatched', 'delivered']
 
 export const ORDER_STATUS_LABELS: Record<OrderStatus, string> = {
   awaiting_payment: 'Waiting for card payment',
   confirmed: 'Confirmed, waiting to be picked',
   picking: 'Being picked',
+  part_dispatched: 'Part sent, the rest follows',
   dispatched: 'On its way',
   delivered: 'Delivered',
   cancelled: 'Cancelled',
@@ -77,6 +86,7 @@ export const LEDGER_KIND_LABELS: Record<LedgerKind, string> = {
   credit: 'Credit',
   core_credit: 'Core credit',
   account_payment: 'Payment received',
+  return_credit: 'Return credit',
 }
 
 /** The reference people quote on the phone and that prints on paperwork: BL-000042. */
@@ -85,6 +95,49 @@ export function orderReference(id: number): string {
 }
 
 export interface BranchView { id: number; code: string; name: string }
+
+/** Where a line's units come from. */
+export const SUPPLY_SOURCES = ['home', 'transfer', 'back_order', 'collect'] as const
+export type SupplySource = (typeof SUPPLY_SOURCES)[number]
+
+export const SUPPLY_SOURCE_LABELS: Record<SupplySource, string> = {
+  home: 'From the shelf',
+  transfer: 'By transfer from another branch',
+  back_order: 'Back-ordered from the supplier',
+  collect: 'Collect from the counter',
+}
+
+/** What the garage wants done with a line that cannot all go at once. */
+export const FULFILMENTS = ['ship_available', 'wait_for_all'] as const
+export type Fulfilment = (typeof FULFILMENTS)[number]
+
+export const FULFILMENT_LABELS: Record<Fulfilment, string> = {
+  ship_available: 'Send what is here now, the rest follows',
+  wait_for_all: 'Wait and send everything together',
+}
+
+export const LINE_STATES = ['reserved', 'waiting', 'picked', 'dispatched', 'cancelled'] as const
+export type LineState = (typeof LINE_STATES)[number]
+
+export const LINE_STATE_LABELS: Record<LineState, string> = {
+  reserved: 'Held for you',
+  waiting: 'Waiting for stock',
+  picked: 'Picked',
+  dispatched: 'Sent',
+  cancelled: 'Cancelled',
+}
+
+/** A line's supply as the garage reads it: where from, and when it arrives. */
+export interface SupplyView {
+  source: SupplySource
+  /** the branch the units come from (null: back-ordered, not yet in any branch) */
+  branch: BranchView | null
+  /** when the line is expected at the garage (or ready at the counter, when collected) */
+  arrivesAt: string | null
+  /** the promise in words: "next run 14:30, about 15:15", "tomorrow's 08:30 run", "collect from the counter now" */
+  promise: string
+  fulfilment: Fulfilment
+}
 
 /** A line's part and amounts, as placed and as previewed. */
 export interface OrderLineAmounts {
@@ -96,12 +149,20 @@ export interface OrderLineAmounts {
   lineNetMinor: number
   lineTaxMinor: number
   coreDepositUnitMinor: number
+  /** tax on the line's core deposits (the deposit carries tax at the part's rate) */
+  coreDepositTaxMinor: number
   /** set when the line came from a quote: the unit net price the quote had captured */
   quotedUnitNetMinor: number | null
 }
 
-export interface OrderLineView extends OrderLineAmounts {
+export interface OrderLineView extends OrderLineAmounts, SupplyView {
   id: number
+  state: LineState
+  stateLabel: string
+  pickedQuantity: number | null
+  dispatchedAt: string | null
+  /** units of this line the garage may still ask to return (sent, invoiced, within the return period or not) */
+  returnableQuantity: number
 }
 
 export interface CoreReturnView {
@@ -116,14 +177,18 @@ export interface CoreReturnView {
   quantityExpected: number
   quantityBooked: number | null
   depositUnitMinor: number
-  /** the deposit that goes back if it is accepted (booked quantity, or all expected before booking) */
+  /** the deposit that goes back if it is accepted (booked quantity, or all expected before booking), before tax */
   depositMinor: number
+  /** the same with its tax: what is credited when the old unit is accepted */
+  depositGrossMinor: number
   creditedMinor: number | null
   garageNote: string
   reason: string | null
   bookedAt: string | null
   decidedAt: string | null
   refundPending: boolean
+  /** the credit note that returned the deposit */
+  creditNote: { id: number; reference: string } | null
   /** the garage's name (counter views only) */
   garage?: string
 }
@@ -155,27 +220,60 @@ export interface OrderAmounts {
   totalMinor: number
 }
 
+/** One line of the counter's pick list, in bin order. */
+export interface PickLine {
+  lineId: number
+  sku: string
+  description: string
+  quantity: number
+  /** the shelf location at the branch that picks it; '' when none is recorded */
+  bin: string
+  source: SupplySource
+  /** ready to pick now (held here, transfer arrived, and not waiting for the rest of a wait-for-all group) */
+  ready: boolean
+  /** why it is not ready yet */
+  waitingFor: string | null
+  pickedQuantity: number | null
+}
+
+export interface DispatchView {
+  id: number
+  seq: number
+  at: string
+  lines: number
+  invoice: { id: number; reference: string } | null
+}
+
 export interface OrderDetail extends OrderSummary, OrderAmounts {
   quoteId: number | null
+  fulfilment: Fulfilment
+  collect: boolean
   lines: OrderLineView[]
   coreReturns: CoreReturnView[]
+  dispatches: DispatchView[]
   placedBy: string
   /** the last card attempt's refusal, shown until a payment succeeds */
   decline: { reason: string; code: string | null; at: string } | null
   /** what the signed-in caller may do next */
-  can: { pay: boolean; cancel: boolean; invoice: boolean }
+  can: { pay: boolean; cancel: boolean; invoice: boolean; returnLines: boolean }
   /** counter views: the moves that are allowed from here */
   nextStatuses?: OrderStatus[]
+  /** counter views: what to pick, by bin */
+  pickList?: PickLine[]
   timeline: { at: string; label: string }[]
 }
 
-export interface PricedLine extends OrderLineAmounts {
+export interface PricedLine extends OrderLineAmounts, SupplyView {
   partId: number
-  /** units at the chosen branch right now */
+  /** units at the order's branch right now, less what older back-orders there are waiting for */
   available: number
   quoteLineId: number | null
   /** unitNetMinor - quotedUnitNetMinor when the price moved since the quote, else null */
   priceChangeMinor: number | null
+  /** which requested line (basket or quote line, from 0) this supply fills: a short line is split in several */
+  group: number
+  /** how many the garage asked for on that requested line */
+  requested: number
 }
 
 export interface OrderPreview extends OrderAmounts {
@@ -183,14 +281,31 @@ export interface OrderPreview extends OrderAmounts {
   branch: BranchView
   branches: BranchView[]
   currency: string
+  fulfilment: Fulfilment
+  collect: boolean
+  /** when the whole order will have arrived */
+  completeAt: string | null
   /** lines whose price differs from the quote's */
   changes: { sku: string; quotedUnitNetMinor: number; unitNetMinor: number }[]
   /** quote lines that could not be ordered (no longer sold, no price), with why */
   skipped: { sku: string; reason: string }[]
   terms: 'card' | 'account'
   account: { creditLimitMinor: number; balanceMinor: number; availableMinor: number; fits: boolean } | null
+  /** requested lines the order's branch cannot fill from its shelf: they are split (transfer, back-order) */
   shortages: { sku: string; available: number; wanted: number }[]
 }
+
+/** A branch, how it delivers and when its counter is open (the order page and the approval form). */
+export interface BranchSchedule extends BranchView {
+  address: string
+  collection: boolean
+  counterOpens: string
+  counterCloses: string
+  transferMinutes: number
+  runs: { departs: string; cutoffMinutes: number; transitMinutes: number; weekdays: string }[]
+}
+
+export interface BasketItem { sku: string; description: string; quantity: number }
 
 export interface StatementEntry {
   id: number

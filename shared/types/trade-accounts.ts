@@ -60,6 +60,8 @@ export interface TradeAccountDetail extends TradeAccountSummary {
   history: AuditView[]
   /** what the garage owes on its ledger now (negative: in credit) */
   balanceMinor: number
+  /** the branch that supplies its orders unless it names another (set on approval) */
+  homeBranch: { id: number; code: string; name: string } | null
 }
 
 /** `GET /api/account`: the signed-in person and their organisation's standing. */

@@ -19,6 +19,10 @@ export const ABILITIES = {
   'orders.place': ['garage_manager'],
   'orders.pay': ['garage_manager'],
   'coreReturns.book': ['garage_manager'],
+  /** ask to send back a wrong, unneeded or faulty part */
+  'returns.request': ['garage_manager'],
+  /** invoices and credit notes: a garage its own, the distributor all */
+  'documents.view': ['distributor_admin', 'counter_staff', 'garage_manager'],
   'statement.view': ['garage_manager'],
   'garage.settings': ['garage_manager'],
   'garage.staff': ['garage_manager'],
@@ -29,6 +33,8 @@ export const ABILITIES = {
   // the distributor's work
   'orders.work': ['distributor_admin', 'counter_staff'],
   'coreReturns.decide': ['distributor_admin', 'counter_staff'],
+  /** receive returned parts and decide them (accept all, part or none) */
+  'returns.decide': ['distributor_admin', 'counter_staff'],
   'priceFiles.manage': ['distributor_admin', 'counter_staff'],
   /** read the garages' trade accounts and their proof documents (counter staff check terms when working orders) */
   'tradeAccounts.view': ['distributor_admin', 'counter_staff'],

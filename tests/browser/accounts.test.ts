@@ -54,6 +54,7 @@ describe('trade accounts in the browser', () => {
     const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: /^Download trade-registration\.pdf/ }).click()])
     expect(download.suggestedFilename()).toBe('trade-registration.pdf')
     await page.getByLabel('Discount tier').selectOption({ label: 'Silver — 12.5 % off list' })
+    await page.getByLabel('Home branch').selectOption({ label: 'Northgate (NGT)' })
     await page.getByLabel('Trade account with a credit limit').check()
     await page.getByLabel('Credit limit', { exact: true }).fill('1500.00')
     await page.getByLabel('Days to pay').fill('30')

@@ -7,7 +7,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Browser, Page } from 'playwright-core'
 import { env, people } from '../support/api'
-import { foreignRequests, launch, newContext, shot, signInThroughForm } from '../support/browser'
+import { foreignRequests, launch, newContext, open, shot, signInThroughForm } from '../support/browser'
 import { makeGarage, makePart, makeQuote, type TestGarage, type TestPart } from '../support/orders'
 
 let browser: Browser
@@ -44,11 +44,12 @@ describe('ordering and paying in the browser', () => {
     const changes = page.getByTestId('price-changes')
     await changes.waitFor()
     expect(await changes.textContent()).toContain('quoted at £74.10, now £76.00')
-    // 2 x £76.00 = £152.00 + VAT 20 % (gov.uk "VAT rates") £30.40 + deposits 2 x £20.00 = £222.40
-    expect(await page.getByTestId('order-total').textContent()).toBe('£222.40')
+    // parts 2 x £76.00 = £152.00, deposits 2 x £20.00 = £40.00; a deposit carries its part's VAT (20 %, gov.uk
+    // "VAT rates"): VAT 20 % of £192.00 = £38.40; total £192.00 + £38.40 = £230.40
+    expect(await page.getByTestId('order-total').textContent()).toBe('£230.40')
     await shot(page, 'orders-01-from-quote')
     await page.getByLabel('Pay by card now').check()
-    await page.getByRole('button', { name: 'Place order and pay £222.40' }).click()
+    await page.getByRole('button', { name: 'Place order and pay £230.40' }).click()
 
     // the payment fake's hosted page
     await page.waitForURL((u) => u.href.startsWith(`${env().paymentsUrl}/pay/`))
@@ -68,13 +69,12 @@ describe('ordering and paying in the browser', () => {
     const counterCtx = await newContext(browser)
     const counter = await counterCtx.context.newPage()
     await signInThroughForm(counter, people.counter)
-    await counter.goto('/counter/orders', { waitUntil: 'networkidle' })
-    const row = counter.locator('tr', { has: counter.getByRole('link', { name: `BL-${String(orderId).padStart(6, '0')}` }) })
-    await row.getByRole('button', { name: 'Start picking' }).click()
-    await row.getByRole('button', { name: 'Mark dispatched' }).waitFor()
-    await shot(counter, 'orders-04-queue')
-    await counter.goto(`/counter/orders/${orderId}`, { waitUntil: 'networkidle' })
-    await counter.getByRole('button', { name: 'Mark dispatched' }).click()
+    // from the order's own page: after other tests the queue may hold it on a later page
+    await open(counter, `/counter/orders/${orderId}`)
+    await counter.getByRole('button', { name: 'Start picking' }).click()
+    await counter.getByTestId('pick-list').waitFor()
+    await shot(counter, 'orders-04-picking')
+    await counter.getByRole('button', { name: 'Send what is picked' }).click()
     await counter.getByRole('button', { name: 'Mark delivered' }).waitFor()
     expect(await status(counter)).toBe('On its way')
 
@@ -85,21 +85,21 @@ describe('ordering and paying in the browser', () => {
     await page.getByRole('button', { name: 'Book return' }).click()
     await page.getByText('Booked to come back').waitFor()
 
-    // the counter accepts them: the deposit goes back to the card
+    // the counter accepts them: the deposits and their VAT (2 x £20.00 + 20 % = £48.00) go back to the card
     await counter.goto('/counter/core-returns', { waitUntil: 'networkidle' })
     const booked = counter.locator('[data-core]', { hasText: part.sku })
-    await booked.getByRole('button', { name: 'Accept: return £40.00' }).click()
+    await booked.getByRole('button', { name: 'Accept: return £48.00' }).click()
     await booked.waitFor({ state: 'detached' })
 
     await page.reload({ waitUntil: 'networkidle' })
     const credit = page.getByTestId('core-credit')
     await credit.waitFor()
-    expect(await credit.textContent()).toContain('£40.00 returned')
+    expect(await credit.textContent()).toContain('£48.00 returned')
     await shot(page, 'orders-05-core-credit')
     await page.goto('/statement', { waitUntil: 'networkidle' })
     const statement = page.getByTestId('statement')
     await statement.getByText('Core credit').waitFor()
-    expect(await statement.textContent()).toContain('-£40.00')
+    expect(await statement.textContent()).toContain('-£48.00')
     await shot(page, 'orders-06-statement')
 
     expect(foreignRequests(requests)).toEqual([])

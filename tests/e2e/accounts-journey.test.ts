@@ -13,9 +13,12 @@ await setup({ host: env().baseUrl })
 
 let admin: Client
 let tiers: { id: number; name: string; percentBp: number }[]
+// the branch that will supply the garage's orders: required on approval
+let homeBranchId: number
 beforeAll(async () => {
   admin = await as(people.admin)
   tiers = (await admin.get('/api/admin/tiers')).body.data
+  homeBranchId = (await admin.get('/api/branches')).body[0].id
 })
 const tier = (name: string) => tiers.find((t) => t.name === name)!
 
@@ -90,12 +93,12 @@ describe('apply -> approve -> sign in', () => {
   })
 
   it('refuses inconsistent terms and unknown tiers (422) and leaves the application pending', async () => {
-    const noLimit = await admin.post(`/api/admin/trade-applications/${id}/decision`, { decision: 'approve', tierId: tier('Silver').id, terms: 'account' })
+    const noLimit = await admin.post(`/api/admin/trade-applications/${id}/decision`, { decision: 'approve', tierId: tier('Silver').id, homeBranchId, terms: 'account' })
     expect(noLimit.status).toBe(422)
     expect(Object.keys(noLimit.body.data.fields).sort()).toEqual(['creditLimitMinor', 'paymentDays'])
-    const cardWithLimit = await admin.post(`/api/admin/trade-applications/${id}/decision`, { decision: 'approve', tierId: tier('Silver').id, terms: 'card', creditLimitMinor: 1000 })
+    const cardWithLimit = await admin.post(`/api/admin/trade-applications/${id}/decision`, { decision: 'approve', tierId: tier('Silver').id, homeBranchId, terms: 'card', creditLimitMinor: 1000 })
     expect(cardWithLimit.body.data.fields).toHaveProperty('creditLimitMinor')
-    const unknownTier = await admin.post(`/api/admin/trade-applications/${id}/decision`, { decision: 'approve', tierId: 999999, terms: 'card' })
+    const unknownTier = await admin.post(`/api/admin/trade-applications/${id}/decision`, { decision: 'approve', tierId: 999999, homeBranchId, terms: 'card' })
     expect(unknownTier.status).toBe(422)
     expect(unknownTier.body.data.fields).toHaveProperty('tierId')
     const rejectNoReason = await admin.post(`/api/admin/trade-applications/${id}/decision`, { decision: 'reject' })
@@ -108,7 +111,7 @@ describe('apply -> approve -> sign in', () => {
 
   it('approves with a tier and account terms, e-mails the garage and refuses a second decision (409)', async () => {
     const silver = tier('Silver')
-    const r = await admin.post(`/api/admin/trade-applications/${id}/decision`, { decision: 'approve', tierId: silver.id, terms: 'account', creditLimitMinor: 250_000, paymentDays: 30 })
+    const r = await admin.post(`/api/admin/trade-applications/${id}/decision`, { decision: 'approve', tierId: silver.id, homeBranchId, terms: 'account', creditLimitMinor: 250_000, paymentDays: 30 })
     expect(r.status).toBe(200)
     expect(r.body).toMatchObject({ status: 'approved', tier: { id: silver.id, name: 'Silver' }, terms: 'account', creditLimitMinor: 250_000, paymentDays: 30 })
     const mail = await waitForMail(fields.email, /your trade account is open/)
@@ -116,7 +119,7 @@ describe('apply -> approve -> sign in', () => {
     expect(mail.text).toContain('£2,500.00')
     expect(mail.text).toContain('30 days')
 
-    expect((await admin.post(`/api/admin/trade-applications/${id}/decision`, { decision: 'approve', tierId: silver.id, terms: 'card' })).status).toBe(409)
+    expect((await admin.post(`/api/admin/trade-applications/${id}/decision`, { decision: 'approve', tierId: silver.id, homeBranchId, terms: 'card' })).status).toBe(409)
     expect((await admin.post(`/api/admin/trade-applications/${id}/decision`, { decision: 'reject', reason: 'Changed my mind about it' })).status).toBe(409)
     expect(dbValue(`SELECT status FROM organisations WHERE id = ${id}`)).toBe('approved')
   })
@@ -158,7 +161,7 @@ describe('rejection', () => {
     expect((await garage.signIn(fields.email, fields.password)).body.organisationStatus).toBe('rejected')
     expect((await garage.get('/api/trade-applications/mine')).body).toMatchObject({ status: 'rejected', decisionReason: reason })
     expect((await garage.get('/api/account')).status).toBe(403)
-    expect((await admin.post(`/api/admin/trade-applications/${id}/decision`, { decision: 'approve', tierId: tier('Bronze').id, terms: 'card' })).status).toBe(409)
+    expect((await admin.post(`/api/admin/trade-applications/${id}/decision`, { decision: 'approve', tierId: tier('Bronze').id, homeBranchId, terms: 'card' })).status).toBe(409)
     const last = dbRows<{ action: string; changes: string }>(`SELECT action, changes FROM audit_log WHERE entity_id = '${id}' AND entity = 'organisation' ORDER BY id DESC LIMIT 1`)[0]!
     expect(last.action).toBe('tradeApplication.rejected')
     expect(JSON.parse(last.changes).reason).toBe(reason)

@@ -17,8 +17,9 @@ let part: TestPart
 let counter: Client
 const sum = (rows: { amountMinor: number }[]) => rows.reduce((s, r) => s + r.amountMinor, 0)
 
-// £100.00 net (no tier), VAT 20 % (gov.uk "VAT rates") = £20.00, deposit £25.00: £145.00 a unit
-const UNIT = { net: 10_000, tax: 2_000, deposit: 2_500, total: 14_500 }
+// £100.00 net (no tier), VAT 20 % (gov.uk "VAT rates") = £20.00, deposit £25.00 with its VAT at the part's rate
+// £5.00 (the core deposit rule, shared/utils/order-totals.ts): £150.00 a unit
+const UNIT = { net: 10_000, tax: 2_000, deposit: 2_500, depositTax: 500, total: 15_000 }
 
 beforeAll(async () => {
   part = await makePart({ listPriceMinor: UNIT.net, coreDepositMinor: UNIT.deposit, stock: { NGT: 100 } })
@@ -44,14 +45,15 @@ describe('trade account: credits', () => {
     const before = await stockOf(part.id)
     const order = (await c.post('/api/orders', { lines: [{ sku: part.sku, quantity: 2 }], payment: 'account' })).body
     expect(order.totalMinor).toBe(2 * UNIT.total)
-    expect(sum(await ledgerOf(garage.id))).toBe(29_000)
+    expect(sum(await ledgerOf(garage.id))).toBe(30_000)
     const r = await counter.patch(`/api/counter/orders/${order.id}`, { status: 'cancelled', reason: 'Garage phoned: wrong axle' })
     expect(r.body).toMatchObject({ status: 'cancelled', paymentState: 'credited' })
     const ledger = await ledgerOf(garage.id)
-    expect(ledger.at(-1)).toEqual({ kind: 'credit', amountMinor: -29_000, externalId: null })
+    expect(ledger.at(-1)).toEqual({ kind: 'credit', amountMinor: -30_000, externalId: null })
     expect(sum(ledger)).toBe(0)
     expect(await stockOf(part.id)).toBe(before)
-    expect((await coreReturnsOf(order.id)).map((x) => x.status)).toEqual(['void'])
+    // old units are expected once their parts leave: nothing was sent, so none are
+    expect(await coreReturnsOf(order.id)).toEqual([])
     const mail = await waitForMail(garage.email, new RegExp(`${order.reference} cancelled`))
     expect(mail.text).toContain('wrong axle')
     // a cancelled order stays cancelled
@@ -60,31 +62,33 @@ describe('trade account: credits', () => {
 
   it('credits an accepted core return by its deposit, and a rejected one not at all', async () => {
     const order = (await c.post('/api/orders', { lines: [{ sku: part.sku, quantity: 2 }], payment: 'account' })).body
-    const [cr] = order.coreReturns
-    // booking before the parts have left is refused
-    expect((await c.post('/api/core-returns', { coreReturnId: cr.id })).status).toBe(409)
+    // no old unit is due before its part has left
+    expect(order.coreReturns).toEqual([])
+    expect((await c.post('/api/core-returns', { orderLineId: order.lines[0].id })).status).toBe(404)
     await move(order.id, 'picking', 'dispatched')
     await waitForMail(garage.email, new RegExp(`${order.reference} is on its way`))
+    const [cr] = (await c.get(`/api/orders/${order.id}`)).body.coreReturns
     const start = sum(await ledgerOf(garage.id))
 
     expect((await c.post('/api/core-returns', { coreReturnId: cr.id, quantity: 3 })).status).toBe(422)
     const booked = await c.post('/api/core-returns', { coreReturnId: cr.id, quantity: 1, note: 'one came back seized' })
     expect(booked.status, booked.text).toBe(200)
-    expect(booked.body).toMatchObject({ status: 'booked', quantityBooked: 1, depositMinor: UNIT.deposit })
+    expect(booked.body).toMatchObject({ status: 'booked', quantityBooked: 1, depositMinor: UNIT.deposit, depositGrossMinor: UNIT.deposit + UNIT.depositTax })
     expect((await c.post('/api/core-returns', { coreReturnId: cr.id })).status).toBe(409)
     expect((await counter.get('/api/counter/core-returns')).body.data.some((x: { id: number }) => x.id === cr.id)).toBe(true)
 
     const accepted = await counter.patch(`/api/counter/core-returns/${cr.id}`, { status: 'accepted' })
-    expect(accepted.body).toMatchObject({ status: 'accepted', creditedMinor: 2_500 })
+    // one old unit of two: the deposit £25.00 and half the deposits' £10.00 VAT, £5.00
+    expect(accepted.body).toMatchObject({ status: 'accepted', creditedMinor: 3_000 })
     const ledger = await ledgerOf(garage.id)
-    expect(ledger.at(-1)).toMatchObject({ kind: 'core_credit', amountMinor: -2_500 })
-    expect(sum(ledger)).toBe(start - 2_500)
+    expect(ledger.at(-1)).toMatchObject({ kind: 'core_credit', amountMinor: -3_000 })
+    expect(sum(ledger)).toBe(start - 3_000)
     expect((await counter.patch(`/api/counter/core-returns/${cr.id}`, { status: 'rejected', reason: 'late' })).status).toBe(409)
-    await waitForMail(garage.email, /Old unit accepted: £25\.00 deposit returned/)
+    await waitForMail(garage.email, /Old unit accepted: £30\.00 deposit returned/)
 
     const other = (await c.post('/api/orders', { lines: [{ sku: part.sku, quantity: 1 }], payment: 'account' })).body
     await move(other.id, 'picking', 'dispatched', 'delivered')
-    const cr2 = other.coreReturns[0]
+    const cr2 = (await c.get(`/api/orders/${other.id}`)).body.coreReturns[0]
     expect((await c.post('/api/core-returns', { orderLineId: cr2.orderLineId })).body.status).toBe('booked')
     const noReason = await counter.patch(`/api/counter/core-returns/${cr2.id}`, { status: 'rejected' })
     expect(noReason.status).toBe(422)
@@ -118,7 +122,7 @@ describe('trade account: credits', () => {
     // the formula is neutralised with a leading apostrophe (csv-stringify escape_formulas)
     expect(mine.every((l) => l.includes(`"'=HYPERLINK(""http://x.test"",""go"")"`))).toBe(true)
     // amounts stay numbers, negative ones too
-    expect(lines.some((l) => /,-290\.00,/.test(l))).toBe(true)
+    expect(lines.some((l) => /,-300\.00,/.test(l))).toBe(true)
     expect(lines.some((l) => l.includes("'-"))).toBe(false)
   })
 })
@@ -151,7 +155,7 @@ describe('card: refunds through the payment service', () => {
     expect(Number(refunds[0].body.amount)).toBe(UNIT.total)
     const ledger = (await ledgerOf(garage.id)).slice(-5)
     expect(ledger.map((e) => [e.kind, e.amountMinor])).toEqual([
-      ['order', 12_000], ['core_deposit', 2_500], ['payment', -14_500], ['credit', -14_500], ['refund', 14_500],
+      ['order', 12_000], ['core_deposit', 3_000], ['payment', -15_000], ['credit', -15_000], ['refund', 15_000],
     ])
     expect(sum(await ledgerOf(garage.id))).toBe(0)
     await waitForMail(garage.email, new RegExp(`Refund sent for order ${order.reference}`))
@@ -171,18 +175,18 @@ describe('card: refunds through the payment service', () => {
     expect((await c.post('/api/core-returns', { coreReturnId: cr.id })).status).toBe(200)
     const start = await ledgerOf(garage.id)
     const accepted = await counter.patch(`/api/counter/core-returns/${cr.id}`, { status: 'accepted' })
-    expect(accepted.body).toMatchObject({ status: 'accepted', creditedMinor: 2 * UNIT.deposit })
+    expect(accepted.body).toMatchObject({ status: 'accepted', creditedMinor: 2 * (UNIT.deposit + UNIT.depositTax) })
     await waitFor(async () => !(await coreReturnsOf(order.id))[0]!.refundPending, 'the core refund')
     const added = (await ledgerOf(garage.id)).slice(start.length)
-    expect(added.map((e) => [e.kind, e.amountMinor])).toEqual([['core_credit', -5_000], ['refund', 5_000]])
+    expect(added.map((e) => [e.kind, e.amountMinor])).toEqual([['core_credit', -6_000], ['refund', 6_000]])
     const refunds = (await fake('GET', '/_fake/requests?path=/v1/refunds&method=POST')).json.data
       .filter((x: { idempotencyKey: string }) => x.idempotencyKey?.startsWith(`boreline-core-return-${cr.id}-`))
-    expect(refunds.map((x: { body: { amount: string } }) => Number(x.body.amount))).toEqual([5_000])
+    expect(refunds.map((x: { body: { amount: string } }) => Number(x.body.amount))).toEqual([6_000])
     const view = (await c.get(`/api/orders/${order.id}`)).body
-    expect(view.coreReturns[0]).toMatchObject({ status: 'accepted', creditedMinor: 5_000, refundPending: false })
+    expect(view.coreReturns[0]).toMatchObject({ status: 'accepted', creditedMinor: 6_000, refundPending: false })
   })
 
-  it('issues an invoice and a delivery note as PDFs set in Inter', async () => {
+  it('issues an order confirmation and a delivery note as PDFs set in Inter', async () => {
     const order = await paidOrder(1)
     const inv = await fetch(`${env().baseUrl}/api/orders/${order.id}/invoice.pdf`, { headers: { cookie: c.cookieHeader() } })
     expect(inv.status).toBe(200)
@@ -192,7 +196,8 @@ describe('card: refunds through the payment service', () => {
     expect(bytes.toString('latin1')).toMatch(/\/BaseFont \/[A-Z]{6}\+Inter/)
     const text = (await pdfParse(bytes)).text as string
     expect(text).toContain(order.reference)
-    expect(text).toContain('£145.00')
+    expect(text).toContain('Order confirmation')
+    expect(text).toContain('£150.00')
     expect(text).toContain(garage.name)
 
     expect((await c.get(`/api/counter/orders/${order.id}/delivery-note.pdf`)).status).toBe(403)

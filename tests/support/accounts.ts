@@ -124,11 +124,12 @@ export async function applyAsNewGarage(overrides: Partial<ApplicationFields> = {
   return { id: garageIdOf(fields.email), fields }
 }
 
-/** A fresh garage approved by the admin (card terms on the cheapest tier unless told otherwise). */
+/** A fresh garage approved by the admin (card terms on the cheapest tier, the first branch as home, unless told otherwise). */
 export async function newApprovedGarage(admin: Client, decision: Record<string, unknown> = {}): Promise<{ id: number; fields: ApplicationFields; manager: Client }> {
   const { id, fields } = await applyAsNewGarage()
   const tierId = decision.tierId ?? (await admin.get('/api/admin/tiers')).body.data[0].id
-  const r = await admin.post(`/api/admin/trade-applications/${id}/decision`, { decision: 'approve', terms: 'card', tierId, ...decision })
+  const homeBranchId = decision.homeBranchId ?? (await admin.get('/api/branches')).body[0].id
+  const r = await admin.post(`/api/admin/trade-applications/${id}/decision`, { decision: 'approve', terms: 'card', tierId, homeBranchId, ...decision })
   if (r.status !== 200) throw new Error(`approval failed: ${r.status} ${r.text}`)
   const manager = new Client()
   await manager.signIn(fields.email, fields.password)

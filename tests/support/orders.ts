@@ -6,14 +6,15 @@
  */
 import { randomBytes } from 'node:crypto'
 import Stripe from 'stripe'
+import { QueryTypes } from 'sequelize'
 import { getDb, withWrite } from '../../server/utils/db'
 import { initModels } from '../../server/models/index'
 import { Branch, DiscountTier, Organisation, User } from '../../server/models/accounts'
 import { PartPrice, Part, PriceVersion, StockLevel } from '../../server/models/catalogue'
-import { CoreReturn, LedgerEntry, Order } from '../../server/models/orders'
+import { CoreReturn, LedgerEntry, Order, OrderLine } from '../../server/models/orders'
 import { Quote, QuoteLine } from '../../server/models/quotes'
 import { hashPasswordOutsideNitro } from '../../server/services/password'
-import { DEMO_PASSWORD, env } from './api'
+import { DEMO_PASSWORD, env, type Client } from './api'
 
 /** tests/support/global-setup.ts starts the server and the payment fake with this secret */
 export const WEBHOOK_SECRET = 'whsec_boreline_test_secret'
@@ -224,4 +225,42 @@ export async function addLedgerEntry(organisationId: number, e: { kind: 'order' 
   const at = new Date(e.at)
   await withWrite((t) => getDb().query('UPDATE ledger_entries SET created_at = $1 WHERE id = $2', { bind: [`${at.toISOString().replace('T', ' ').replace('Z', '')} +00:00`, row.id], transaction: t }))
   return row.id
+}
+
+// ---- the counter's day: moved clocks, lines, documents ---------------------------------------------
+
+/**
+ * The header that moves the server's clock for one request (honoured only with BORELINE_TEST_HOOKS=1, which the
+ * e2e setup sets): delivery promises, picking and return periods then read this instant as "now".
+ */
+export const at = (iso: string) => ({ 'x-boreline-test-now': iso })
+
+/** POST/PATCH as at a moved instant. */
+export function sendAt<T = any>(c: Client, method: 'POST' | 'PATCH' | 'GET', path: string, iso: string, json?: unknown) {
+  return c.request<T>(path, { method, headers: at(iso), ...(json === undefined ? {} : { json }) })
+}
+
+export async function linesOf(orderId: number): Promise<OrderLine[]> {
+  models()
+  return OrderLine.findAll({ where: { orderId }, order: [['id', 'ASC']] })
+}
+
+/** Every number issued in a series, in order. */
+export async function seriesNumbers(series: 'INV' | 'CRN'): Promise<number[]> {
+  models()
+  const rows = await getDb().query('SELECT number FROM documents WHERE series = :series ORDER BY number', { replacements: { series }, type: QueryTypes.SELECT }) as { number: number }[]
+  return rows.map((r) => Number(r.number))
+}
+
+/** Tries to change an issued document behind the app's back; resolves with the database's refusal. */
+export async function tamperWithDocument(id: number): Promise<string> {
+  models()
+  try {
+    await withWrite((t) => getDb().query('UPDATE documents SET total_minor = 0, net_minor = 0, tax_minor = 0 WHERE id = :id', { replacements: { id }, transaction: t }))
+    return 'changed'
+  } catch (err) {
+    // Sequelize names a constraint refusal "Validation error"; the database's own words are on the original
+    const e = err as Error & { original?: Error; parent?: Error }
+    return (e.original ?? e.parent ?? e).message
+  }
 }

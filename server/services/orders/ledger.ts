@@ -8,25 +8,38 @@ import { CoreReturn, LedgerEntry, OrderLine, type Order } from '../../models/ord
 import { orderReference } from '../../../shared/types/orders'
 import type { Formats } from '../../../shared/utils/format'
 
+/** The deposits an order charges with their tax (the core deposit rule: shared/utils/order-totals.ts). */
+export function depositGrossOf(order: Order): number {
+  return order.coreDepositMinor + (order.lines ?? []).reduce((s, l) => s + (l.depositTaxMinor ?? 0), 0)
+}
+
 /**
- * The order's charges on the ledger (goods + tax, and deposits), and the old units it now expects back.
- * Runs when an account order is placed, or when a card order is paid (then `paymentIntentId` books the
- * payment that settles them, so the card garage's balance is back where it was).
+ * The order's charges on the ledger (parts and their tax; deposits and their tax). Runs when an account order is
+ * placed, or when a card order is paid (then `paymentIntentId` books the payment that settles them, so the card
+ * garage's balance is back where it was). The old units due back are expected once their parts leave (dispatch).
  */
-export async function bookOrderCharges(t: Transaction, order: Order, paymentIntentId: string | null, fmt: Formats, options: { expectCores?: boolean } = {}): Promise<void> {
+export async function bookOrderCharges(t: Transaction, order: Order, paymentIntentId: string | null, fmt: Formats): Promise<void> {
   const entry = { organisationId: order.organisationId, orderId: order.id, reference: orderReference(order.id) }
+  if (!order.lines) order.lines = await OrderLine.findAll({ where: { orderId: order.id }, transaction: t })
+  const deposits = depositGrossOf(order)
+  const partsTax = order.taxMinor - (deposits - order.coreDepositMinor)
   await LedgerEntry.create({
-    ...entry, kind: 'order', amountMinor: order.subtotalMinor + order.taxMinor,
-    description: `Parts ${fmt.money(order.subtotalMinor)} + VAT ${fmt.money(order.taxMinor)}`,
+    ...entry, kind: 'order', amountMinor: order.totalMinor - deposits,
+    description: `Parts ${fmt.money(order.subtotalMinor)} + VAT ${fmt.money(partsTax)}`,
   }, { transaction: t })
-  if (order.coreDepositMinor > 0) {
-    await LedgerEntry.create({ ...entry, kind: 'core_deposit', amountMinor: order.coreDepositMinor, description: 'Deposits on old units to be returned' }, { transaction: t })
+  if (deposits > 0) {
+    await LedgerEntry.create({
+      ...entry, kind: 'core_deposit', amountMinor: deposits,
+      description: `Deposits on old units to be returned ${fmt.money(order.coreDepositMinor)} + VAT ${fmt.money(deposits - order.coreDepositMinor)}`,
+    }, { transaction: t })
   }
   if (paymentIntentId) {
     await LedgerEntry.create({ ...entry, kind: 'payment', amountMinor: -order.totalMinor, description: 'Card payment received', externalId: paymentIntentId }, { transaction: t })
   }
-  if (options.expectCores === false) return
-  const lines = order.lines ?? await OrderLine.findAll({ where: { orderId: order.id }, transaction: t })
+}
+
+/** The old units an order's sent lines are expected to bring back, one per line with a deposit. */
+export async function expectCores(t: Transaction, order: Pick<Order, 'id' | 'organisationId'>, lines: readonly OrderLine[]): Promise<void> {
   for (const l of lines) {
     if (l.coreDepositUnitMinor <= 0) continue
     if (await CoreReturn.findOne({ where: { orderLineId: l.id }, transaction: t })) continue
@@ -37,11 +50,15 @@ export async function bookOrderCharges(t: Transaction, order: Order, paymentInte
   }
 }
 
-/** The whole order credited back: a paid card order is refunded after this, an account order is done. */
-export async function creditCancelledOrder(t: Transaction, order: Order): Promise<void> {
+/**
+ * What was not sent credited back (the whole order unless `amountMinor` says less): a paid card order is refunded
+ * after this, an account order is done.
+ */
+export async function creditCancelledOrder(t: Transaction, order: Order, amountMinor = order.totalMinor): Promise<void> {
+  const part = amountMinor < order.totalMinor
   await LedgerEntry.create({
-    organisationId: order.organisationId, orderId: order.id, kind: 'credit', amountMinor: -order.totalMinor, reference: orderReference(order.id),
-    description: order.paymentState === 'on_account' ? 'Order cancelled: credited to the account' : 'Order cancelled: payment to be refunded',
+    organisationId: order.organisationId, orderId: order.id, kind: 'credit', amountMinor: -amountMinor, reference: orderReference(order.id),
+    description: `${part ? 'Lines not yet sent cancelled' : 'Order cancelled'}: ${order.paymentState === 'on_account' ? 'credited to the account' : 'payment to be refunded'}`,
   }, { transaction: t })
 }
 

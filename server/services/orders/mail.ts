@@ -11,10 +11,17 @@ import type { Formats } from '../../../shared/utils/format'
 
 export type OrderMailKind = 'confirmed' | 'paid' | 'picking' | 'dispatched' | 'delivered' | 'cancelled' | 'lapsed' | 'refunded'
 
-export interface OrderMailExtra { reason?: string; attachments?: Mail.Attachment[]; amountMinor?: number }
+export interface OrderMailExtra {
+  reason?: string
+  attachments?: Mail.Attachment[]
+  amountMinor?: number
+  /** a dispatch: its invoice, and how many lines are still to come */
+  invoiceReference?: string
+  toFollow?: number
+}
 
 /** The person who placed the order (while active) and the garage's own address, greeted by first name. */
-async function sendToGarage(
+export async function sendToGarage(
   order: Pick<Order, 'id' | 'organisationId' | 'placedByUserId'>, subject: string, body: string, attachments?: Mail.Attachment[],
 ): Promise<boolean> {
   const [org, placer, distributor] = await Promise.all([
@@ -43,15 +50,21 @@ function orderMessage(order: Order, kind: OrderMailKind, fmt: Formats, extra: Or
       return { subject: `Payment received for order ${ref}`, body: `We have received your card payment of ${total} for order ${ref}${yours}. ${branch} will pick it next.\n\n${lines}` }
     case 'picking':
       return { subject: `Order ${ref} is being picked at ${branch}`, body: `The counter at ${branch} has started picking order ${ref}${yours}.` }
-    case 'dispatched':
-      return { subject: `Order ${ref} is on its way`, body: `Order ${ref}${yours} has left ${branch}. The delivery note is attached.\n\n${lines}` }
+    case 'dispatched': {
+      const sent = (order.lines ?? []).filter((l) => l.state === 'dispatched').map((l) => `  ${l.quantity} x ${l.sku}  ${l.description}`).join('\n')
+      const invoice = extra.invoiceReference ? ` Invoice ${extra.invoiceReference} is in your documents.` : ''
+      const rest = extra.toFollow ? `\n\n${extra.toFollow} line${extra.toFollow === 1 ? '' : 's'} still to come: the order page shows where each comes from and when.` : ''
+      return { subject: `Order ${ref} is on its way`, body: `Order ${ref}${yours} has left ${branch}. The delivery note is attached.${invoice}\n\n${sent}${rest}` }
+    }
     case 'delivered':
       return { subject: `Order ${ref} delivered`, body: `Order ${ref}${yours} has been delivered. Where a line carries a core deposit, book the old unit back from the order page to have the deposit returned.` }
     case 'cancelled': {
+      const amount = fmt.money(extra.amountMinor ?? order.totalMinor)
       const money = order.paymentMethod === 'card'
-        ? (order.paymentState === 'unpaid' ? 'Nothing was charged.' : `The ${total} you paid is being refunded to your card.`)
-        : `The ${total} has been credited back to your trade account.`
-      return { subject: `Order ${ref} cancelled`, body: `Order ${ref}${yours} has been cancelled${extra.reason ? `: ${extra.reason}` : '.'} ${money}` }
+        ? (order.paymentState === 'unpaid' ? 'Nothing was charged.' : `The ${amount} you paid for it is being refunded to your card.`)
+        : `The ${amount} has been credited back to your trade account.`
+      const what = order.status === 'cancelled' ? `Order ${ref}${yours} has been cancelled` : `The lines of order ${ref}${yours} that had not left have been cancelled`
+      return { subject: `Order ${ref} cancelled`, body: `${what}${extra.reason ? `: ${extra.reason}` : '.'} ${money}` }
     }
     case 'lapsed':
       return { subject: `Checkout for order ${ref} lapsed`, body: `The card checkout for order ${ref}${yours} ran out before it was paid, so the parts went back on the shelf. You can pay again from the order page while stock lasts.` }

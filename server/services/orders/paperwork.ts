@@ -1,7 +1,8 @@
 /**
- * What the invoice and the delivery note share: the order as printed (lines in order, the garage, the
- * distributor, the branch) and the blocks both draw on the one PDF layout (server/services/pdf/document.ts):
- * the distributor's letterhead, who it is for beside the order's facts, and a ruled table.
+ * What the order's paperwork (confirmation, delivery note) and the issued documents (invoices, credit notes)
+ * share: the order as printed (lines in order, the garage, the distributor, the branch) and the blocks all of them
+ * draw on the one PDF layout (server/services/pdf/document.ts): the seller's letterhead, who it is for beside the
+ * facts, and a ruled table.
  */
 import { Branch, Organisation } from '../../models/accounts'
 import { CoreReturn, Order, OrderLine } from '../../models/orders'
@@ -31,35 +32,58 @@ export async function printedOrder(orderId: number): Promise<PrintedOrder> {
   return { order, reference: orderReference(order.id), garage: garage!, distributor, branch: order.branch ?? null, lines, cores: order.coreReturns ?? [] }
 }
 
-/** A new document for the order, its letterhead drawn: the distributor on the left, the title and reference on the right. */
-export function orderDocument(p: PrintedOrder, fonts: PdfFonts, title: string, dated: string): PdfPage {
-  const d = p.distributor
-  const page = newPdf(fonts, { title: `${title} ${p.reference}`, author: d?.name ?? 'Boreline', subject: p.garage.name })
+export interface Letterhead {
+  /** the seller's name and the lines under it (branch, tax number, contact) */
+  seller: string
+  contact: string[]
+  title: string
+  reference: string
+  dated: string
+  /** the PDF's subject (the customer) */
+  subject: string
+}
+
+/** A new document with its letterhead drawn: the seller on the left, the title and reference on the right. */
+export function letterheadPage(fonts: PdfFonts, h: Letterhead): PdfPage {
+  const page = newPdf(fonts, { title: `${h.title} ${h.reference}`, author: h.seller, subject: h.subject })
   const { doc, left, width } = page
   const top = doc.y
-  doc.font('bold').fontSize(16).fillColor(INK).text(d?.name ?? 'Distributor', left, top, { width: 260 })
+  doc.font('bold').fontSize(16).fillColor(INK).text(h.seller, left, top, { width: 260 })
   doc.font('body').fontSize(8.5).fillColor(SOFT)
-  const contact = [
-    p.branch ? `${p.branch.name} branch · ${p.branch.address}` : '',
-    d?.taxNumber ? `VAT no. ${d.taxNumber}` : '',
-    [d?.phone, d?.email].filter(Boolean).join(' · '),
-  ]
-  for (const line of contact) if (line) doc.text(line, left, doc.y, { width: 260 })
+  for (const line of h.contact) if (line) doc.text(line, left, doc.y, { width: 260 })
   const leftBottom = doc.y
-  doc.font('bold').fontSize(14).fillColor(ACCENT).text(title, left + width - 180, top, { width: 180, align: 'right' })
-  doc.font('body').fontSize(9).fillColor(INK).text(p.reference, left + width - 180, doc.y, { width: 180, align: 'right' })
-  if (dated) doc.text(dated, { width: 180, align: 'right' })
+  doc.font('bold').fontSize(14).fillColor(ACCENT).text(h.title, left + width - 180, top, { width: 180, align: 'right' })
+  doc.font('body').fontSize(9).fillColor(INK).text(h.reference, left + width - 180, doc.y, { width: 180, align: 'right' })
+  if (h.dated) doc.text(h.dated, { width: 180, align: 'right' })
   doc.y = Math.max(leftBottom, doc.y, top + 56) + 14
   return page
 }
 
-/** Who the document is for (left) beside the order's facts (right, label and value). */
-export function addressAndFacts(page: PdfPage, heading: string, g: Organisation, facts: [string, string][]): void {
+/** A new document for the order, its letterhead drawn: the distributor on the left, the title and reference on the right. */
+export function orderDocument(p: PrintedOrder, fonts: PdfFonts, title: string, dated: string): PdfPage {
+  const d = p.distributor
+  return letterheadPage(fonts, {
+    seller: d?.name ?? 'Distributor', title, reference: p.reference, dated, subject: p.garage.name,
+    contact: [
+      p.branch ? `${p.branch.name} branch · ${p.branch.address}` : '',
+      d?.taxNumber ? `VAT no. ${d.taxNumber}` : '',
+      [d?.phone, d?.email].filter(Boolean).join(' · '),
+    ],
+  })
+}
+
+/** Who a document is for, as printed. */
+export interface Party { name: string; address: string; taxNumber: string }
+
+export const partyOf = (o: Pick<Organisation, 'name' | 'tradingAddress' | 'taxNumber'>): Party => ({ name: o.name, address: o.tradingAddress ?? '', taxNumber: o.taxNumber ?? '' })
+
+/** Who the document is for (left) beside its facts (right, label and value). */
+export function addressAndFacts(page: PdfPage, heading: string, g: Party, facts: [string, string][]): void {
   const { doc, left, width } = page
   const top = doc.y
   doc.font('bold').fontSize(8).fillColor(SOFT).text(heading.toUpperCase(), left, top, { width: 240 })
   doc.font('bold').fontSize(10.5).fillColor(INK).text(g.name, left, doc.y + 2, { width: 240 })
-  doc.font('body').fontSize(9).text(g.tradingAddress || '', { width: 240 })
+  doc.font('body').fontSize(9).text(g.address || '', { width: 240 })
   if (g.taxNumber) doc.text(`VAT no. ${g.taxNumber}`, { width: 240 })
   const leftBottom = doc.y
   let y = top

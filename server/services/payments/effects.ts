@@ -4,7 +4,8 @@
  */
 import type { Transaction } from 'sequelize'
 import type Stripe from 'stripe'
-import { CoreReturn, Order } from '../../models/orders'
+import { CoreReturn, Order, OrderLine } from '../../models/orders'
+import { PartReturn } from '../../models/counter'
 import { audit } from '../../utils/audit'
 import type { Formats } from '../../../shared/utils/format'
 import { bookOrderCharges, creditCancelledOrder } from '../orders/ledger'
@@ -12,7 +13,7 @@ import { mailOrder } from '../orders/mail'
 import { mayPay } from '../orders/rules'
 import { releaseStock, reserveStock, stockSuffices } from '../orders/stock'
 import type { Effect } from './record-once'
-import { issueOrderRefund, recordCoreRefund, recordOrderRefund } from './refunds'
+import { issueOrderRefund, recordCoreRefund, recordOrderRefund, recordReturnRefund } from './refunds'
 
 const idOf = (v: string | { id: string } | null | undefined): string | null => (v == null ? null : typeof v === 'string' ? v : v.id)
 
@@ -66,8 +67,10 @@ async function paidButCancelled(t: Transaction, order: Order, pi: string | null,
     order.cancelledAt = new Date()
     order.cancelReason = reason
   }
+  order.cancelledMinor = order.totalMinor
   await order.save({ transaction: t })
-  await bookOrderCharges(t, order, pi, fmt, { expectCores: false })
+  await OrderLine.update({ state: 'cancelled' }, { where: { orderId: order.id, state: ['reserved', 'waiting', 'picked'] }, transaction: t })
+  await bookOrderCharges(t, order, pi, fmt)
   await creditCancelledOrder(t, order)
   return {
     outcome: 'paid after cancellation: refunding',
@@ -111,6 +114,12 @@ export async function applyRefund(t: Transaction, refund: Stripe.Refund): Promis
     if (!cr) return { outcome: 'no such core return' }
     await recordCoreRefund(t, cr, refund)
     return { outcome: 'core refund booked' }
+  }
+  if (purpose === 'return') {
+    const r = await PartReturn.findByPk(Number(refund.metadata?.returnId), { transaction: t })
+    if (!r) return { outcome: 'no such return' }
+    await recordReturnRefund(t, r, refund)
+    return { outcome: 'return refund booked' }
   }
   const order = await Order.findByPk(orderIdFrom(refund.metadata) ?? 0, { transaction: t })
   if (!order || purpose !== 'order') return { outcome: 'not ours' }

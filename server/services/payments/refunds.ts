@@ -1,17 +1,18 @@
 /**
- * Money sent back to the card through the payment service: a cancelled card order in full, an accepted core
- * return by its deposit. The call carries an idempotency key from our records and runs after the commit that
+ * Money sent back to the card through the payment service: what was cancelled of a card order (all of it, or the
+ * lines that had not left), an accepted core return by its deposit, an accepted return by its credit note. The call carries an idempotency key from our records and runs after the commit that
  * decided it; what could not be sent stays pending and the sweep sends it later under the same key.
  */
 import type { Transaction } from 'sequelize'
 import type Stripe from 'stripe'
 import { CoreReturn, Order } from '../../models/orders'
+import { PartReturn } from '../../models/counter'
 import { withWrite } from '../../utils/db'
 import { useStripe } from '../../utils/stripe'
 import type { Formats } from '../../../shared/utils/format'
 import { bookRefundOnce } from '../orders/ledger'
 import { mailOrder } from '../orders/mail'
-import { coreReturnKey, orderKey } from './keys'
+import { coreReturnKey, orderKey, returnKey } from './keys'
 
 /** Books an order's refund on the ledger (once) and marks the order refunded. */
 export async function recordOrderRefund(t: Transaction, order: Order, refund: Stripe.Refund): Promise<void> {
@@ -38,7 +39,7 @@ export async function issueOrderRefund(orderId: number, fmt: Formats): Promise<b
   const order = await Order.findByPk(orderId)
   if (!order || order.paymentState !== 'refund_pending' || !order.paymentIntentId) return false
   const refund = await useStripe().refunds.create({
-    payment_intent: order.paymentIntentId, amount: order.totalMinor, reason: 'requested_by_customer',
+    payment_intent: order.paymentIntentId, amount: order.cancelledMinor || order.totalMinor, reason: 'requested_by_customer',
     metadata: { orderId: String(order.id), purpose: 'order' },
   }, { idempotencyKey: `${orderKey(order)}-refund` })
   await withWrite(async (t) => {
@@ -60,6 +61,31 @@ export async function issueCoreRefund(coreReturnId: number): Promise<boolean> {
   await withWrite(async (t) => {
     const row = await CoreReturn.findByPk(coreReturnId, { transaction: t })
     if (row) await recordCoreRefund(t, row, refund)
+  })
+  return true
+}
+
+/** Books a return's refund on the ledger (once) and clears the return's pending flag. */
+export async function recordReturnRefund(t: Transaction, r: PartReturn, refund: Stripe.Refund): Promise<void> {
+  await bookRefundOnce(t, refund, { organisationId: r.organisationId, orderId: r.orderId, description: 'Returned parts refunded to the card' })
+  if (r.refundPending) {
+    r.refundPending = false
+    r.refundId = refund.id
+    await r.save({ transaction: t })
+  }
+}
+
+/** Sends an accepted return's credit back to the card the order was paid with (once: the key is the return's). */
+export async function issueReturnRefund(returnId: number): Promise<boolean> {
+  const r = await PartReturn.findByPk(returnId, { include: [{ model: Order, as: 'order' }] })
+  if (!r || !r.refundPending || !r.order?.paymentIntentId || !r.creditedMinor) return false
+  const refund = await useStripe().refunds.create({
+    payment_intent: r.order.paymentIntentId, amount: r.creditedMinor,
+    metadata: { orderId: String(r.orderId), returnId: String(r.id), purpose: 'return' },
+  }, { idempotencyKey: `${returnKey(r)}-refund` })
+  await withWrite(async (t) => {
+    const row = await PartReturn.findByPk(returnId, { transaction: t })
+    if (row) await recordReturnRefund(t, row, refund)
   })
   return true
 }

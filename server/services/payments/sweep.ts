@@ -1,17 +1,19 @@
 /**
  * The periodic reconciliation of what lost or late webhooks would have told us: unpaid checkouts that completed
  * or expired, card orders that never opened a checkout (their stock goes back after the hold time), and
- * refunds that could not be sent yet. Each pass looks at up to SWEEP_BATCH rows of each kind; the next pass takes
+ * refunds that could not be sent yet (cancelled orders, old units, returned parts: the last two counted together).
+ * Each pass looks at up to SWEEP_BATCH rows of each kind; the next pass takes
  * the rest, so a backlog drains without one pass holding the payment service for long.
  */
 import { Op } from 'sequelize'
 import { CoreReturn, Order } from '../../models/orders'
+import { PartReturn } from '../../models/counter'
 import { stripeProblem, useStripe } from '../../utils/stripe'
 import type { Formats } from '../../../shared/utils/format'
 import { lapseOrder } from './effects'
 import { expireSession, settleSession } from './events'
 import { handleOnce } from './record-once'
-import { issueCoreRefund, issueOrderRefund } from './refunds'
+import { issueCoreRefund, issueOrderRefund, issueReturnRefund } from './refunds'
 
 const SWEEP_BATCH = 200
 
@@ -54,5 +56,7 @@ export async function sweepOrders(fmt: Formats, holdMinutes: number, now = new D
   await each(refunds, (o) => `refund of order ${o.id}`, (o) => issueOrderRefund(o.id, fmt), r, 'refunds')
   const coreRefunds = await CoreReturn.findAll({ where: { refundPending: true }, limit: SWEEP_BATCH })
   await each(coreRefunds, (cr) => `core refund ${cr.id}`, (cr) => issueCoreRefund(cr.id), r, 'coreRefunds')
+  const returnRefunds = await PartReturn.findAll({ where: { refundPending: true }, limit: SWEEP_BATCH })
+  await each(returnRefunds, (x) => `return refund ${x.id}`, (x) => issueReturnRefund(x.id), r, 'coreRefunds')
   return r
 }

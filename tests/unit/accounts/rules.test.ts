@@ -37,14 +37,17 @@ describe('trade-account inputs', () => {
   })
 
   it('keeps decisions consistent: account terms need a limit and days; card terms have neither', () => {
-    expect(DecisionSchema.safeParse({ decision: 'approve', tierId: 1, terms: 'account', creditLimitMinor: 100_000, paymentDays: 30 }).success).toBe(true)
-    expect(DecisionSchema.safeParse({ decision: 'approve', tierId: 1, terms: 'card' }).success).toBe(true)
-    const noLimit = DecisionSchema.safeParse({ decision: 'approve', tierId: 1, terms: 'account' })
+    expect(DecisionSchema.safeParse({ decision: 'approve', tierId: 1, homeBranchId: 1, terms: 'account', creditLimitMinor: 100_000, paymentDays: 30 }).success).toBe(true)
+    expect(DecisionSchema.safeParse({ decision: 'approve', tierId: 1, homeBranchId: 1, terms: 'card' }).success).toBe(true)
+    // the home branch that supplies the garage is part of the decision
+    const noBranch = DecisionSchema.safeParse({ decision: 'approve', tierId: 1, terms: 'card' })
+    expect(Object.keys(fieldMessages(noBranch.error!.issues))).toEqual(['homeBranchId'])
+    const noLimit = DecisionSchema.safeParse({ decision: 'approve', tierId: 1, homeBranchId: 1, terms: 'account' })
     expect(Object.keys(fieldMessages(noLimit.error!.issues)).sort()).toEqual(['creditLimitMinor', 'paymentDays'])
-    expect(DecisionSchema.safeParse({ decision: 'approve', tierId: 1, terms: 'card', paymentDays: 30 }).success).toBe(false)
+    expect(DecisionSchema.safeParse({ decision: 'approve', tierId: 1, homeBranchId: 1, terms: 'card', paymentDays: 30 }).success).toBe(false)
     expect(DecisionSchema.safeParse({ decision: 'reject', reason: 'no' }).success).toBe(false)
     expect(DecisionSchema.safeParse({ decision: 'reject', reason: 'Tax number not valid.' }).success).toBe(true)
-    expect(DecisionSchema.safeParse({ decision: 'approve', tierId: 1, terms: 'card', creditLimitMinor: 1.5 }).success).toBe(false)
+    expect(DecisionSchema.safeParse({ decision: 'approve', tierId: 1, homeBranchId: 1, terms: 'card', creditLimitMinor: 1.5 }).success).toBe(false)
     expect(TradeTermsSchema.safeParse({}).success).toBe(false)
   })
 

@@ -32,9 +32,12 @@ describe('order totals', () => {
     expect(t.lines.map((l) => l.lineTaxMinor)).toEqual(expected)
     expect(expected).toEqual([740, 1600, 400])
     expect(t.subtotalMinor).toBe(3_702 + 8_002 + 1_998)
-    expect(t.taxMinor).toBe(2_740)
+    // the deposits carry tax at the part's rate too (the core deposit rule): 4000 -> 800, 500 -> 100
+    expect(t.lines.map((l) => l.coreDepositTaxMinor)).toEqual([0, refTax(4_000, 2000), refTax(500, 2000)])
+    expect(t.coreDepositTaxMinor).toBe(900)
+    expect(t.taxMinor).toBe(2_740 + 900)
     expect(t.coreDepositMinor).toBe(4_000 + 500)
-    expect(t.totalMinor).toBe(13_702 + 2_740 + 4_500)
+    expect(t.totalMinor).toBe(13_702 + 3_640 + 4_500)
   })
 
   it('rounds an exact half penny up, as the reference does', () => {

@@ -11,5 +11,5 @@ export default defineEventHandler(async (event) => {
   const { user, org } = requireAbility(event, 'orders.place')
   const { id } = paramsWith(event, OrderParamsSchema)
   const { reason } = await bodyWith(event, OrderCancelSchema)
-  return cancelGarageOrder(org.id, id, user, reason, serverFormats())
+  return cancelGarageOrder(org.id, id, user, reason, serverFormats(), requestClock(event))
 })

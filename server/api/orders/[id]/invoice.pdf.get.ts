@@ -1,5 +1,6 @@
 /**
- * GET /api/orders/:id/invoice.pdf -> the order's invoice (application/pdf, as an attachment).
+ * GET /api/orders/:id/invoice.pdf -> the order confirmation (application/pdf, as an attachment): what was paid or
+ * put on account, line by line. The numbered VAT invoices come with each dispatch (GET /api/documents).
  * Garage managers for their own orders; distributor staff (`orders.work`) for any. 401; 403; 404 (not theirs);
  * 409 while the order is not yet paid or on account.
  */
@@ -16,5 +17,5 @@ export default defineEventHandler(async (event) => {
   const { id } = paramsWith(event, OrderParamsSchema)
   const order = await findVisibleOrder(id, staff ? null : auth.org.id)
   const pdf = await invoiceOf(order, serverFormats(), await pdfFonts())
-  return sendDownload(event, pdf, { name: `invoice-${orderReference(order.id)}.pdf`, type: 'application/pdf' })
+  return sendDownload(event, pdf, { name: `order-${orderReference(order.id)}.pdf`, type: 'application/pdf' })
 })

@@ -1,9 +1,10 @@
 /**
  * POST /api/admin/trade-applications/:id/decision
- *   { decision: "approve", tierId, terms: "card" | "account", creditLimitMinor?, paymentDays?, reason? }
+ *   { decision: "approve", tierId, homeBranchId, terms: "card" | "account", creditLimitMinor?, paymentDays?, reason? }
  *   { decision: "reject", reason }
  * -> the updated TradeAccountDetail. Distributor admin only. 404 unknown garage; 409 when the application is no
- * longer pending (decided already, twice at once, or suspended); 422 for bad terms or an unknown tier.
+ * longer pending (decided already, twice at once, or suspended); 422 for bad terms, an unknown tier or a missing or
+ * unknown home branch (the branch that supplies the garage's orders).
  * The decision is audited; the garage is e-mailed after the commit either way.
  */
 import { DecisionSchema, IdParamSchema } from '#shared/schemas/accounts'
