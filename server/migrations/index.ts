@@ -15,6 +15,7 @@ import * as m0009 from './0009-current-prices'
 import * as m0010 from './0010-one-vocabulary'
 import * as m0013 from './0013-garage-vehicles'
 import * as m0014 from './0014-owner-money'
+import * as m0016 from './0016-jobs'
 
 export interface Migration { name: string; up: (qi: QueryInterface) => Promise<void>; down: (qi: QueryInterface) => Promise<void> }
 
@@ -31,4 +32,5 @@ export const migrations: Migration[] = [
   { name: '0010-one-vocabulary', ...m0010 },
   { name: '0013-garage-vehicles', ...m0013 },
   { name: '0014-owner-money', ...m0014 },
+  { name: '0016-jobs', ...m0016 },
 ]

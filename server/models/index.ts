@@ -13,6 +13,7 @@ import { initQuoteModels } from './quotes'
 import { initPriceFileModels } from './price-files'
 import { initOrderModels } from './orders'
 import { initGarageVehicleModels } from './garage-vehicles'
+import { initJobModels } from './jobs'
 
 export * from './accounts'
 export * from './accounts-extra'
@@ -22,6 +23,7 @@ export * from './quotes'
 export * from './price-files'
 export * from './orders'
 export * from './garage-vehicles'
+export * from './jobs'
 
 let initialised: Sequelize | undefined
 
@@ -35,6 +37,7 @@ export function initModels(sequelize: Sequelize = getDb()): Sequelize {
   initPriceFileModels(sequelize)
   initOrderModels(sequelize)
   initGarageVehicleModels(sequelize)
+  initJobModels(sequelize)
   initialised = sequelize
   return sequelize
 }

@@ -15,6 +15,7 @@ import { divRoundHalfUp } from '../../../shared/utils/money'
 import type { Recommendation } from '../../../shared/types/quotes'
 import { refusedInput, repriceLine, resolvePart } from './line-pricing'
 import { settingsOf, type EffectiveSettings } from './settings'
+import { guardFit } from '../jobs/fitment-guard'
 
 export interface NewLine {
   kind: 'part' | 'labour' | 'sundry' | 'discount'
@@ -30,6 +31,13 @@ export interface NewLine {
   taxBp?: number
   /** the amounts given and worked out include tax; default: the garage's setting */
   taxIncluded?: boolean
+  /** answers to the vehicle's option questions, for the fitment guard */
+  answers?: Record<string, string>
+  /** a manager puts on a part that does not fit (or whose fit is not known), with the reason */
+  override?: { reason: string } | null
+  /** a labour line's operation in the labour guide, and the guide's hours for this job (hundredths) */
+  operation?: string | null
+  guideHundredths?: number | null
 }
 
 /** An amount stated one way, stated the way a line wants it (the price stays the same to the minor unit). */
@@ -63,11 +71,14 @@ export async function addLine(t: Transaction, q: Quote, org: Organisation, input
   switch (input.kind) {
     case 'part': {
       const r = await resolvePart(t, org, input.sku!)
+      const fitment = await guardFit(t, q, r.part, input)
       const markupBp = input.markupBp ?? markupBpFor(settings.markupRules, { type: r.part.type, unitNetMinor: r.unitNetMinor })
-      const quantity = input.quantity ?? 1
+      // a part fitted as a pair (discs) goes on in the fitted quantity
+      const quantity = input.quantity ?? fitment?.quantity ?? 1
       const part = { partId: r.part.id, sku: r.part.sku, partType: r.part.type }
       const line = await saveLine(t, {
         ...base, ...part, kind: 'part', description: input.description || r.part.description, quantity,
+        fitOverrideReason: fitment ? null : (input.override?.reason ?? null),
         unitNetMinor: r.unitNetMinor, markupBp, unitPriceMinor: partUnitMinor(r.unitNetMinor, markupBp, base, settings.partPriceEndingMinor),
       })
       if (r.coreDepositMinor <= 0) return [line]
@@ -83,7 +94,7 @@ export async function addLine(t: Transaction, q: Quote, org: Organisation, input
     case 'labour':
       return [await saveLine(t, {
         ...base, kind: 'labour', description: input.description || 'Labour',
-        hoursHundredths: hoursToHundredths(input.hours!)!,
+        hoursHundredths: hoursToHundredths(input.hours!)!, labourOperation: input.operation ?? null, guideHundredths: input.guideHundredths ?? null,
         rateMinor: input.rateMinor ?? statedAs(settings.labourRateMinor, settings.pricesIncludeTax, taxIncluded, settings.taxRateBp),
       })]
     case 'sundry':

@@ -53,6 +53,7 @@ export async function reviseQuote(t: Transaction, old: Quote, actorUserId: numbe
       reason: l.reason, coreCharge: l.coreCharge, ownerDecision: null,
       toldOwnerDeclinedRequired: l.toldOwnerDeclinedRequired, toldOwnerRecordedByUserId: l.toldOwnerRecordedByUserId,
       toldOwnerRecordedAt: l.toldOwnerRecordedAt,
+      fitOverrideReason: l.fitOverrideReason, labourOperation: l.labourOperation, guideHundredths: l.guideHundredths,
     }, { transaction: t })
     lineIds.set(l.id, copy.id)
   }
