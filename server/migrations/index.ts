@@ -18,6 +18,7 @@ import * as m0012 from './0012-wheel-inspection'
 import * as m0013 from './0013-garage-vehicles'
 import * as m0014 from './0014-owner-money'
 import * as m0015 from './0015-counter-day'
+import * as m0016 from './0016-jobs'
 
 export interface Migration { name: string; up: (qi: QueryInterface) => Promise<void>; down: (qi: QueryInterface) => Promise<void> }
 
@@ -37,4 +38,5 @@ export const migrations: Migration[] = [
   { name: '0013-garage-vehicles', ...m0013 },
   { name: '0014-owner-money', ...m0014 },
   { name: '0015-counter-day', ...m0015 },
+  { name: '0016-jobs', ...m0016 },
 ]

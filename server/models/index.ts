@@ -15,6 +15,7 @@ import { initOrderModels } from './orders'
 import { initGarageVehicleModels } from './garage-vehicles'
 import { initSecondFactorModels } from './second-factor'
 import { initCounterModels } from './counter'
+import { initJobModels } from './jobs'
 
 export * from './accounts'
 export * from './accounts-extra'
@@ -26,6 +27,7 @@ export * from './orders'
 export * from './garage-vehicles'
 export * from './second-factor'
 export * from './counter'
+export * from './jobs'
 
 let initialised: Sequelize | undefined
 
@@ -41,6 +43,7 @@ export function initModels(sequelize: Sequelize = getDb()): Sequelize {
   initGarageVehicleModels(sequelize)
   initSecondFactorModels(sequelize)
   initCounterModels(sequelize)
+  initJobModels(sequelize)
   initialised = sequelize
   return sequelize
 }

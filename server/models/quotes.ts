@@ -98,6 +98,10 @@ export class QuoteLine extends Model<InferAttributes<QuoteLine>, InferCreationAt
   declare declineUserAgent: CreationOptional<string | null>
   declare coreRefundMinor: CreationOptional<number>
   declare coreRefundRecordedAt: CreationOptional<Date | null>
+  /** a manager's reason for putting on a part the catalogue does not fit to the vehicle (never shown to the owner) */
+  declare fitOverrideReason: CreationOptional<string | null>
+  declare labourOperation: CreationOptional<string | null>
+  declare guideHundredths: CreationOptional<number | null>
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
 }
@@ -127,7 +131,8 @@ export function initQuoteModels(sequelize: Sequelize): void {
     recommendation: STRING, reason: TEXT, coreCharge: STRING, ownerDecision: STRING,
     toldOwnerDeclinedRequired: d(BOOLEAN, false), toldOwnerRecordedByUserId: INTEGER, toldOwnerRecordedAt: DATE,
     taxIncluded: d(BOOLEAN, false), declineStatement: TEXT, declineSignedName: STRING, declineSignedAt: DATE, declineAddress: STRING,
-    declineUserAgent: STRING, coreRefundMinor: d(INTEGER, 0), coreRefundRecordedAt: DATE, ...stamps,
+    declineUserAgent: STRING, coreRefundMinor: d(INTEGER, 0), coreRefundRecordedAt: DATE,
+    fitOverrideReason: STRING, labourOperation: STRING, guideHundredths: INTEGER, ...stamps,
   }, { sequelize, tableName: 'quote_lines' })
 
   GarageSettings.belongsTo(Organisation, { as: 'organisation', foreignKey: 'organisationId' })

@@ -10,12 +10,14 @@ import { seedProofDocuments } from './proof-documents'
 import { seedOrders } from './orders'
 import { seedGarageVehicles } from './garage-vehicles'
 import { seedBranches } from './branches'
+import { seedJobs } from './jobs'
 
 export async function runSeed(log: (s: string) => void = console.log): Promise<void> {
   await withWrite(async (t) => {
     await seedAccounts(t, log)
     await seedCatalogue(t, log)
     await seedBranches(t, log)
+    await seedJobs(t, log)
     await seedQuotes(t, log)
     await seedProofDocuments(t, log)
     await seedOrders(t, log)

@@ -7,7 +7,7 @@
  */
 import type { Transaction } from 'sequelize'
 import { Organisation, User } from '../models/accounts'
-import { Fitment, Vehicle } from '../models/catalogue'
+import { Fitment, Part, Vehicle } from '../models/catalogue'
 import { GarageSettings, Quote, QuoteLine } from '../models/quotes'
 import { addLine, changeLine, isDecidable, linesOf, newQuoteToken, reviseQuote, type NewLine } from '../services/quotes'
 import { vehicleLabel } from '../services/inspections'
@@ -167,7 +167,10 @@ export async function seedQuotes(t: Transaction, log: (s: string) => void): Prom
     const decisions = new Map<number, 'approved' | 'declined'>()
     for (const l of d.lines) {
       const { told, decision, ...line } = l
-      const created = await addLine(t, q, org, { ...line, sku: line.sku ? await skuFor(t, vehicle.id, line.sku) : undefined })
+      const sku = line.sku ? await skuFor(t, vehicle.id, line.sku) : undefined
+      // the demo car is the one the part was picked for: its fitment's option answers are the car's
+      const fit = sku ? await Fitment.findOne({ where: { vehicleId: vehicle.id }, include: [{ model: Part, as: 'part', where: { sku }, attributes: [] }], transaction: t }) : null
+      const created = await addLine(t, q, org, { ...line, sku, quantity: line.quantity ?? 1, answers: fit?.qualifiers ?? {} })
       if (told) await changeLine(t, created[0]!, { toldOwnerDeclinedRequired: true }, manager.id)
       if (decision) decisions.set(created[0]!.id, decision)
     }

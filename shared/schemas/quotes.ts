@@ -92,6 +92,10 @@ export const QuoteLineCreateSchema = z.strictObject({
   taxBp: bp('Tax rate').optional(),
   /** the prices given (amountMinor, rateMinor) and worked out include tax; default: the garage's setting */
   taxIncluded: yesNo.optional(),
+  /** answers to the vehicle's option questions that decide whether the part fits */
+  answers: z.record(z.string().max(60), text(60, 'Answer')).optional(),
+  /** managers: put on a part the catalogue does not fit to the vehicle, saying why (shown to the garage, never the owner) */
+  override: z.strictObject({ reason: text(300, 'Reason').min(3, 'Say why the part goes on although it does not fit.') }, { error: 'Say why the part goes on although it does not fit.' }).optional(),
 }).superRefine((v, ctx) => {
   const need = (field: string, message: string) => ctx.addIssue({ code: 'custom', path: [field], message })
   if (v.kind === 'part' && !v.sku) need('sku', 'Choose a part (SKU).')
@@ -104,6 +108,7 @@ export const QuoteLineCreateSchema = z.strictObject({
   if (v.kind !== 'part' && v.sku) need('sku', 'Only part lines have a SKU.')
   if (v.kind !== 'labour' && v.hours !== undefined) need('hours', 'Only labour lines have hours.')
   if (v.kind === 'part' && v.amountMinor !== undefined) need('amountMinor', 'A part\'s price comes from the prices in use and the markup.')
+  if (v.kind !== 'part' && v.override) need('override', 'Only a part line can override the fitment check.')
 })
 export type QuoteLineCreateInput = z.input<typeof QuoteLineCreateSchema>
 

@@ -56,6 +56,8 @@ export type HistoryEntry =
   }
   | { kind: 'order'; id: number; at: string; title: string; status: OrderStatus; totalMinor: number }
   | { kind: 'odometer'; id: number; at: string; title: string; reading: number; unit: 'mi' | 'km'; source: string }
+  /** the garage's invoice to the owner for a quote's work */
+  | { kind: 'invoice'; id: number; at: string; title: string; quoteId: number; grossMinor: number }
 
 export interface VinAnswer {
   vin: string

@@ -18,6 +18,11 @@ export interface StockNote {
 
 export interface QuoteLineView {
   id: number
+  /** the garage's reason for a part the catalogue does not fit to the vehicle (the garage's eyes only) */
+  fitOverride?: string | null
+  /** a labour line from the labour guide: its operation and the guide's hours for this job */
+  labourOperation?: string | null
+  guideHours?: number | null
   position: number
   kind: QuoteLineKind
   partId: number | null

@@ -28,6 +28,12 @@ export const ABILITIES = {
   'garage.staff': ['garage_manager'],
   /** the garage's register of customers and vehicles, and registration look-ups */
   'vehicles.use': ['garage_manager', 'garage_technician'],
+  /** the job card of an approved quote: read it, tick the checks, sign off */
+  'jobs.work': ['garage_manager', 'garage_technician'],
+  /** the garage's own invoice to the vehicle owner, and payments taken at the desk */
+  'jobs.invoice': ['garage_manager'],
+  /** a garage's own hours for a labour operation (over the guide's) */
+  'labour.ownHours': ['garage_manager'],
   /** follow-ups of declined work: what is due, the weeks, and consent */
   'followUps.manage': ['garage_manager'],
   // the distributor's work
@@ -36,6 +42,8 @@ export const ABILITIES = {
   /** receive returned parts and decide them (accept all, part or none) */
   'returns.decide': ['distributor_admin', 'counter_staff'],
   'priceFiles.manage': ['distributor_admin', 'counter_staff'],
+  /** the labour guide's hours per vehicle and operation */
+  'labour.guide': ['distributor_admin', 'counter_staff'],
   /** read the garages' trade accounts and their proof documents (counter staff check terms when working orders) */
   'tradeAccounts.view': ['distributor_admin', 'counter_staff'],
   'tradeAccounts.decide': ['distributor_admin'],

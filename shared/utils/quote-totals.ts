@@ -18,8 +18,9 @@
  *     sundries: never core deposits) in proportion to their amounts in the discount's own terms (before tax, or
  *     with tax), by largest remainder so the shares add up to the discount exactly; each share is taxed by rule
  *     2 at its rate. A share that takes the whole of its rate's lines takes exactly their net and tax.
- *  4. A core deposit is a refundable deposit: it carries no tax (the same rule as the counter's invoices and
- *     credit notes), so its rate is 0 and it is never discounted.
+ *  4. A core deposit is part of the price of the exchange part it comes with: it is taxed at its part's rate,
+ *     stated before tax, and never discounted; the refund when the old unit is accepted returns the deposit
+ *     with that tax. The same rule as the counter's invoices and credit notes (shared/utils/order-totals.ts).
  *  5. The quote's tax is the sum of its line and share taxes (never re-rounded); gross = net + tax. The tax per
  *     rate sums the same figures.
  * Discounts count when anything they discount is taken, and never take the quote below zero: a discount larger
@@ -31,9 +32,6 @@ import { divRoundHalfUp, mulDivRoundHalfUp } from './money'
 const BP = 10_000
 
 export type QuoteLineKind = 'part' | 'labour' | 'core_deposit' | 'sundry' | 'discount'
-
-/** Core deposits carry no tax on quotes, invoices and credit notes alike (rule 4). */
-export const CORE_DEPOSIT_TAX_BP = 0
 
 /**
  * A part's selling price per unit: the garage's net price plus its markup, rounded once (rule 1); with

@@ -52,10 +52,10 @@ describe('pricing the lines', () => {
     expect(net).toBe(8_759)
     // its markup for calipers is 25 %: 87.59 x 1.25 = 109.4875 -> 109.49
     expect(part).toMatchObject({ sku: reman.sku, quantity: 2, unitNetMinor: net, markupBp: 2_500, unitPriceMinor: refRound(net, '1.25'), amountMinor: 2 * refRound(net, '1.25'), recommendation: 'required' })
-    // the garage pays the distributor the deposit and gets it back with the old unit: it absorbs it by default,
-    // with no tax (one rule for deposits, as on the counter's invoices)
+    // the garage pays the distributor the deposit and gets it back with the old unit: it absorbs it by default;
+    // the deposit is taxed at its part's rate (one rule for deposits, as on the counter's invoices)
     const core = lines.find((l) => l.kind === 'core_deposit')!
-    expect(core).toMatchObject({ parentLineId: part.id, quantity: 2, unitPriceMinor: 4_000, amountMinor: 0, taxBp: 0, taxMinor: 0, coreCharge: 'absorbed' })
+    expect(core).toMatchObject({ parentLineId: part.id, quantity: 2, unitPriceMinor: 4_000, amountMinor: 0, taxBp: part.taxBp, taxMinor: 0, coreCharge: 'absorbed' })
   })
 
   it('shows stock and branch, with a warning when the home branch is short', async () => {
@@ -103,11 +103,12 @@ describe('pricing the lines', () => {
     expect((await manager.del(`/api/quotes/${quoteId}/lines/${core.id}`)).status).toBe(409)
   })
 
-  it('lets the manager pass a core deposit on (no tax on it), and moves it with its part\'s quantity', async () => {
+  it('lets the manager pass a core deposit on (taxed at its part\'s rate), and moves it with its part\'s quantity', async () => {
     const core = lines.find((l) => l.kind === 'core_deposit')!
     const part = lines.find((l) => l.kind === 'part')!
     const passed = await manager.patch(`/api/quotes/${quoteId}/lines/${core.id}`, { coreCharge: 'charged' })
-    expect(passed.body.lines.find((l: Line) => l.id === core.id)).toMatchObject({ amountMinor: 8_000, taxMinor: 0, coreCharge: 'charged' })
+    // 2 x £40.00 = £80.00, tax at the part's 20 %: £16.00
+    expect(passed.body.lines.find((l: Line) => l.id === core.id)).toMatchObject({ amountMinor: 8_000, taxBp: 2_000, taxMinor: 1_600, coreCharge: 'charged' })
     const absorbed = await manager.patch(`/api/quotes/${quoteId}/lines/${core.id}`, { coreCharge: 'absorbed' })
     expect(absorbed.body.lines.find((l: Line) => l.id === core.id)).toMatchObject({ amountMinor: 0, coreCharge: 'absorbed' })
     // its tax rate is not the garage's to set

@@ -173,14 +173,15 @@ describe('the core deposit', () => {
     ;[m, counter] = await Promise.all([as(garage.email), as(people.counter)])
   })
 
-  it('is absorbed by the garage by default, with no tax; a garage may pass deposits on by default', async () => {
+  it('is absorbed by the garage by default, taxed at its part\'s rate; a garage may pass deposits on by default', async () => {
     const part = await makePart({ listPriceMinor: 10_000, coreDepositMinor: 3_000, stock: { NGT: 5 }, prefix: 'QC' })
     const { quote } = await startQuote(m)
     const r = await m.post(`/api/quotes/${quote.id}/lines`, { kind: 'part', sku: part.sku, quantity: 2 })
-    expect(r.body.lines[1]).toMatchObject({ kind: 'core_deposit', coreCharge: 'absorbed', unitPriceMinor: 3_000, amountMinor: 0, taxBp: 0, taxMinor: 0 })
+    expect(r.body.lines[1]).toMatchObject({ kind: 'core_deposit', coreCharge: 'absorbed', unitPriceMinor: 3_000, amountMinor: 0, taxBp: 2_000, taxMinor: 0 })
     expect((await m.patch('/api/garage/settings', { coreDepositsPassedOn: true })).status).toBe(200)
     const passed = await m.post(`/api/quotes/${quote.id}/lines`, { kind: 'part', sku: part.sku })
-    expect(passed.body.lines[3]).toMatchObject({ kind: 'core_deposit', coreCharge: 'charged', amountMinor: 3_000, taxMinor: 0, grossMinor: 3_000 })
+    // £30.00 + 20 % = £36.00
+    expect(passed.body.lines[3]).toMatchObject({ kind: 'core_deposit', coreCharge: 'charged', amountMinor: 3_000, taxMinor: 600, grossMinor: 3_600 })
     expect((await m.patch('/api/garage/settings', { coreDepositsPassedOn: false })).status).toBe(200)
   })
 
@@ -192,7 +193,8 @@ describe('the core deposit', () => {
     expect((await m.patch(`/api/quotes/${s.quote.id}/lines/${core.id}`, { coreCharge: 'charged' })).status).toBe(200)
     const { token } = await sendAndReadLink(m, s.quote.id, s.ownerEmail)
     const view = (await anon.get(`/api/quote-links/${token}`)).body as OwnerQuoteView
-    expect(view.lines[1]).toMatchObject({ coreCharge: 'charged', grossMinor: 6_000, coreRefund: null })
+    // 2 x £30.00 = £60.00 + 20 % £12.00 = £72.00
+    expect(view.lines[1]).toMatchObject({ coreCharge: 'charged', grossMinor: 7_200, coreRefund: null })
     const decided = await anon.post(`/api/quote-links/${token}/decision`, { lines: [{ id: view.lines[0]!.id, approved: true }], signedName: 'Kit Owner' })
     expect(decided.status, decided.text).toBe(200)
     const order = await m.post('/api/orders', { quoteId: s.quote.id, payment: 'account' })
@@ -205,9 +207,9 @@ describe('the core deposit', () => {
     const accepted = await counter.patch(`/api/counter/core-returns/${cr.id}`, { status: 'accepted' })
     expect(accepted.status, accepted.text).toBe(200)
     const after = (await m.get(`/api/quotes/${s.quote.id}`)).body as QuoteDetail
-    // 2 old units x 30.00 charged on the quote
-    expect(after.lines[1]!.coreRefund).toMatchObject({ amountMinor: 6_000 })
-    expect((await anon.get(`/api/quote-links/${token}`)).body.lines[1].coreRefund).toMatchObject({ amountMinor: 6_000 })
+    // 2 old units x £30.00 charged on the quote, with its 20 % tax: £72.00 back to the owner
+    expect(after.lines[1]!.coreRefund).toMatchObject({ amountMinor: 7_200 })
+    expect((await anon.get(`/api/quote-links/${token}`)).body.lines[1].coreRefund).toMatchObject({ amountMinor: 7_200 })
   })
 })
 

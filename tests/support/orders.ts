@@ -10,7 +10,7 @@ import { QueryTypes } from 'sequelize'
 import { getDb, withWrite } from '../../server/utils/db'
 import { initModels } from '../../server/models/index'
 import { Branch, DiscountTier, Organisation, User } from '../../server/models/accounts'
-import { PartPrice, Part, PriceVersion, StockLevel } from '../../server/models/catalogue'
+import { Fitment, PartPrice, Part, PriceVersion, StockLevel } from '../../server/models/catalogue'
 import { CoreReturn, LedgerEntry, Order, OrderLine } from '../../server/models/orders'
 import { Quote, QuoteLine } from '../../server/models/quotes'
 import { hashPasswordOutsideNitro } from '../../server/services/password'
@@ -63,6 +63,8 @@ export async function makePart(o: { listPriceMinor: number; coreDepositMinor?: n
     if (!list) list = await PriceVersion.create({ version: 9000, label: 'e2e list', status: 'active', activatedAt: new Date() }, { transaction: t })
     const part = await Part.create({ sku, type: 'caliper', description: `Test caliper ${sku}, remanufactured (exchange)`, specs: {}, status: 'active' }, { transaction: t })
     await PartPrice.create({ partId: part.id, listPriceMinor: o.listPriceMinor, coreDepositMinor: o.coreDepositMinor ?? 0, packQuantity: 1, priceVersionId: list.id }, { transaction: t })
+    // listed for the quote tests' demo vehicle (id 1), so the fitment guard lets it onto their quotes
+    await Fitment.create({ vehicleId: 1, partId: part.id, axle: 'front', side: 'left', quantity: 1, qualifiers: {}, note: 'test part' }, { transaction: t })
     for (const [code, quantity] of Object.entries(o.stock)) {
       const b = await Branch.findOne({ where: { code }, transaction: t })
       await StockLevel.create({ partId: part.id, branchId: b!.id, quantity, updatedAt: new Date() }, { transaction: t })

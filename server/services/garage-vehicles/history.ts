@@ -10,6 +10,8 @@ import { Inspection } from '../../models/inspections'
 import { Order } from '../../models/orders'
 import { Quote, QuoteLine } from '../../models/quotes'
 import { OdometerReading } from '../../models/garage-vehicles'
+import { OwnerInvoice } from '../../models/jobs'
+import { ownerInvoiceReference } from '../owner-invoices/numbering'
 import { pageOfList } from '../../utils/page'
 import { quoteTotals } from '../../../shared/utils/quote-totals'
 import type { PageQuery } from '../../../shared/schemas/page'
@@ -43,13 +45,18 @@ export async function vehicleHistory(organisationId: number, garageVehicleId: nu
     quoteEntries(organisationId, garageVehicleId),
     OdometerReading.findAll({ where: { garageVehicleId } }),
   ])
-  const orders = quotes.ids.length ? await Order.findAll({ where: { organisationId, quoteId: quotes.ids } }) : []
+  const [orders, invoices] = quotes.ids.length
+    ? await Promise.all([Order.findAll({ where: { organisationId, quoteId: quotes.ids } }), OwnerInvoice.findAll({ where: { organisationId, quoteId: quotes.ids } })])
+    : [[], []]
   const all: HistoryEntry[] = [
     ...inspections.map((i): HistoryEntry => ({
       kind: 'inspection', id: i.id, at: iso(i.createdAt), title: `Inspection ${i.id}`, overall: i.overall, odometer: i.odometer ?? '', author: i.author?.name ?? '',
     })),
     ...quotes.entries,
     ...orders.map((o): HistoryEntry => ({ kind: 'order', id: o.id, at: iso(o.createdAt), title: `Order ${orderReference(o.id)}`, status: o.status, totalMinor: o.totalMinor })),
+    ...invoices.map((i): HistoryEntry => ({
+      kind: 'invoice', id: i.id, at: iso(i.issuedAt), title: `Invoice ${ownerInvoiceReference(i.number)}`, quoteId: i.quoteId, grossMinor: i.grossMinor,
+    })),
     ...readings.map((r): HistoryEntry => ({
       kind: 'odometer', id: r.id, at: `${r.readOn}T12:00:00.000Z`, title: 'Odometer reading', reading: r.reading, unit: r.unit, source: r.source,
     })),

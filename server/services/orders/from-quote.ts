@@ -7,6 +7,7 @@ import { Quote, QuoteLine } from '../../models/quotes'
 import { Order } from '../../models/orders'
 import { orderReference } from '../../../shared/types/orders'
 import { DomainError, notFound, conflict } from '../errors'
+import { checkFit } from '../jobs/fitment-guard'
 
 export interface QuoteOrderLine { sku: string; quantity: number; quoteLineId: number; quotedUnitNetMinor: number | null }
 
@@ -33,6 +34,11 @@ export async function linesFromQuote(organisationId: number, quoteId: number, t?
     if (!approved) continue
     if (!l.sku) {
       skipped.push({ sku: l.description, reason: 'not a catalogue part (order it separately)' })
+      continue
+    }
+    // the fitment guard again: the catalogue may have changed since the quote; a manager's override stands
+    if (quote.vehicleId && l.partId && !l.fitOverrideReason && (await checkFit(quote.vehicleId, l.partId, {}, t)).status === 'none') {
+      skipped.push({ sku: l.sku, reason: `does not fit ${quote.vehicleLabel || 'the vehicle'} by the catalogue now` })
       continue
     }
     const key = l.sku.toUpperCase()

@@ -2,13 +2,22 @@
  * A core deposit the garage passed on to the vehicle owner is the owner's to get back only when the garage
  * gets it back: when the distributor accepts the old unit. This records the refund due to the owner on the
  * quote's deposit line, in the counter's transaction that accepts the core (never earlier), for the approved
- * part lines of the quote the order was placed from. Deposits the garage absorbed owe the owner nothing.
+ * part lines of the quote the order was placed from. Deposits the garage absorbed owe the owner nothing. The
+ * refund is the deposit with its tax, as charged (rule 4 of shared/utils/quote-totals.ts): for n units,
+ * n x unit + (n x unit x rate, rounded half away from zero once), so refunding every unit returns the line's gross.
  */
 import type { Transaction } from 'sequelize'
 import type { Order } from '../../models/orders'
 import { Quote } from '../../models/quotes'
 import { audit } from '../../utils/audit'
+import { divRoundHalfUp } from '../../../shared/utils/money'
 import { linesOf } from './rows'
+
+/** What `units` old units bring back to the owner: the deposit and its tax. */
+function refundFor(units: number, unitMinor: number, taxBp: number): number {
+  const net = units * unitMinor
+  return net + divRoundHalfUp(net * taxBp, 10_000)
+}
 
 export interface AcceptedCore {
   order: Pick<Order, 'organisationId' | 'quoteId'>
@@ -30,14 +39,16 @@ export async function recordOwnerCoreRefunds(t: Transaction, accepted: AcceptedC
   let left = accepted.quantity
   let recorded = 0
   for (const core of lines.filter((c) => c.kind === 'core_deposit' && c.coreCharge === 'charged' && parts.some((p) => p.id === c.parentLineId))) {
-    const refundedUnits = core.unitPriceMinor > 0 ? Math.round(core.coreRefundMinor / core.unitPriceMinor) : core.quantity
+    let refundedUnits = 0
+    while (refundedUnits < core.quantity && refundFor(refundedUnits + 1, core.unitPriceMinor, core.taxBp) <= core.coreRefundMinor) refundedUnits++
     const units = Math.min(left, core.quantity - refundedUnits)
     if (units <= 0) continue
-    core.coreRefundMinor += units * core.unitPriceMinor
+    const before = core.coreRefundMinor
+    core.coreRefundMinor = refundFor(refundedUnits + units, core.unitPriceMinor, core.taxBp)
     core.coreRefundRecordedAt = at
     await core.save({ transaction: t })
     left -= units
-    recorded += units * core.unitPriceMinor
+    recorded += core.coreRefundMinor - before
   }
   if (recorded > 0) {
     await audit(t, {

@@ -10,7 +10,7 @@ import type { OutgoingMail } from '../../utils/mail'
 import { readLogo } from '../garage-logo'
 import type { PdfFonts } from '../pdf/document'
 import { ownerView } from './owner-view'
-import { renderQuotePdf, type PdfGarage } from './pdf'
+import { renderQuotePdf, type PdfGarage, type PdfLogo } from './pdf'
 import { settingsOf } from './settings'
 
 /** What the quote's documents and e-mails need from the server around them. */
@@ -31,15 +31,19 @@ function pdfGarage(org: Organisation | null): PdfGarage {
   return { name: org?.name ?? '', address: org?.tradingAddress ?? '', phone: org?.phone ?? '', email: org?.email ?? '', taxNumber: org?.taxNumber ?? '' }
 }
 
+/** The garage's particulars and logo for its documents to owners. */
+export async function garageLetterhead(organisationId: number, uploadsDir: string): Promise<{ garage: PdfGarage; logo: PdfLogo | null }> {
+  const [org, settings] = await Promise.all([Organisation.findByPk(organisationId), settingsOf(organisationId)])
+  const logoData = settings.logoFile ? await readLogo(uploadsDir, settings.logoFile) : null
+  return { garage: pdfGarage(org), logo: logoData && settings.logoMime ? { data: logoData, mime: settings.logoMime } : null }
+}
+
 /** The quote as the owner sees it, rendered to PDF. */
 export async function quotePdf(q: Quote, out: QuoteOutput): Promise<Buffer> {
-  const [view, org, settings, fonts] = await Promise.all([
+  const [view, head, fonts] = await Promise.all([
     ownerView(q, out.formats.currency),
-    Organisation.findByPk(q.organisationId),
-    settingsOf(q.organisationId),
+    garageLetterhead(q.organisationId, out.uploadsDir),
     out.fonts(),
   ])
-  const logoData = settings.logoFile ? await readLogo(out.uploadsDir, settings.logoFile) : null
-  const logo = logoData && settings.logoMime ? { data: logoData, mime: settings.logoMime } : null
-  return renderQuotePdf(view, pdfGarage(org), fonts, logo, out.formats)
+  return renderQuotePdf(view, head.garage, fonts, head.logo, out.formats)
 }

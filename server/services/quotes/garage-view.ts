@@ -68,7 +68,8 @@ export function coreRefundOf(l: QuoteLine): CoreRefundNote | null {
 
 export function lineView(l: QuoteLine, showTrade: boolean, stock: StockNote | null, figures: TotalsLine): QuoteLineView {
   return {
-    id: l.id, position: l.position, kind: l.kind, partId: l.partId ?? null, sku: l.sku ?? null, partType: l.partType ?? null,
+    id: l.id, fitOverride: l.fitOverrideReason ?? null, labourOperation: l.labourOperation ?? null,
+    guideHours: l.guideHundredths == null ? null : l.guideHundredths / 100, position: l.position, kind: l.kind, partId: l.partId ?? null, sku: l.sku ?? null, partType: l.partType ?? null,
     description: l.description, quantity: l.quantity, hours: hoursOf(l), rateMinor: l.rateMinor ?? null,
     unitNetMinor: showTrade ? (l.unitNetMinor ?? null) : null,
     markupBp: showTrade ? (l.markupBp ?? null) : null,
@@ -103,6 +104,10 @@ function warningsFor(lines: QuoteLine[], stock: Map<number, StockNote>, discount
     }
     if (l.kind === 'labour' && !l.rateMinor) warnings.push(`"${l.description}" has no labour rate: set one in the garage settings or on the line.`)
     if (l.kind === 'sundry' && !l.amountMinor) warnings.push(`"${l.description}" has no price yet.`)
+    if (l.fitOverrideReason) warnings.push(`${l.sku} does not fit this vehicle by the catalogue; put on by a manager: ${l.fitOverrideReason}`)
+    if (l.kind === 'labour' && l.guideHundredths != null && l.guideHundredths !== l.hoursHundredths) {
+      warnings.push(`"${l.description}": ${(l.hoursHundredths ?? 0) / 100} h against the labour guide's ${l.guideHundredths / 100} h.`)
+    }
   }
   if (discountCapped) warnings.push('The discounts are larger than the rest of the quote; only part of them counts.')
   return warnings

@@ -14,6 +14,7 @@ import type { InspectionFinding } from '../../../shared/types/quotes'
 import { invalidInput, isDomainError } from '../errors'
 import { addLine } from './lines'
 import { linesOf } from './rows'
+import { addGuideLabour } from '../jobs/guide-labour'
 
 export interface Skipped { index: number; what: string; why: string }
 
@@ -74,5 +75,7 @@ export async function addInspectionLines(
       throw err
     }
   }
+  // the labour for the parts, from the labour guide (overlaps taken off)
+  if (added.length) await addGuideLabour(t, q, org)
   return { added, skipped }
 }

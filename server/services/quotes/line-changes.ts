@@ -7,7 +7,8 @@ import { Op } from 'sequelize'
 import { QuoteLine, type Quote } from '../../models/quotes'
 import { effectiveQuoteStatus } from '../../../shared/utils/quote-states'
 import type { QuoteLineCreateInput, QuoteLineUpdateInput } from '../../../shared/schemas/quotes'
-import { conflict, notFound } from '../errors'
+import { can } from '../../../shared/utils/abilities'
+import { conflict, forbidden, notFound } from '../errors'
 import { assertDiscountsFit, assertMayPrice } from './line-pricing'
 import { addLine, changeLine } from './lines'
 import { changeQuote, type QuoteActor } from './revisions'
@@ -23,12 +24,16 @@ async function lineOf(quote: Pick<Quote, 'id'>, lineId: number): Promise<QuoteLi
 /** Adds a line (a part brings its core deposit); returns the quote that holds it and the new line ids. */
 export async function addQuoteLine(quote: Quote, actor: QuoteActor, input: QuoteLineCreateInput): Promise<{ quote: Quote; addedLineIds: number[] }> {
   assertMayPrice(actor.user.role, input)
+  if (input.override && !can(actor.user.role, 'quotes.price')) throw forbidden('Only a garage manager can put on a part that does not fit.')
   return changeQuote(quote, actor, 'quote.line.add', async (t, { quote: q }) => {
     const lines = await addLine(t, q, actor.org, input)
     await assertDiscountsFit(t, q.id)
     return {
       result: { quote: q, addedLineIds: lines.map((l) => l.id) },
-      changes: { kind: input.kind, sku: lines[0]!.sku, quantity: lines[0]!.quantity, amountMinor: lines[0]!.amountMinor, lines: lines.map((l) => l.id) },
+      changes: {
+        kind: input.kind, sku: lines[0]!.sku, quantity: lines[0]!.quantity, amountMinor: lines[0]!.amountMinor, lines: lines.map((l) => l.id),
+        ...(lines[0]!.fitOverrideReason ? { fitOverride: lines[0]!.fitOverrideReason } : {}),
+      },
     }
   })
 }

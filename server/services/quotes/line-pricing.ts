@@ -27,7 +27,7 @@ export function repriceLine(l: QuoteLine): void {
       l.amountMinor = l.unitPriceMinor * l.quantity
       break
     case 'core_deposit':
-      // a deposit carries no tax, so it reads the same either way: keep it stated before tax
+      // a deposit is always stated before tax, at its part's rate (rule 4)
       l.taxIncluded = false
       l.unitPriceMinor = l.unitNetMinor ?? 0
       l.amountMinor = l.coreCharge === 'absorbed' ? 0 : l.unitPriceMinor * l.quantity

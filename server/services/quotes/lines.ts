@@ -9,12 +9,13 @@ import type { Organisation } from '../../models/accounts'
 import { QuoteLine, type Quote } from '../../models/quotes'
 import { markupBpFor } from '../../../shared/utils/quote-markup'
 import {
-  CORE_DEPOSIT_TAX_BP, hoursToHundredths, lineFigures, restatedMinor, sellingUnitMinor, withPriceEnding,
+  hoursToHundredths, lineFigures, restatedMinor, sellingUnitMinor, withPriceEnding,
 } from '../../../shared/utils/quote-totals'
 import { divRoundHalfUp } from '../../../shared/utils/money'
 import type { Recommendation } from '../../../shared/types/quotes'
 import { refusedInput, repriceLine, resolvePart } from './line-pricing'
 import { settingsOf, type EffectiveSettings } from './settings'
+import { guardFit } from '../jobs/fitment-guard'
 
 export interface NewLine {
   kind: 'part' | 'labour' | 'sundry' | 'discount'
@@ -30,6 +31,13 @@ export interface NewLine {
   taxBp?: number
   /** the amounts given and worked out include tax; default: the garage's setting */
   taxIncluded?: boolean
+  /** answers to the vehicle's option questions, for the fitment guard */
+  answers?: Record<string, string>
+  /** a manager puts on a part that does not fit (or whose fit is not known), with the reason */
+  override?: { reason: string } | null
+  /** a labour line's operation in the labour guide, and the guide's hours for this job (hundredths) */
+  operation?: string | null
+  guideHundredths?: number | null
 }
 
 /** An amount stated one way, stated the way a line wants it (the price stays the same to the minor unit). */
@@ -63,18 +71,21 @@ export async function addLine(t: Transaction, q: Quote, org: Organisation, input
   switch (input.kind) {
     case 'part': {
       const r = await resolvePart(t, org, input.sku!)
+      const fitment = await guardFit(t, q, r.part, input)
       const markupBp = input.markupBp ?? markupBpFor(settings.markupRules, { type: r.part.type, unitNetMinor: r.unitNetMinor })
-      const quantity = input.quantity ?? 1
+      // a part fitted as a pair (discs) goes on in the fitted quantity
+      const quantity = input.quantity ?? fitment?.quantity ?? 1
       const part = { partId: r.part.id, sku: r.part.sku, partType: r.part.type }
       const line = await saveLine(t, {
         ...base, ...part, kind: 'part', description: input.description || r.part.description, quantity,
+        fitOverrideReason: fitment ? null : (input.override?.reason ?? null),
         unitNetMinor: r.unitNetMinor, markupBp, unitPriceMinor: partUnitMinor(r.unitNetMinor, markupBp, base, settings.partPriceEndingMinor),
       })
       if (r.coreDepositMinor <= 0) return [line]
       // the garage pays the distributor the deposit and is refunded when the old unit goes back: it absorbs the
       // deposit unless it chooses to pass it on
       const core = await saveLine(t, {
-        quoteId: q.id, position, taxBp: CORE_DEPOSIT_TAX_BP, taxIncluded: false, ...part, kind: 'core_deposit', parentLineId: line.id,
+        quoteId: q.id, position, taxBp: line.taxBp, taxIncluded: false, ...part, kind: 'core_deposit', parentLineId: line.id,
         description: `Core deposit for ${r.part.sku}`, quantity, unitNetMinor: r.coreDepositMinor,
         coreCharge: settings.coreDepositsPassedOn ? 'charged' : 'absorbed',
       })
@@ -83,7 +94,7 @@ export async function addLine(t: Transaction, q: Quote, org: Organisation, input
     case 'labour':
       return [await saveLine(t, {
         ...base, kind: 'labour', description: input.description || 'Labour',
-        hoursHundredths: hoursToHundredths(input.hours!)!,
+        hoursHundredths: hoursToHundredths(input.hours!)!, labourOperation: input.operation ?? null, guideHundredths: input.guideHundredths ?? null,
         rateMinor: input.rateMinor ?? statedAs(settings.labourRateMinor, settings.pricesIncludeTax, taxIncluded, settings.taxRateBp),
       })]
     case 'sundry':
@@ -113,7 +124,7 @@ export interface LineChange {
   position?: number
 }
 
-// a core deposit carries no tax (rule 4 of shared/utils/quote-totals.ts): its rate is not the garage's to set
+// a core deposit is taxed at its part's rate (rule 4 of shared/utils/quote-totals.ts): its rate is not set on its own
 const FIELDS_BY_KIND: Record<QuoteLine['kind'], (keyof LineChange)[]> = {
   part: ['quantity', 'description', 'recommendation', 'unitPriceMinor', 'markupBp', 'taxBp', 'taxIncluded', 'toldOwnerDeclinedRequired', 'position'],
   core_deposit: ['coreCharge'],
@@ -188,10 +199,12 @@ export async function changeLine(
   }
   repriceLine(line)
   await line.save({ transaction: t })
-  if (line.kind === 'part' && change.quantity !== undefined) {
+  if (line.kind === 'part' && (change.quantity !== undefined || change.taxBp !== undefined)) {
+    // the deposit follows its part: the same number of units, taxed at the part's rate (rule 4)
     const cores = await QuoteLine.findAll({ where: { parentLineId: line.id, kind: 'core_deposit' }, transaction: t })
     for (const c of cores) {
       c.quantity = line.quantity
+      c.taxBp = line.taxBp
       repriceLine(c)
       await c.save({ transaction: t })
     }

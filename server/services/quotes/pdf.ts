@@ -9,13 +9,11 @@ import { formatBp } from '../../../shared/utils/quote-totals'
 import { QUOTE_STATUS_LABELS } from '../../../shared/utils/quote-states'
 import { FINDING_WORDS, QUOTE_SAFETY_CAUTION } from '../../../shared/utils/quote-wording'
 import type { OwnerQuoteView } from '../../../shared/types/quotes'
-import { drawSvgLogo } from '../svg-to-pdf'
 import { newPdf, PDF_COLOURS, type PdfFonts } from '../pdf/document'
+import { drawLetterhead, type PdfGarage, type PdfLogo } from '../pdf/letterhead'
 import { drawDecision, drawTotals, lineLabels } from './pdf-sections'
 
-export type { PdfFonts }
-export interface PdfGarage { name: string; address: string; phone: string; email: string; taxNumber: string }
-export interface PdfLogo { data: Buffer; mime: string }
+export type { PdfFonts, PdfGarage, PdfLogo }
 
 const { ink: INK, soft: SOFT, line: LINE, accent: ACCENT, fail: FAIL } = PDF_COLOURS
 
@@ -28,32 +26,12 @@ export function renderQuotePdf(view: OwnerQuoteView, garage: PdfGarage, fonts: P
   const bottom = () => doc.page.height - doc.page.margins.bottom - 24
 
   // header: logo and garage on the left, the quote on the right
-  const top = doc.y
-  let textLeft = left
-  if (logo) {
-    try {
-      if (logo.mime === 'image/png' || logo.mime === 'image/jpeg') {
-        doc.image(logo.data, left, top, { fit: [110, 54] })
-        textLeft = left + 122
-      } else if (logo.mime === 'image/svg+xml' && drawSvgLogo(doc, logo.data.toString('utf8'), left, top, 110, 54)) {
-        textLeft = left + 122
-      }
-    } catch { /* an unreadable image leaves the name alone in the header */ }
-  }
-  doc.font('bold').fontSize(16).fillColor(INK).text(garage.name, textLeft, top, { width: 260 })
-  doc.font('body').fontSize(8.5).fillColor(SOFT)
-  for (const line of [garage.address, [garage.phone, garage.email].filter(Boolean).join(' · '), garage.taxNumber ? `Tax number ${garage.taxNumber}` : '']) {
-    if (line) doc.text(line, textLeft, doc.y, { width: 260 })
-  }
-  const leftBottom = doc.y
-  doc.font('bold').fontSize(14).fillColor(ACCENT).text('Quote', left + width - 180, top, { width: 180, align: 'right' })
-  doc.font('body').fontSize(9).fillColor(INK)
-  doc.text(view.reference, left + width - 180, doc.y, { width: 180, align: 'right' })
-  if (view.sentAt) doc.text(`Issued ${date(view.sentAt)}`, { width: 180, align: 'right' })
-  if (view.expiresAt) doc.text(`Valid until ${date(view.expiresAt)}`, { width: 180, align: 'right' })
-  if (view.status !== 'sent' && view.status !== 'draft') doc.text(QUOTE_STATUS_LABELS[view.status], { width: 180, align: 'right' })
-  doc.y = Math.max(leftBottom, doc.y, top + 56) + 10
-  doc.x = left
+  drawLetterhead(page, garage, logo, 'Quote', [
+    view.reference,
+    view.sentAt ? `Issued ${date(view.sentAt)}` : '',
+    view.expiresAt ? `Valid until ${date(view.expiresAt)}` : '',
+    view.status !== 'sent' && view.status !== 'draft' ? QUOTE_STATUS_LABELS[view.status] : '',
+  ].filter(Boolean))
 
   heading('Vehicle')
   doc.font('body').fontSize(9.5).fillColor(INK)

@@ -10,7 +10,6 @@ import { Quote, QuoteLine } from '../../models/quotes'
 import { withWrite } from '../../utils/db'
 import { audit } from '../../utils/audit'
 import { effectiveQuoteStatus, nextQuoteStatus, quoteEditMode } from '../../../shared/utils/quote-states'
-import { CORE_DEPOSIT_TAX_BP } from '../../../shared/utils/quote-totals'
 import type { Role } from '../../../shared/types/accounts'
 import { conflict } from '../errors'
 import { linesOf } from './rows'
@@ -41,18 +40,21 @@ export async function reviseQuote(t: Transaction, old: Quote, actorUserId: numbe
     findings: old.findings, messageToOwner: old.messageToOwner, createdByUserId: actorUserId,
   }, { transaction: t })
   const lineIds = new Map<number, number>()
-  for (const l of await linesOf(old.id, t)) { // parents come before their core deposits
+  const oldLines = await linesOf(old.id, t)
+  const rateOf = new Map(oldLines.map((l) => [l.id, l.taxBp]))
+  for (const l of oldLines) { // parents come before their core deposits
     const copy = await QuoteLine.create({
       quoteId: quote.id, position: l.position, kind: l.kind,
       parentLineId: l.parentLineId ? (lineIds.get(l.parentLineId) ?? null) : null,
       partId: l.partId, sku: l.sku, partType: l.partType, description: l.description, quantity: l.quantity,
       hoursHundredths: l.hoursHundredths, rateMinor: l.rateMinor, unitNetMinor: l.unitNetMinor, markupBp: l.markupBp,
-      // a new revision is a new document: its core deposits come under the one rule for deposits (no tax)
-      unitPriceMinor: l.unitPriceMinor, amountMinor: l.amountMinor, taxBp: l.kind === 'core_deposit' ? CORE_DEPOSIT_TAX_BP : l.taxBp,
+      // a new revision is a new document: its core deposits come under the one rule for deposits (the part's rate)
+      unitPriceMinor: l.unitPriceMinor, amountMinor: l.amountMinor, taxBp: l.kind === 'core_deposit' ? (rateOf.get(l.parentLineId ?? 0) ?? l.taxBp) : l.taxBp,
       taxIncluded: l.taxIncluded, recommendation: l.recommendation,
       reason: l.reason, coreCharge: l.coreCharge, ownerDecision: null,
       toldOwnerDeclinedRequired: l.toldOwnerDeclinedRequired, toldOwnerRecordedByUserId: l.toldOwnerRecordedByUserId,
       toldOwnerRecordedAt: l.toldOwnerRecordedAt,
+      fitOverrideReason: l.fitOverrideReason, labourOperation: l.labourOperation, guideHundredths: l.guideHundredths,
     }, { transaction: t })
     lineIds.set(l.id, copy.id)
   }

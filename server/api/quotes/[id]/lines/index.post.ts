@@ -4,7 +4,7 @@
  *     recommendation?: "required" | "advised", markupBp?, rateMinor?, taxBp?, taxIncluded? }
  * A part line captures the garage's net price now (active price version less its tier), applies the garage's
  * markup rule (stated with tax when the garage shows prices so, then its price ending) and, for a remanufactured
- * unit, adds a core-deposit line (no tax; absorbed by the garage unless it passes deposits on). Labour takes the
+ * unit, adds a core-deposit line (taxed at the part's rate; absorbed by the garage unless it passes deposits on). Labour takes the
  * garage's rate. Sundries and discounts take `amountMinor` (a discount's size, taken off), with tax included when
  * `taxIncluded` (default: the garage's setting). Prices, markups, rates, tax rates and discounts are set by
  * managers; technicians add parts, labour and unpriced sundries.

@@ -1,0 +1,6 @@
+export * from './numbering'
+export * from './view'
+export * from './issue'
+export * from './payments'
+export * from './document'
+export * from './mail'
