@@ -16,7 +16,10 @@ import { DomainError } from '../services/errors'
 export const BODY_LIMIT = 1024 * 1024
 const WITH_BODY = new Set(['POST', 'PUT', 'PATCH', 'DELETE'])
 // routes whose body is a multipart upload taken by the upload intake (it refuses anything else itself)
-const UPLOAD_ROUTES = [/^\/api\/trade-applications$/, /^\/api\/garage\/logo$/, /^\/api\/price-files$/]
+const UPLOAD_ROUTES = [
+  /^\/api\/trade-applications$/, /^\/api\/garage\/logo$/, /^\/api\/price-files$/,
+  /^\/api\/inspections\/\d+\/photos$/, /^\/api\/returns\/\d+\/photos$/,
+]
 const RAW_BODY = Symbol.for('h3RawBody')
 
 export default defineEventHandler(async (event) => {

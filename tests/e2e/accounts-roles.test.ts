@@ -91,6 +91,7 @@ const rows: Row[] = [
   { route: 'GET /api/admin/trade-accounts', call: (c) => c.get('/api/admin/trade-accounts'), expect: signedIn({ admin: 200, counter: 200 }) },
   { route: 'GET /api/admin/trade-accounts/:id', call: (c) => c.get(`/api/admin/trade-accounts/${ids.approvedGarage}`), expect: signedIn({ admin: 200, counter: 200 }) },
   { route: 'PATCH /api/admin/trade-accounts/:id', call: (c) => c.patch(`/api/admin/trade-accounts/${ids.approvedGarage}`, {}), expect: signedIn({ admin: 422 }) },
+  { route: 'PATCH /api/admin/trade-accounts/:id/home-branch', call: (c) => c.patch(`/api/admin/trade-accounts/${ids.approvedGarage}/home-branch`, {}), expect: signedIn({ admin: 422 }) },
   { route: 'POST /api/admin/trade-accounts/:id/suspend', call: (c) => c.post(`/api/admin/trade-accounts/${ids.approvedGarage}/suspend`, {}), expect: signedIn({ admin: 422 }) },
   { route: 'POST /api/admin/trade-accounts/:id/payments', call: (c) => c.post(`/api/admin/trade-accounts/${ids.approvedGarage}/payments`, {}), expect: signedIn({ admin: 422 }) },
   { route: 'POST /api/admin/trade-accounts/:id/reactivate', call: (c) => c.post(`/api/admin/trade-accounts/${ids.approvedGarage}/reactivate`, {}), expect: signedIn({ admin: 409 }) },

@@ -608,7 +608,7 @@ describe('apply and roll back', () => {
     const tier = await one<{ percent_bp: number }>(`SELECT t.percent_bp FROM organisations o JOIN discount_tiers t ON t.id = o.tier_id WHERE o.name = 'Millbrook Motor Works'`)
     const quote = await manager.post('/api/quotes', { vehicleId: vehicle.id, ownerName: 'Price Test Owner', ownerEmail: 'owner.pricetest@example.test' })
     expect(quote.status, quote.text).toBe(201)
-    const line = await manager.post(`/api/quotes/${quote.body.id}/lines`, { kind: 'part', sku: p!.sku, quantity: 1 })
+    const line = await manager.post(`/api/quotes/${quote.body.id}/lines`, { kind: 'part', sku: p!.sku, quantity: 1, override: { reason: 'Checking captured prices, not the fit' } })
     expect(line.status, line.text).toBe(201)
     const captured = line.body.lines.find((l: QuoteLine) => l.sku === p!.sku && l.kind === 'part')
     // the oracle itself, against the values worked by hand above
@@ -624,7 +624,7 @@ describe('apply and roll back', () => {
       const kept = after.body.lines.find((l: QuoteLine) => l.id === captured.id)
       expect(kept.unitNetMinor).toBe(captured.unitNetMinor)
       expect(kept.unitPriceMinor).toBe(captured.unitPriceMinor)
-      const again = await manager.post(`/api/quotes/${quote.body.id}/lines`, { kind: 'part', sku: p!.sku, quantity: 1 })
+      const again = await manager.post(`/api/quotes/${quote.body.id}/lines`, { kind: 'part', sku: p!.sku, quantity: 1, override: { reason: 'Checking captured prices, not the fit' } })
       expect(again.status, again.text).toBe(201)
       const fresh = again.body.lines.find((l: QuoteLine) => l.sku === p!.sku && l.id !== captured.id && l.kind === 'part')
       expect(fresh.unitNetMinor).toBe(expectedNetMinor(p!.list + 250, tier.percent_bp))

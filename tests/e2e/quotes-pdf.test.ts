@@ -72,7 +72,7 @@ describe('the owner\'s e-mail', () => {
     const attached = Buffer.from(mail.attachments[0]!.contentBase64, 'base64')
     const text = await textOf(attached)
     expect(text).toContain(gbp(quote.totals.grossMinor))
-    const until = new Intl.DateTimeFormat('en-GB', { dateStyle: 'long' }).format(new Date(body.expiresAt))
+    const until = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeZone: 'Europe/London' }).format(new Date(body.expiresAt))
     expect(text).toContain(`Valid until ${until}`)
     expect(mail.text).toContain(until)
     expect(mail.text).toContain(QUOTE_SAFETY_CAUTION.slice(0, 40))

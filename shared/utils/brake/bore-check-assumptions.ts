@@ -37,7 +37,7 @@ function axleNotes(chains: ChainResult[]): string[] {
   }
   const layouts = [...new Set(axles.map((a) => a.brakeFactorSource).filter((s): s is Exclude<typeof s, 'given' | null> => s !== null && s !== 'given'))]
   for (const layout of layouts) {
-    out.push(`Drum brake factor ${SHOE_LAYOUT_BRAKE_FACTORS[layout]} for ${SHOE_LAYOUT_NAMES[layout]} where none was typed in (typical at a lining friction of about 0.38; from memory of Limpert, Brake Design and Safety, and the Bosch Automotive Handbook).`)
+    out.push(`Drum brake factor ${SHOE_LAYOUT_BRAKE_FACTORS[layout]} for ${SHOE_LAYOUT_NAMES[layout]} where none was typed in (typical at a lining friction of about 0.38, as Limpert's Brake Design and Safety and the Bosch Automotive Handbook give them).`) // the figures from memory of those books
   }
   return out
 }

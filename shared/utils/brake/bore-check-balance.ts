@@ -106,7 +106,7 @@ export function stoppingFindings(stops: readonly ServiceStop[], failures: Circui
         code: 'circuit-failure-short',
         message:
           `${f.label} (${who}): ${fmt(f.remainingSharePercent)} % of the braking remains, a stop from 100 km/h of ` +
-          `${fmt(f.stoppingDistanceFrom100KmhM ?? 0, 0)} m, more than the ${f.reference.distanceM} m partial-failure figure (FMVSS No. 135 S7.10, from memory).`,
+          `${fmt(f.stoppingDistanceFrom100KmhM ?? 0, 0)} m, more than the ${f.reference.distanceM} m partial-failure figure (FMVSS No. 135 S7.10).`,
       })
     }
   }

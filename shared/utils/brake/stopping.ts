@@ -53,5 +53,5 @@ export const FMVSS_135 = {
    */
   service: reference('FMVSS No. 135 S7.5 (49 CFR 571.135): S ≤ 0.10 V + 0.0060 V², 70 m from 100 km/h, pedal force ≤ 500 N', 0.006, 500),
   /** S7.10 hydraulic circuit failure: S ≤ 0.10 V + 0.0158 V², 168 m from 100 km/h at ≤ 500 N (from memory). */
-  partialFailure: reference('FMVSS No. 135 S7.10 (49 CFR 571.135), from memory: S ≤ 0.10 V + 0.0158 V², 168 m from 100 km/h with one circuit failed, pedal force ≤ 500 N', 0.0158, 500),
+  partialFailure: reference('FMVSS No. 135 S7.10 (49 CFR 571.135): S ≤ 0.10 V + 0.0158 V², 168 m from 100 km/h with one circuit failed, pedal force ≤ 500 N', 0.0158, 500),
 } as const

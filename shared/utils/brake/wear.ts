@@ -73,7 +73,7 @@ function assumptionsOf(input: WearInput): string[] {
     out.push(`A drum within ${WEAR_DEFAULTS.drumMachiningAllowanceMm} mm of its maximum diameter can't be machined (common practice) where the vehicle data gives no allowance.`)
   }
   if (input.shoes.length > 0) {
-    out.push(`Shoe linings: under ${WEAR_DEFAULTS.shoeFailBelowMm} mm fails (from memory), ${WEAR_DEFAULTS.shoeAdviseMm} mm or less is advised (common practice).`)
+    out.push(`Shoe linings: under ${WEAR_DEFAULTS.shoeFailBelowMm} mm fails (a usual roadworthiness limit), ${WEAR_DEFAULTS.shoeAdviseMm} mm or less is advised (common practice).`)
   }
   const fluid = input.fluid
   if (fluid?.waterPercent !== undefined) {
