@@ -307,6 +307,8 @@ export interface BranchSchedule extends BranchView {
 
 export interface BasketItem { sku: string; description: string; quantity: number }
 
+import type { AccountStop, Ageing, OpenItem } from './money-owed'
+
 export interface StatementEntry {
   id: number
   at: string
@@ -332,4 +334,11 @@ export interface Statement {
   period: { month: string; openingBalanceMinor: number; closingBalanceMinor: number } | null
   /** months (YYYY-MM, newest first) that have entries, for choosing one */
   months: string[]
+  /** the local day the open items are aged on (YYYY-MM-DD) */
+  asOf: string
+  /** charges not yet paid in full, oldest first (payments and credits settle the oldest first), whatever the month */
+  openItems: OpenItem[]
+  /** what is open, by days past its due date */
+  ageing: Ageing
+  stop: AccountStop
 }
