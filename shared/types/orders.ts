@@ -16,6 +16,7 @@
  *   waiting (back-ordered from the supplier) ──stock arrives, oldest order first──> reserved
  *   any line not yet sent ──cancel──> cancelled
  */
+import type { AccountStop, Ageing, OpenItem } from './money-owed'
 
 export const ORDER_STATUSES = ['awaiting_payment', 'confirmed', 'picking', 'part_dispatched', 'dispatched', 'delivered', 'cancelled', 'lapsed'] as const
 export type OrderStatus = (typeof ORDER_STATUSES)[number]
@@ -306,8 +307,6 @@ export interface BranchSchedule extends BranchView {
 }
 
 export interface BasketItem { sku: string; description: string; quantity: number }
-
-import type { AccountStop, Ageing, OpenItem } from './money-owed'
 
 export interface StatementEntry {
   id: number
