@@ -1,12 +1,15 @@
 /**
  * Client-side steering only (the server decides on every route):
  * - pages with `meta.signedIn` or `meta.ability(ies)` send signed-out visitors to the sign-in page;
- * - a garage that is not approved sees only its status page (and the public pages);
+ * - a garage that is not approved sees only its status page (and the public pages); a suspended one also its
+ *   statement and documents;
  * - a page whose ability the role lacks sends the person home.
  */
 import { can, type Ability } from '#shared/utils/abilities'
 
 const OPEN = [/^\/sign-in/, /^\/forgot-password/, /^\/reset\//, /^\/invite\//, /^\/apply/, /^\/trade-application$/]
+/** what a suspended garage may still open, to settle what it owes */
+const SUSPENDED_OPEN = [/^\/statement$/, /^\/documents$/]
 
 declare module '#app' {
   interface PageMeta {
@@ -27,7 +30,8 @@ export default defineNuxtRouteMiddleware(async (to) => {
   }
   if (user.value?.organisationKind === 'garage') {
     const status = await standing.refresh()
-    if (status && status !== 'approved' && !OPEN.some((r) => r.test(to.path))) return navigateTo('/trade-application')
+    const open = status === 'suspended' ? [...OPEN, ...SUSPENDED_OPEN] : OPEN
+    if (status && status !== 'approved' && !open.some((r) => r.test(to.path))) return navigateTo('/trade-application')
   } else {
     standing.status.value = null
   }

@@ -46,6 +46,9 @@ export class Organisation extends Model<InferAttributes<Organisation>, InferCrea
   declare decidedAt: CreationOptional<Date | null>
   /** garage setting: technicians see trade prices in the catalogue (column of migration 0004-catalogue-extra) */
   declare techniciansSeePrices: CreationOptional<boolean>
+  /** an admin's lift of the account stop: last local day it holds, and why (columns of migration 0017-money-owed) */
+  declare stopLiftedUntil: CreationOptional<string | null>
+  declare stopLiftReason: CreationOptional<string | null>
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
 }
@@ -111,6 +114,7 @@ export function initAccountModels(sequelize: Sequelize): void {
     paymentTerms: DataTypes.STRING, creditLimitMinor: DataTypes.INTEGER, paymentDays: DataTypes.INTEGER,
     homeBranchId: DataTypes.INTEGER, decisionReason: DataTypes.TEXT, decidedAt: DataTypes.DATE,
     techniciansSeePrices: { type: DataTypes.BOOLEAN, defaultValue: false }, // column of migration 0004-catalogue-extra
+    stopLiftedUntil: DataTypes.STRING, stopLiftReason: DataTypes.STRING, // columns of migration 0017-money-owed
     ...stamps,
   }, { sequelize, tableName: 'organisations' })
   User.init({

@@ -8,6 +8,11 @@ import { safeCsv } from './csv-export'
 import { Organisation } from '../models/accounts'
 import { LedgerEntry, Order } from '../models/orders'
 import { notFound } from './errors'
+import { ageingOf, openItemsOf } from './ageing'
+import { moveOf, stopFrom } from './account-stop'
+import { localDate } from './orders/zoned-time'
+import { systemClock, type ViewClock } from './orders/clock'
+import { AGEING_BUCKETS, AGEING_LABELS } from '../../shared/types/money-owed'
 import { LEDGER_KIND_LABELS, type Statement } from '../../shared/types/orders'
 import type { Formats } from '../../shared/utils/format'
 
@@ -19,9 +24,10 @@ function monthBounds(month: string): [Date, Date] {
 
 /**
  * The garage's ledger with running balances; with `month`, only that month's entries, the running balance still
- * counted from the first entry ever (so the opening balance is what was owed when the month began).
+ * counted from the first entry ever (so the opening balance is what was owed when the month began). The open items,
+ * their ageing and the account stop are as on the clock's local day, over the whole ledger.
  */
-export async function statementOf(organisationId: number, month: string | undefined, fmt: Formats): Promise<Statement> {
+export async function statementOf(organisationId: number, month: string | undefined, fmt: Formats, clock: ViewClock = systemClock(fmt.timeZone)): Promise<Statement> {
   const org = await Organisation.findByPk(organisationId)
   if (!org) throw notFound('Garage')
   const rows = await LedgerEntry.findAll({
@@ -53,6 +59,9 @@ export async function statementOf(organisationId: number, month: string | undefi
     })
   }
   const terms = org.paymentTerms ?? 'card'
+  const asOf = localDate(clock.now, clock.timeZone)
+  const moves = rows.map((r) => moveOf(r, clock.timeZone))
+  const openItems = openItemsOf(moves, org.paymentDays ?? 0, asOf)
   return {
     garage: { id: org.id, name: org.name, terms, creditLimitMinor: org.creditLimitMinor ?? 0, paymentDays: org.paymentDays ?? 0 },
     currency: fmt.currency,
@@ -61,6 +70,10 @@ export async function statementOf(organisationId: number, month: string | undefi
     availableMinor: terms === 'account' ? (org.creditLimitMinor ?? 0) - balance : null,
     period: month ? { month, openingBalanceMinor: opening, closingBalanceMinor: entries.at(-1)?.balanceMinor ?? opening } : null,
     months: [...months].sort().reverse(),
+    asOf,
+    openItems,
+    ageing: ageingOf(openItems),
+    stop: stopFrom(org, balance, openItems, asOf, fmt),
   }
 }
 
@@ -96,5 +109,33 @@ export function statementCsv(s: Statement): string {
       { key: 'balance', header: `Balance (${s.currency})` },
     ],
     cast: { number: (minor: number) => (minor / 100).toFixed(2) },
+  })
+}
+
+/**
+ * What is still owed as CSV: one row an open item (booked, due, days overdue, amount, paid, still open), then one row
+ * an ageing bucket, then the total; amounts in major units with two decimals, days as YYYY-MM-DD.
+ */
+export function openItemsCsv(s: Statement): string {
+  const records: Record<string, string | number>[] = s.openItems.map((i) => ({
+    reference: i.reference, details: i.description, booked: i.bookedOn, due: i.dueOn, overdue: i.daysOverdue,
+    amount: i.amountMinor, paid: i.paidMinor, open: i.openMinor,
+  }))
+  const summary = (details: string, open: number) => ({ reference: '', details, booked: '', due: '', overdue: '', amount: '', paid: '', open })
+  records.push(...AGEING_BUCKETS.map((b) => summary(AGEING_LABELS[b], s.ageing[b])))
+  records.push(summary(`Total still open on ${s.asOf}`, s.openItems.reduce((sum, i) => sum + i.openMinor, 0)))
+  return safeCsv(records, {
+    header: true,
+    columns: [
+      { key: 'reference', header: 'Reference' },
+      { key: 'details', header: 'Details' },
+      { key: 'booked', header: 'Booked' },
+      { key: 'due', header: 'Due' },
+      { key: 'overdue', header: 'Days overdue' },
+      { key: 'amount', header: `Amount (${s.currency})` },
+      { key: 'paid', header: `Paid (${s.currency})` },
+      { key: 'open', header: `Still open (${s.currency})` },
+    ],
+    cast: { number: (v: number, ctx: { column?: string | number }) => (ctx.column === 'overdue' ? String(v) : (v / 100).toFixed(2)) },
   })
 }

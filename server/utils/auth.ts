@@ -24,15 +24,18 @@ declare module 'h3' {
 interface RequireOptions {
   /** pending/rejected garages may still read their own application status */
   allowUnapproved?: boolean
+  /** a suspended garage may still read its statement and documents, to settle what it owes */
+  allowSuspended?: boolean
 }
 
 /** 401 without a live session; 403 when the organisation is not approved (suspended, pending, rejected). */
 export function requireAuth(event: H3Event, options: RequireOptions = {}): AuthContext {
   const auth = event.context.auth
   if (!auth) throw unauthenticated()
-  if (!options.allowUnapproved && auth.org.status !== 'approved') {
+  const suspendedLetIn = options.allowSuspended && auth.org.status === 'suspended'
+  if (!options.allowUnapproved && !suspendedLetIn && auth.org.status !== 'approved') {
     const why = auth.org.status === 'suspended'
-      ? 'This trade account is suspended. Please contact the distributor.'
+      ? `This trade account is suspended${auth.org.decisionReason ? ` (${auth.org.decisionReason})` : ''}: only the statement and documents stay open. Please contact the distributor.`
       : 'This trade account has not been approved yet.'
     throw forbidden(why)
   }

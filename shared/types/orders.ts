@@ -16,6 +16,7 @@
  *   waiting (back-ordered from the supplier) ──stock arrives, oldest order first──> reserved
  *   any line not yet sent ──cancel──> cancelled
  */
+import type { AccountStop, Ageing, OpenItem } from './money-owed'
 
 export const ORDER_STATUSES = ['awaiting_payment', 'confirmed', 'picking', 'part_dispatched', 'dispatched', 'delivered', 'cancelled', 'lapsed'] as const
 export type OrderStatus = (typeof ORDER_STATUSES)[number]
@@ -332,4 +333,11 @@ export interface Statement {
   period: { month: string; openingBalanceMinor: number; closingBalanceMinor: number } | null
   /** months (YYYY-MM, newest first) that have entries, for choosing one */
   months: string[]
+  /** the local day the open items are aged on (YYYY-MM-DD) */
+  asOf: string
+  /** charges not yet paid in full, oldest first (payments and credits settle the oldest first), whatever the month */
+  openItems: OpenItem[]
+  /** what is open, by days past its due date */
+  ageing: Ageing
+  stop: AccountStop
 }

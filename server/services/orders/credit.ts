@@ -7,6 +7,7 @@ import type { Organisation } from '../../models/accounts'
 import { LedgerEntry } from '../../models/orders'
 import type { Formats } from '../../../shared/utils/format'
 import { DomainError } from '../errors'
+import { assertNotOnStop } from '../account-stop'
 
 export async function balanceOf(organisationId: number, t?: Transaction): Promise<number> {
   const sum = await LedgerEntry.sum('amountMinor', { where: { organisationId }, transaction: t })
@@ -22,13 +23,15 @@ export async function creditCheck(org: Organisation, totalMinor: number, t?: Tra
 }
 
 /**
- * Refuses an order on account unless the garage has account terms (422 on `payment`) and the balance plus this
- * order stays within the limit (402 naming the limit, the balance and what is left).
+ * Refuses an order on account unless the garage has account terms (422 on `payment`), the account is not on stop
+ * (402 with the reasons and the amount that clears it: account-stop.ts) and the balance plus this order stays
+ * within the limit (402 naming the limit, the balance and what is left).
  */
-export async function assertAccountFits(org: Organisation, totalMinor: number, fmt: Formats, t?: Transaction): Promise<void> {
+export async function assertAccountFits(org: Organisation, totalMinor: number, fmt: Formats, t?: Transaction, now = new Date()): Promise<void> {
   if (org.paymentTerms !== 'account') {
     throw new DomainError('invalid', `${org.name} pays by card: ordering on trade account is not set up. Choose card payment.`, { fields: { payment: 'This garage pays by card; trade-account terms are not set up.' } })
   }
+  await assertNotOnStop(org, { now, timeZone: fmt.timeZone }, fmt, t)
   const c = await creditCheck(org, totalMinor, t)
   if (c.fits) return
   const m = fmt.money

@@ -45,7 +45,7 @@ export async function placeOrder(
   // stock that arrived since the last fill goes to the oldest waiting lines before this order takes any
   const allocated = await allocateBackOrders(t, { now, timeZone: fmt.timeZone })
   const priced = await priceOrder(org, input, { now, timeZone: fmt.timeZone }, t)
-  if (input.payment === 'account') await assertAccountFits(org, priced.totalMinor, fmt, t)
+  if (input.payment === 'account') await assertAccountFits(org, priced.totalMinor, fmt, t, now)
   const rows = priced.lines.map((l, position) => ({
     partId: l.partId, sku: l.sku, quantity: l.quantity, position,
     source: l.source, sourceBranchId: l.branch?.id ?? null, state: l.source === 'back_order' ? 'waiting' as const : 'reserved' as const,

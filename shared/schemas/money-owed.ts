@@ -1,0 +1,9 @@
+import { z } from 'zod'
+
+/** POST /api/admin/trade-accounts/:id/stop-lift: lift an account stop for a number of days, saying why. */
+export const StopLiftSchema = z.object({
+  reason: z.string({ error: 'Say why the stop is lifted.' }).trim().min(5, 'Say why the stop is lifted (at least 5 characters).')
+    .max(300, 'The reason is at most 300 characters.'),
+  days: z.number({ error: 'Enter for how many days.' }).int('Enter whole days.').min(1, 'Lift the stop for at least 1 day.'),
+}).strict()
+export type StopLiftInput = z.infer<typeof StopLiftSchema>

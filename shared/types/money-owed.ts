@@ -1,0 +1,42 @@
+/**
+ * What a garage still owes, item by item, and whether its trade account is on stop (shared by the statement API,
+ * its screen and the admin's view). Amounts in minor units; days are local calendar days, YYYY-MM-DD.
+ */
+
+export type AgeingBucket = 'current' | 'd1_30' | 'd31_60' | 'd61_90' | 'over90'
+export type Ageing = Record<AgeingBucket, number>
+
+export const AGEING_BUCKETS: readonly AgeingBucket[] = ['current', 'd1_30', 'd31_60', 'd61_90', 'over90']
+
+export const AGEING_LABELS: Record<AgeingBucket, string> = {
+  current: 'Not yet due', d1_30: '1-30 days overdue', d31_60: '31-60 days overdue', d61_90: '61-90 days overdue', over90: 'Over 90 days overdue',
+}
+
+export interface OpenItem {
+  entryId: number
+  reference: string
+  description: string
+  bookedOn: string
+  dueOn: string
+  amountMinor: number
+  paidMinor: number
+  openMinor: number
+  /** whole days past the due date, 0 when not yet overdue */
+  daysOverdue: number
+  bucket: AgeingBucket
+}
+
+/** A trade account's stop: why orders on account are refused, and what to pay to end it. */
+export interface AccountStop {
+  onStop: boolean
+  /** sentences for a person, empty when not on stop */
+  reasons: string[]
+  /** paying this much (oldest items first) ends every reason */
+  amountToClearMinor: number
+  overLimitMinor: number
+  /** open amount on items overdue by more than `stopAfterDays` */
+  longOverdueMinor: number
+  stopAfterDays: number
+  /** an admin's lift in force: orders on account allowed until the end of `until` despite the reasons */
+  lift: { until: string; reason: string } | null
+}
