@@ -6,7 +6,7 @@
  * a unique index with retry: a number is only ever taken by a transaction that also writes its document, so a
  * failure after taking it rolls the counter back with it and the number is used by the next issue: no gaps.
  * With an index and MAX(number) + 1 the same holds, but concurrent issuers collide and must retry; here the
- * writers queue instead (SQLite: one writer through `withWrite`; PostgreSQL: the UPDATE's row lock), and the
+ * writers queue instead (SQLite has one writer, through `withWrite`), and the
  * guard turns any unexpected interleaving into an error rather than a duplicate. UNIQUE (series, number) on
  * `documents` is the last line of defence. Plain Node.
  */
