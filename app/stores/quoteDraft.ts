@@ -42,7 +42,9 @@ export const useQuoteDraftStore = defineStore('quoteDraft', () => {
     } catch (err) {
       const e = err as FetchError
       fields.value = e.data?.data?.fields ?? {}
-      problem.value = e.data?.message ?? 'The change could not be saved. Please try again.'
+      // the server's summary names its fields for API callers; people get the messages beside the fields instead
+      const named = Object.keys(fields.value).filter((k) => k !== '_')
+      problem.value = fields.value._ ?? (named.length ? 'Please check the fields marked below.' : (e.data?.message ?? 'The change could not be saved. Please try again.'))
       return null
     } finally {
       busy.value = ''
