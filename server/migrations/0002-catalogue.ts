@@ -1,4 +1,5 @@
 import { DataTypes, type QueryInterface } from 'sequelize'
+import { ddlRunner } from '../utils/sql'
 
 const ts = {
   created_at: { type: DataTypes.DATE, allowNull: false },
@@ -120,7 +121,7 @@ export async function up(qi: QueryInterface): Promise<void> {
   await qi.addIndex('fitments', ['part_id'])
 
   // Stock can never go below zero: orders decrement with a guarded UPDATE and this CHECK backs it up.
-  await qi.sequelize.query(`CREATE TABLE stock_levels (
+  await ddlRunner(qi)(`CREATE TABLE stock_levels (
     part_id INTEGER NOT NULL REFERENCES parts(id) ON DELETE CASCADE,
     branch_id INTEGER NOT NULL REFERENCES branches(id) ON DELETE CASCADE,
     quantity INTEGER NOT NULL DEFAULT 0 CHECK (quantity >= 0),

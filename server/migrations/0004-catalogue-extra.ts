@@ -1,4 +1,5 @@
 import { DataTypes, type QueryInterface } from 'sequelize'
+import { dropTrigger, revisionTriggers } from '../utils/sql'
 
 /** Tables whose changes make cached catalogue answers (search index, vehicle-parts lists) stale. */
 export const CATALOGUE_TABLES = ['vehicles', 'vehicle_options', 'vehicle_brakes', 'parts', 'part_oe_numbers', 'supersessions', 'fitments'] as const
@@ -21,20 +22,14 @@ export async function up(qi: QueryInterface): Promise<void> {
     stock INTEGER NOT NULL DEFAULT 0
   )`)
   await q('INSERT INTO catalogue_revisions (id, catalogue, stock) VALUES (1, 0, 0)')
-  for (const table of CATALOGUE_TABLES) {
-    for (const op of ['INSERT', 'UPDATE', 'DELETE']) {
-      await q(`CREATE TRIGGER ${table}_rev_${op.toLowerCase()} AFTER ${op} ON ${table} BEGIN UPDATE catalogue_revisions SET catalogue = catalogue + 1 WHERE id = 1; END`)
-    }
-  }
-  for (const op of ['INSERT', 'UPDATE', 'DELETE']) {
-    await q(`CREATE TRIGGER stock_levels_rev_${op.toLowerCase()} AFTER ${op} ON stock_levels BEGIN UPDATE catalogue_revisions SET stock = stock + 1 WHERE id = 1; END`)
-  }
+  for (const table of CATALOGUE_TABLES) await revisionTriggers(qi, table, 'rev', 'catalogue')
+  await revisionTriggers(qi, 'stock_levels', 'rev', 'stock')
 }
 
 export async function down(qi: QueryInterface): Promise<void> {
   const q = (sql: string) => qi.sequelize.query(sql)
   for (const table of [...CATALOGUE_TABLES, 'stock_levels']) {
-    for (const op of ['insert', 'update', 'delete']) await q(`DROP TRIGGER IF EXISTS ${table}_rev_${op}`)
+    for (const op of ['insert', 'update', 'delete']) await dropTrigger(qi, table, `${table}_rev_${op}`)
   }
   await q('DROP TABLE IF EXISTS catalogue_revisions')
   await qi.removeIndex('supersessions', ['new_part_id'])

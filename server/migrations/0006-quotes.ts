@@ -1,4 +1,5 @@
 import type { QueryInterface } from 'sequelize'
+import { ddlRunner } from '../utils/sql'
 
 /**
  * Quotes: each garage's quoting settings, its quotes (one row per revision: a change to a sent quote makes a
@@ -9,7 +10,7 @@ import type { QueryInterface } from 'sequelize'
  * `inspection_id` is a plain integer (inspections are the garage's own records, checked by the routes).
  */
 export async function up(qi: QueryInterface): Promise<void> {
-  const q = (sql: string) => qi.sequelize.query(sql)
+  const q = ddlRunner(qi)
 
   await q(`CREATE TABLE garage_settings (
     id INTEGER PRIMARY KEY AUTOINCREMENT,

@@ -1,4 +1,5 @@
 import type { QueryInterface } from 'sequelize'
+import { ddlRunner } from '../utils/sql'
 
 /**
  * Orders and payments: distributor orders with their lines, the payment events already handled (event id
@@ -10,7 +11,7 @@ import type { QueryInterface } from 'sequelize'
  * another migration and an order must stay readable even if a quote is later removed.
  */
 export async function up(qi: QueryInterface): Promise<void> {
-  const q = (sql: string) => qi.sequelize.query(sql)
+  const q = ddlRunner(qi)
 
   await q(`CREATE TABLE orders (
     id INTEGER PRIMARY KEY AUTOINCREMENT,
@@ -85,24 +86,7 @@ export async function up(qi: QueryInterface): Promise<void> {
   )`)
   await qi.addIndex('payment_events', ['order_id'])
 
-  // What the garage owes the distributor: positive amounts raise the balance, negative ones lower it.
-  await q(`CREATE TABLE ledger_entries (
-    id INTEGER PRIMARY KEY AUTOINCREMENT,
-    organisation_id INTEGER NOT NULL REFERENCES organisations(id),
-    order_id INTEGER NULL REFERENCES orders(id),
-    core_return_id INTEGER NULL REFERENCES core_returns(id),
-    -- order | core_deposit | payment | refund | credit | core_credit
-    kind VARCHAR(16) NOT NULL,
-    amount_minor INTEGER NOT NULL,
-    reference VARCHAR(60) NOT NULL,
-    description VARCHAR(300) NOT NULL DEFAULT '',
-    -- the payment service's id for the money movement (payment intent, refund), so it is booked once
-    external_id VARCHAR(100) NULL,
-    created_at DATETIME NOT NULL
-  )`)
-  await qi.addIndex('ledger_entries', ['organisation_id', 'id'])
-  await qi.addIndex('ledger_entries', ['kind', 'external_id'], { unique: true, name: 'ledger_entries_kind_external' })
-
+  // core returns first: ledger entries refer to them (PostgreSQL checks the reference when the table is made)
   await q(`CREATE TABLE core_returns (
     id INTEGER PRIMARY KEY AUTOINCREMENT,
     organisation_id INTEGER NOT NULL REFERENCES organisations(id),
@@ -127,6 +111,24 @@ export async function up(qi: QueryInterface): Promise<void> {
   )`)
   await qi.addIndex('core_returns', ['organisation_id', 'status'])
   await qi.addIndex('core_returns', ['status'])
+
+  // What the garage owes the distributor: positive amounts raise the balance, negative ones lower it.
+  await q(`CREATE TABLE ledger_entries (
+    id INTEGER PRIMARY KEY AUTOINCREMENT,
+    organisation_id INTEGER NOT NULL REFERENCES organisations(id),
+    order_id INTEGER NULL REFERENCES orders(id),
+    core_return_id INTEGER NULL REFERENCES core_returns(id),
+    -- order | core_deposit | payment | refund | credit | core_credit
+    kind VARCHAR(16) NOT NULL,
+    amount_minor INTEGER NOT NULL,
+    reference VARCHAR(60) NOT NULL,
+    description VARCHAR(300) NOT NULL DEFAULT '',
+    -- the payment service's id for the money movement (payment intent, refund), so it is booked once
+    external_id VARCHAR(100) NULL,
+    created_at DATETIME NOT NULL
+  )`)
+  await qi.addIndex('ledger_entries', ['organisation_id', 'id'])
+  await qi.addIndex('ledger_entries', ['kind', 'external_id'], { unique: true, name: 'ledger_entries_kind_external' })
 }
 
 export async function down(qi: QueryInterface): Promise<void> {

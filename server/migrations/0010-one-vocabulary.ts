@@ -1,4 +1,5 @@
 import type { QueryInterface } from 'sequelize'
+import { ddlRunner } from '../utils/sql'
 
 /**
  * One name per idea, from the tables to the screen (the glossary in DEVELOPERS.md):
@@ -11,7 +12,7 @@ import type { QueryInterface } from 'sequelize'
  * Audit rows are renamed too, so the history reads in the same words.
  */
 export async function up(qi: QueryInterface): Promise<void> {
-  const q = (sql: string) => qi.sequelize.query(sql)
+  const q = ddlRunner(qi)
   await q('DROP TABLE IF EXISTS prices')
 
   await q('DROP INDEX IF EXISTS price_lists_one_active')
@@ -40,7 +41,7 @@ export async function up(qi: QueryInterface): Promise<void> {
 }
 
 export async function down(qi: QueryInterface): Promise<void> {
-  const q = (sql: string) => qi.sequelize.query(sql)
+  const q = ddlRunner(qi)
   await q(`UPDATE audit_log SET action = 'application.' || substr(action, 18) WHERE action LIKE 'tradeApplication.%'`)
   await q(`UPDATE audit_log SET action = 'account.' || substr(action, 14) WHERE action LIKE 'tradeAccount.%'`)
   await q(`UPDATE audit_log SET entity = 'price_upload' WHERE entity = 'price_file'`)

@@ -1,4 +1,5 @@
 import type { QueryInterface } from 'sequelize'
+import { ddlRunner } from '../utils/sql'
 
 /**
  * A garage's own register of customers and vehicles, and the follow-up of work their owners declined:
@@ -12,7 +13,7 @@ import type { QueryInterface } from 'sequelize'
  * - quotes and inspections link to the garage vehicle they were made for (nullable: older rows have none).
  */
 export async function up(qi: QueryInterface): Promise<void> {
-  const q = (sql: string) => qi.sequelize.query(sql)
+  const q = ddlRunner(qi)
   await q(`CREATE TABLE garage_customers (
     id INTEGER PRIMARY KEY AUTOINCREMENT,
     organisation_id INTEGER NOT NULL REFERENCES organisations(id) ON DELETE CASCADE,
@@ -94,7 +95,7 @@ export async function up(qi: QueryInterface): Promise<void> {
 }
 
 export async function down(qi: QueryInterface): Promise<void> {
-  const q = (sql: string) => qi.sequelize.query(sql)
+  const q = ddlRunner(qi)
   await q('DROP INDEX IF EXISTS inspections_garage_vehicle')
   await q('ALTER TABLE inspections DROP COLUMN garage_vehicle_id')
   await q('DROP INDEX IF EXISTS quotes_garage_vehicle')

@@ -1,4 +1,5 @@
 import type { QueryInterface } from 'sequelize'
+import { ddlRunner, dropTrigger, refusingTrigger } from '../utils/sql'
 
 /**
  * The counter's day: delivery promises, split supply, picking, returns, invoices and credit notes.
@@ -19,7 +20,7 @@ import type { QueryInterface } from 'sequelize'
  * - garages approved before a home branch was asked for get the first branch, so they can order at all.
  */
 export async function up(qi: QueryInterface): Promise<void> {
-  const q = (sql: string) => qi.sequelize.query(sql)
+  const q = ddlRunner(qi)
 
   // ---------------------------------------------------------------- branches and their runs
   await q('ALTER TABLE branches ADD COLUMN collection BOOLEAN NOT NULL DEFAULT 1')
@@ -143,8 +144,8 @@ export async function up(qi: QueryInterface): Promise<void> {
   await q('CREATE INDEX document_lines_doc ON document_lines (document_id)')
   await q('CREATE INDEX document_lines_order_line ON document_lines (order_line_id, kind)')
   for (const table of ['documents', 'document_lines']) {
-    await q(`CREATE TRIGGER ${table}_immutable_update BEFORE UPDATE ON ${table} BEGIN SELECT RAISE(ABORT, 'an issued document cannot change: issue a credit note'); END`)
-    await q(`CREATE TRIGGER ${table}_immutable_delete BEFORE DELETE ON ${table} BEGIN SELECT RAISE(ABORT, 'an issued document cannot be removed: issue a credit note'); END`)
+    await refusingTrigger(qi, table, 'UPDATE', 'an issued document cannot change: issue a credit note')
+    await refusingTrigger(qi, table, 'DELETE', 'an issued document cannot be removed: issue a credit note')
   }
 
   // ---------------------------------------------------------------- returns
@@ -207,10 +208,10 @@ export async function up(qi: QueryInterface): Promise<void> {
 }
 
 export async function down(qi: QueryInterface): Promise<void> {
-  const q = (sql: string) => qi.sequelize.query(sql)
+  const q = ddlRunner(qi)
   for (const table of ['documents', 'document_lines']) {
-    await q(`DROP TRIGGER IF EXISTS ${table}_immutable_update`)
-    await q(`DROP TRIGGER IF EXISTS ${table}_immutable_delete`)
+    await dropTrigger(qi, table, `${table}_immutable_update`)
+    await dropTrigger(qi, table, `${table}_immutable_delete`)
   }
   for (const t of ['basket_items', 'part_return_photos', 'part_returns']) await q(`DROP TABLE ${t}`)
   await q('ALTER TABLE core_returns DROP COLUMN credit_note_id')

@@ -2,6 +2,7 @@ import { SequelizeStorage, Umzug } from 'umzug'
 import { QueryTypes, type QueryInterface, type Sequelize } from 'sequelize'
 import { migrations } from '../migrations/index'
 import { getDb } from './db'
+import { tableExists } from './sql'
 
 function migrator(sequelize: Sequelize) {
   return new Umzug<QueryInterface>({
@@ -28,8 +29,7 @@ export async function migrateUp(sequelize: Sequelize = getDb()): Promise<string[
  * /api/health p99 150-250 ms while a price file was being staged, 25-60 ms for the read alone).
  */
 export async function appliedMigrationCount(sequelize: Sequelize = getDb()): Promise<number> {
-  const [table] = await sequelize.query<{ n: number }>(`SELECT COUNT(*) AS n FROM sqlite_master WHERE type = 'table' AND name = 'schema_migrations'`, { type: QueryTypes.SELECT })
-  if (!table?.n) return 0
+  if (!(await tableExists(sequelize, 'schema_migrations'))) return 0
   const [row] = await sequelize.query<{ n: number }>('SELECT COUNT(*) AS n FROM schema_migrations', { type: QueryTypes.SELECT })
   return Number(row?.n ?? 0)
 }
