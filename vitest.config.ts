@@ -8,6 +8,9 @@ const alias = { '#shared': r('./shared'), '~~': r('./'), '~': r('./app'), '@': r
 // Projects run in groups: unit + nuxt, then e2e, then browser (sequence.groupOrder).
 // One server for e2e and browser: tests/support/global-setup.ts builds the app once (if stale),
 // starts the fakes and `node .output/server/index.mjs` on a throw-away database, and shares the URL.
+// On PostgreSQL (scripts/test.mjs sets BORELINE_E2E_DATABASE=postgres for its second run): the e2e project on a
+// fresh PostgreSQL database, then the suite that starts two server processes on one database.
+const onPostgres = process.env.BORELINE_E2E_DATABASE === 'postgres'
 export default defineConfig({
   test: {
     reporters: ['default', ['json', { outputFile: 'test-results/vitest.json' }]],
@@ -36,6 +39,15 @@ export default defineConfig({
           sequence: { groupOrder: 2 },
         },
       },
+      ...(onPostgres
+        ? [{
+            resolve: { alias },
+            test: {
+              name: 'processes', include: ['tests/processes/**/*.test.ts'], environment: 'node',
+              fileParallelism: false, testTimeout: 120_000, hookTimeout: 600_000, sequence: { groupOrder: 3 },
+            },
+          }]
+        : []),
     ],
   },
 })

@@ -45,7 +45,7 @@ export async function seedBranches(t: Transaction, log: (s: string) => void): Pr
   const aisle = `CASE p.type ${Object.entries(AISLES).map(([type, a]) => `WHEN '${type}' THEN '${a}'`).join(' ')} ELSE 'K' END`
   await getDb().query(
     `INSERT INTO stock_bins (part_id, branch_id, bin)
-     SELECT s.part_id, s.branch_id, ${aisle} || '-' || printf('%02d', 1 + (p.id % 24)) || '-' || (1 + (p.id / 24) % 5)
+     SELECT s.part_id, s.branch_id, ${aisle} || '-' || CASE WHEN p.id % 24 < 9 THEN '0' ELSE '' END || (1 + (p.id % 24)) || '-' || (1 + (p.id / 24) % 5)
        FROM stock_levels s JOIN parts p ON p.id = s.part_id
       WHERE true
      ON CONFLICT (part_id, branch_id) DO NOTHING`,

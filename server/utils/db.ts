@@ -121,6 +121,7 @@ export function getDb(): Sequelize {
       pool: { max: Number(process.env.DB_POOL_MAX) || 10, min: 0, idle: 10_000 },
     })
     integerNumbers(instance)
+    keepAliasCase(instance)
     return instance
   }
   const storage = storageFromUrl(url)
@@ -135,6 +136,24 @@ export function getDb(): Sequelize {
     retry: { max: 3 },
   })
   return instance
+}
+
+/**
+ * PostgreSQL folds unquoted names to lower case, so `SELECT o.organisation_id AS organisationId` would answer
+ * `organisationid`; SQLite keeps the case as written. Raw statements name their aliases unquoted for both, so on
+ * PostgreSQL every mixed-case alias (and its uses in ORDER BY etc.) is quoted before the statement is sent.
+ */
+export function quoteMixedCaseAliases(sql: string): string {
+  const names = new Set<string>()
+  for (const m of sql.matchAll(/\bAS\s+([a-z_][A-Za-z0-9_]*)/g)) if (/[A-Z]/.test(m[1]!)) names.add(m[1]!)
+  if (!names.size) return sql
+  const word = new RegExp(`(?<![\\w."':$@])(${[...names].join('|')})(?![\\w"])`, 'g')
+  return sql.replace(word, '"$1"')
+}
+
+function keepAliasCase(db: Sequelize): void {
+  const query = db.query.bind(db) as (sql: unknown, options?: unknown) => Promise<unknown>
+  ;(db as unknown as { query: typeof query }).query = (sql, options) => query(typeof sql === 'string' ? quoteMixedCaseAliases(sql) : sql, options)
 }
 
 const INT8_OID = 20

@@ -133,3 +133,20 @@ export function jsonValue(expr: string, type: 'int' | 'text' = 'int'): string {
   if (getDb().getDialect() !== 'postgres') return expr
   return type === 'int' ? `(${expr}#>>'{}')::bigint` : `(${expr}#>>'{}')`
 }
+
+/** A bound parameter or expression given a PostgreSQL type where it cannot be inferred (a SELECT list feeding an INSERT). */
+export function typed(expr: string, pgType: 'integer' | 'bigint' | 'timestamptz' | 'text'): string {
+  return getDb().getDialect() === 'postgres' ? `CAST(${expr} AS ${pgType})` : expr
+}
+
+/** `SELECT <expr values of the rows of from, joined with commas in orderBy order> AS <alias>` (NULL for no rows). */
+export function joinedInOrder(expr: string, orderBy: string, from: string, alias: string): string {
+  return getDb().getDialect() === 'postgres'
+    ? `SELECT string_agg(CAST(${expr} AS TEXT), ',' ORDER BY ${orderBy}) AS ${alias} FROM ${from}`
+    : `SELECT GROUP_CONCAT(${expr}) AS ${alias} FROM (SELECT ${expr} FROM ${from} ORDER BY ${orderBy})`
+}
+
+/** ` FOR UPDATE` on PostgreSQL (locks the rows read until the transaction ends); SQLite's one writer needs none. */
+export function forUpdate(): string {
+  return getDb().getDialect() === 'postgres' ? ' FOR UPDATE' : ''
+}

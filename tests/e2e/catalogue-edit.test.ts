@@ -4,7 +4,7 @@
  */
 import { beforeAll, describe, expect, it } from 'vitest'
 import { setup } from '@nuxt/test-utils/e2e'
-import sqlite3 from 'sqlite3'
+import { dbAll } from '../support/db'
 import { as, Client, env, people } from '../support/api'
 
 await setup({ host: env().baseUrl })
@@ -21,8 +21,7 @@ beforeAll(async () => {
   pennon = (await mgr.get('/api/vehicles/facets?make=Veltra&model=Pennon&year=2020')).body.variants[0].vehicleId
 })
 function audits(entityId: string): Promise<{ action: string; actor: number; changes: string }[]> {
-  const d = new sqlite3.Database(env().dbPath, sqlite3.OPEN_READONLY)
-  return new Promise((res, rej) => d.all('SELECT action, actor_user_id AS actor, changes FROM audit_log WHERE entity_id = ? ORDER BY id', [entityId], (e, rows) => { d.close(); if (e) rej(e); else res(rows as never) }))
+  return dbAll('SELECT action, actor_user_id AS "actor", changes FROM audit_log WHERE entity_id = ? ORDER BY id', [entityId])
 }
 const skus = (body: { data: { sku: string }[] }) => body.data.map((r) => r.sku)
 

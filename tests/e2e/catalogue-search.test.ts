@@ -1,7 +1,7 @@
 /** Catalogue e2e: part search ranking, OE numbers and typos, supersession, spec-range filters, paging, bad input. */
 import { beforeAll, describe, expect, it } from 'vitest'
 import { setup } from '@nuxt/test-utils/e2e'
-import sqlite3 from 'sqlite3'
+import { dbAll } from '../support/db'
 import { as, type Client, env, people } from '../support/api'
 
 await setup({ host: env().baseUrl })
@@ -15,10 +15,7 @@ const search = async (query: Record<string, string>) => {
   expect(r.status, r.text).toBe(200)
   return r.body as { data: Row[]; meta: { page: number; pageSize: number; total: number; pages: number } }
 }
-function dbRows<T>(sql: string): Promise<T[]> {
-  const d = new sqlite3.Database(env().dbPath, sqlite3.OPEN_READONLY)
-  return new Promise((res, rej) => d.all(sql, (e, rows) => { d.close(); if (e) rej(e); else res(rows as T[]) }))
-}
+const dbRows = <T>(sql: string): Promise<T[]> => dbAll<T>(sql)
 
 describe('search ranking', () => {
   it('puts the exact SKU first, then SKUs that start with it', async () => {

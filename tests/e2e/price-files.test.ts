@@ -4,7 +4,7 @@
  * e2e files see the demo prices; new parts use our own SKUs (PLT-…), which stay behind as discontinued.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import sqlite3 from 'sqlite3'
+import { openTestDb, type TestDb } from '../support/db'
 import ExcelJS from 'exceljs'
 import { parse as parseCsvSync } from 'csv-parse/sync'
 import { all as mathAll, create } from 'mathjs'
@@ -17,9 +17,9 @@ import { buildZip } from '../unit/price-files/zip-fixture'
 
 // ---------------------------------------------------------------------------------------------- helpers
 
-let db: sqlite3.Database
+let db: TestDb
 function all<T = Record<string, unknown>>(sql: string, params: unknown[] = []): Promise<T[]> {
-  return new Promise((res, rej) => db.all(sql, params, (err, rows) => (err ? rej(err) : res(rows as T[]))))
+  return db.all<T>(sql, params)
 }
 async function one<T = Record<string, unknown>>(sql: string, params: unknown[] = []): Promise<T> {
   return (await all<T>(sql, params))[0]!
@@ -102,11 +102,11 @@ let counter: Client
 let admin: Client
 
 beforeAll(async () => {
-  db = new sqlite3.Database(env().dbPath, sqlite3.OPEN_READONLY)
+  db = openTestDb()
   counter = await as(people.counter)
   admin = await as(people.admin)
 })
-afterAll(() => new Promise<void>((res) => db.close(() => res())))
+afterAll(() => db.close())
 
 const HEAD = ['sku', 'description', 'type', 'list_price', 'trade_cost', 'core_deposit', 'pack_quantity']
 

@@ -14,6 +14,7 @@ import { as, Client, DEMO_PASSWORD, env, people } from '../support/api'
 import { freePort } from '../support/global-setup'
 import { sendAndReadLink, startQuote } from '../support/quotes'
 import { serverNodeArgs } from '../../scripts/server-process.mjs'
+import { onPostgres } from '../support/db'
 
 await setup({ host: env().baseUrl })
 
@@ -88,14 +89,20 @@ describe('over HTTPS', () => {
   let base = ''
 
   beforeAll(async () => {
-    const copy = join(env().tmpDir, `https-${Date.now()}.sqlite`)
-    const vacuum = spawnSync('sqlite3', [env().dbPath, `VACUUM INTO '${copy}'`], { encoding: 'utf8' })
-    if (vacuum.status !== 0) throw new Error(vacuum.stderr)
+    // SQLite: a copy of the database, so the second server never writes to the first one's file; PostgreSQL
+    // takes a second process on the same database
+    let databaseUrl = env().databaseUrl
+    if (!onPostgres()) {
+      const copy = join(env().tmpDir, `https-${Date.now()}.sqlite`)
+      const vacuum = spawnSync('sqlite3', [env().dbPath, `VACUUM INTO '${copy}'`], { encoding: 'utf8' })
+      if (vacuum.status !== 0) throw new Error(vacuum.stderr)
+      databaseUrl = `sqlite:${copy}`
+    }
     const port = await freePort()
     base = `http://127.0.0.1:${port}`
     server = spawn(process.execPath, [...serverNodeArgs(), join(outDir, 'server/index.mjs')], {
       env: {
-        ...process.env, ...env().scriptEnv, NODE_ENV: 'production', HOST: '127.0.0.1', PORT: String(port), DATABASE_URL: `sqlite:${copy}`,
+        ...process.env, ...env().scriptEnv, NODE_ENV: 'production', HOST: '127.0.0.1', PORT: String(port), DATABASE_URL: databaseUrl,
         NUXT_PUBLIC_ORIGIN: 'https://boreline.example', NUXT_UPLOADS_DIR: join(env().tmpDir, 'https-uploads'),
         BORELINE_ORDER_SWEEP_SECONDS: '0', BORELINE_SEARCH_INDEX_AT_START: '0', BORELINE_SECURITY_LOG: join(env().tmpDir, 'https-security.log'),
       },

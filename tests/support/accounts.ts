@@ -6,11 +6,11 @@
  * that fails sign-ins on purpose must do it from an address of its own (`fromAddress`), or the other
  * test files would be locked out for 15 minutes.
  */
-import { execFileSync } from 'node:child_process'
 import { existsSync, readdirSync, statSync } from 'node:fs'
 import { request as httpRequest } from 'node:http'
 import { join } from 'node:path'
 import { Client, env, waitForMail, type Res } from './api'
+import { dbRowsSync } from './db'
 
 let counter = 0
 /** A name nobody else uses in this run. */
@@ -146,10 +146,9 @@ export async function linkToken(to: string, subject: RegExp, path: 'reset' | 'in
 
 // ------------------------------------------------------------------ looking at what was stored
 
-/** Rows from the e2e database, opened read-only with the sqlite3 command-line tool. */
+/** Rows from the e2e database, read with its command-line client (SQLite or PostgreSQL). */
 export function dbRows<T = Record<string, unknown>>(sql: string): T[] {
-  const out = execFileSync('sqlite3', ['-readonly', '-json', env().dbPath, sql], { encoding: 'utf8' }).trim()
-  return out ? JSON.parse(out) as T[] : []
+  return dbRowsSync<T>(sql)
 }
 
 export function dbValue<T = unknown>(sql: string): T {

@@ -49,7 +49,7 @@ export async function runReminderJob(at: Date): Promise<string> {
   try {
     const r = await promisify(execFile)('npx', ['tsx', 'scripts/reminders-run.ts', '--now', at.toISOString()], {
       cwd: resolve(import.meta.dirname, '../..'), encoding: 'utf8',
-      env: { ...process.env, DATABASE_URL: `sqlite:${e.dbPath}`, NUXT_SMTP_HOST: '127.0.0.1', NUXT_SMTP_PORT: String(e.smtpPort), NUXT_PUBLIC_ORIGIN: e.baseUrl },
+      env: { ...process.env, DATABASE_URL: e.databaseUrl, NUXT_SMTP_HOST: '127.0.0.1', NUXT_SMTP_PORT: String(e.smtpPort), NUXT_PUBLIC_ORIGIN: e.baseUrl },
     })
     return r.stdout
   } catch (err) {

@@ -2,7 +2,8 @@
  * Global setup for the e2e and browser projects: one build, one server, one throw-away database.
  * - builds the app with `nuxi build` only when a source file is newer than .output (CI: always fresh);
  * - starts the local fakes (mail catcher; payments and vehicle data when present) on free ports, in this process;
- * - migrates and seeds a database in a temporary folder, then starts `node .output/server/index.mjs`.
+ * - migrates and seeds a database in a temporary folder (or, with BORELINE_E2E_DATABASE=postgres, a fresh PostgreSQL
+ *   database on the server BORELINE_TEST_PG_URL names), then starts `node .output/server/index.mjs`.
  * Both projects share it: a second call reuses the running server (reference counted).
  */
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process'
@@ -12,6 +13,7 @@ import { tmpdir } from 'node:os'
 import { join, resolve } from 'node:path'
 import type { TestProject } from 'vitest/node'
 import { serverNodeArgs } from '../../scripts/server-process.mjs'
+import { freshPgDatabase, pgAdminUrl } from './pg-database'
 
 const root = resolve(import.meta.dirname, '../..')
 // BORELINE_BUILD_DIR lets several work trees (or engineers) build and test side by side
@@ -25,7 +27,11 @@ interface Shared {
   dir: string
 }
 export interface TestEnv {
-  baseUrl: string; mailUrl: string; paymentsUrl: string; dbPath: string; uploadsDir: string; tmpDir: string
+  baseUrl: string; mailUrl: string; paymentsUrl: string; uploadsDir: string; tmpDir: string
+  /** the SQLite file ('' on PostgreSQL) */
+  dbPath: string
+  /** DATABASE_URL of the run: sqlite:<dbPath> or postgres://… */
+  databaseUrl: string
   smtpPort: number; vehicleDataUrl: string
   /** the server process, for tests that watch its memory */
   serverPid: number
@@ -88,6 +94,13 @@ async function start(): Promise<Shared> {
   const uploadsDir = join(dir, 'uploads')
   mkdirSync(uploadsDir)
   const closers: (() => Promise<void>)[] = []
+  let databaseUrl = `sqlite:${dbPath}`
+  const pgServer = pgAdminUrl()
+  if (pgServer) {
+    const fresh = await freshPgDatabase(pgServer, `boreline_e2e_${process.pid}`)
+    databaseUrl = fresh.url
+    closers.push(fresh.drop)
+  }
 
   const { createMailCatcher } = await import('../../fakes/mail/server')
   const mail = createMailCatcher({ smtpPort: 0, httpPort: 0 })
@@ -125,7 +138,7 @@ async function start(): Promise<Shared> {
     HOST: '127.0.0.1',
     PORT: String(appPort),
     UV_THREADPOOL_SIZE: '16',
-    DATABASE_URL: `sqlite:${dbPath}`,
+    DATABASE_URL: databaseUrl,
     NUXT_SESSION_PASSWORD: 'e2e-session-password-0123456789-abcdefghijkl',
     NUXT_MFA_KEY: 'e2e-second-factor-key-0123456789-abcdefghij',
     BORELINE_SECURITY_LOG: join(dir, 'security.log'),
@@ -155,7 +168,7 @@ async function start(): Promise<Shared> {
   return {
     refs: 0, server, closers, dir,
     env: {
-      baseUrl, mailUrl: `http://127.0.0.1:${httpPort}`, paymentsUrl, dbPath, uploadsDir, tmpDir, smtpPort, vehicleDataUrl,
+      baseUrl, mailUrl: `http://127.0.0.1:${httpPort}`, paymentsUrl, dbPath: pgServer ? '' : dbPath, databaseUrl, uploadsDir, tmpDir, smtpPort, vehicleDataUrl,
       serverPid: server.pid!, securityLog: String(env.BORELINE_SECURITY_LOG),
       scriptEnv: { DATABASE_URL: String(env.DATABASE_URL), NUXT_MFA_KEY: String(env.NUXT_MFA_KEY), NUXT_SESSION_PASSWORD: String(env.NUXT_SESSION_PASSWORD) },
     },

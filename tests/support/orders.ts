@@ -22,7 +22,7 @@ export const WEBHOOK_SECRET = 'whsec_boreline_test_secret'
 let bound = false
 export function models(): void {
   if (bound) return
-  process.env.DATABASE_URL = `sqlite:${env().dbPath}`
+  process.env.DATABASE_URL = env().databaseUrl
   initModels(getDb())
   bound = true
 }

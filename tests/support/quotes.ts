@@ -14,7 +14,7 @@ let bound = false
 /** Binds the app's models to the e2e database (the same file the server uses). */
 export function quoteDb(): void {
   if (bound) return
-  process.env.DATABASE_URL = `sqlite:${env().dbPath}`
+  process.env.DATABASE_URL = env().databaseUrl
   initModels(getDb())
   bound = true
 }

@@ -34,7 +34,7 @@ const WAITING_WITH_STOCK = (someParts: boolean) => `
   SELECT l.id, l.order_id AS orderId, o.organisation_id AS organisationId, o.placed_by_user_id AS placedByUserId,
          o.branch_id AS branchId, o.collect, l.part_id AS partId, l.sku, l.quantity
     FROM order_lines l JOIN orders o ON o.id = l.order_id
-   WHERE l.state = 'waiting' AND o.status IN (:live) AND o.stock_held = 1 ${someParts ? 'AND l.part_id IN (:parts)' : ''}
+   WHERE l.state = 'waiting' AND o.status IN (:live) AND o.stock_held = true ${someParts ? 'AND l.part_id IN (:parts)' : ''}
      AND EXISTS (SELECT 1 FROM stock_levels s WHERE s.part_id = l.part_id AND s.branch_id = o.branch_id AND s.quantity > 0)`
 
 /** Fills waiting lines from the shelves, oldest order first (optionally only for some parts). */

@@ -7,6 +7,7 @@ import { Op, QueryTypes, type Transaction } from 'sequelize'
 import { Branch } from '../../models/accounts'
 import { DeliveryRun } from '../../models/counter'
 import { getDb } from '../../utils/db'
+import { forUpdate } from '../../utils/sql'
 import type { BranchSchedule } from '../../../shared/types/orders'
 import type { BranchTimes } from './promise'
 import { stockKey } from './supply-plan'
@@ -47,7 +48,8 @@ export async function availableStock(partIds: number[], t?: Transaction): Promis
   const ids = [...new Set(partIds)]
   const [shelf, waiting] = await Promise.all([
     getDb().query<{ partId: number; branchId: number; quantity: number }>(
-      'SELECT part_id AS partId, branch_id AS branchId, quantity FROM stock_levels WHERE part_id IN (:ids)',
+      // inside a write (t): PostgreSQL locks the shelves until it ends, so a concurrent order plans on what this one leaves
+      `SELECT part_id AS partId, branch_id AS branchId, quantity FROM stock_levels WHERE part_id IN (:ids)${t ? ` ORDER BY part_id, branch_id${forUpdate()}` : ''}`,
       { replacements: { ids }, type: QueryTypes.SELECT, transaction: t },
     ),
     getDb().query<{ partId: number; branchId: number; quantity: number }>(

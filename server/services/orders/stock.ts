@@ -5,11 +5,12 @@
  * order's branch, or the branch a transfer comes from); a back-ordered line holds nothing until stock arrives.
  * Plain Node.
  */
-import { QueryTypes, type Transaction } from 'sequelize'
+import type { Transaction } from 'sequelize'
 import type { Branch } from '../../models/accounts'
 import { StockLevel } from '../../models/catalogue'
 import { OrderLine, type Order } from '../../models/orders'
 import { getDb } from '../../utils/db'
+import { changedRows } from '../../utils/sql'
 import type { LineState } from '../../../shared/types/orders'
 import { DomainError } from '../errors'
 import { branchNames } from './branches'
@@ -22,20 +23,20 @@ export interface StockLine { partId: number; sku: string; quantity: number; sour
 
 /** Takes `quantity` units off the shelf if there are that many; true when taken. */
 export async function takeStock(t: Transaction, branchId: number, partId: number, quantity: number, now = new Date()): Promise<boolean> {
-  const [, changed] = await getDb().query(
+  const changed = await changedRows(
     'UPDATE stock_levels SET quantity = quantity - :q, updated_at = :now WHERE part_id = :p AND branch_id = :b AND quantity >= :q',
-    { replacements: { q: quantity, p: partId, b: branchId, now }, type: QueryTypes.UPDATE, transaction: t },
-  ) as unknown as [unknown, number]
+    { replacements: { q: quantity, p: partId, b: branchId, now }, transaction: t },
+  )
   return changed === 1
 }
 
-/** Puts units on the shelf (a row is made for a part the branch never stocked). */
+/** Puts units on the shelf (a row is made for a part the branch never stocked; one statement, so two processes cannot both make it). */
 export async function putStock(t: Transaction, branchId: number, partId: number, quantity: number, now = new Date()): Promise<void> {
-  const [, changed] = await getDb().query(
-    'UPDATE stock_levels SET quantity = quantity + :q, updated_at = :now WHERE part_id = :p AND branch_id = :b',
-    { replacements: { q: quantity, p: partId, b: branchId, now }, type: QueryTypes.UPDATE, transaction: t },
-  ) as unknown as [unknown, number]
-  if (changed === 0) await StockLevel.create({ partId, branchId, quantity, updatedAt: now }, { transaction: t })
+  await getDb().query(
+    `INSERT INTO stock_levels (part_id, branch_id, quantity, updated_at) VALUES (:p, :b, :q, :now)
+     ON CONFLICT (part_id, branch_id) DO UPDATE SET quantity = stock_levels.quantity + excluded.quantity, updated_at = excluded.updated_at`,
+    { replacements: { q: quantity, p: partId, b: branchId, now }, transaction: t },
+  )
 }
 
 const holds = (l: StockLine) => !l.state || HOLDING_STATES.includes(l.state)

@@ -16,6 +16,7 @@
  */
 import { QueryTypes, type Transaction } from 'sequelize'
 import { getDb } from '../../utils/db'
+import { jsonAt, jsonElements, joinedInOrder } from '../../utils/sql'
 import type { ChangeKind } from '../../../shared/types/price-files'
 
 export type PriceCheckFinding = [
@@ -63,8 +64,9 @@ export function expandFinding(kind: string, v: unknown[]): PriceCheckFinding {
 
 /** SQL for one position of a finding held in `alias.v` (a row of `findingsOf`). */
 export function col(name: keyof typeof F, alias = 'f'): string {
-  return `${alias}.v->>${F[name]}`
+  return jsonAt(`${alias}.v`, F[name], TEXT_FIELDS.has(name) ? 'text' : name === 'pct' ? 'real' : 'int')
 }
+const TEXT_FIELDS = new Set<keyof typeof F>(['sku', 'type', 'description', 'columns', 'reason'])
 
 /**
  * A subquery of the findings of the given kinds of the price file bound as `$1`, one row per finding (column `v`,
@@ -72,7 +74,7 @@ export function col(name: keyof typeof F, alias = 'f'): string {
  */
 export function findingsOf(kinds: string[]): string {
   const list = kinds.map((k) => `'${k.replace(/[^a-z_]/g, '')}'`).join(', ')
-  return `(SELECT j.value AS v FROM price_file_findings c, json_each(c.rows) j WHERE c.price_file_id = $1 AND c.kind IN (${list}))`
+  return `(SELECT j.value AS v FROM price_file_findings c, ${jsonElements('c.rows', 'j')} WHERE c.price_file_id = $1 AND c.kind IN (${list}))`
 }
 
 const CHUNK = 5_000
@@ -179,7 +181,7 @@ const CACHE_ENTRIES = 4
 /** Every finding of one kind of one price file, in file order (missing parts: catalogue order). */
 export async function readFindings(priceFileId: number, kind: ChangeKind, t?: Transaction): Promise<PriceCheckFinding[]> {
   const [stampRow] = await getDb().query<{ stamp: string | null }>(
-    `SELECT GROUP_CONCAT(id) AS stamp FROM (SELECT id FROM price_file_findings WHERE price_file_id = $1 AND kind = $2 ORDER BY seq)`,
+    joinedInOrder('id', 'seq', 'price_file_findings WHERE price_file_id = $1 AND kind = $2', 'stamp'),
     { bind: [priceFileId, kind], type: QueryTypes.SELECT, transaction: t },
   )
   const stamp = stampRow?.stamp ?? ''

@@ -4,6 +4,7 @@
  * and the part statuses the apply changed are undone. Only the version in use can be rolled back.
  */
 import { getDb, withWrite } from '../../utils/db'
+import { jsonAt } from '../../utils/sql'
 import { audit } from '../../utils/audit'
 import { PriceVersion } from '../../models/catalogue'
 import { PriceFile } from '../../models/price-files'
@@ -45,10 +46,11 @@ export async function rollbackPriceFile(priceFileId: number, userId: number, opt
     await q(`UPDATE price_versions SET status = 'active', activated_at = $2, updated_at = $2 WHERE id = $1`, [prev.id, now])
     // the prices this file replaced, exactly as they were ('prices': [part, new list, trade, core, pack, old list,
     // trade, core, pack, old version]); parts it priced for the first time lose that price
-    await q(`UPDATE part_prices SET list_price_minor = b.v->>5, trade_cost_minor = b.v->>6, core_deposit_minor = COALESCE(b.v->>7, 0),
-                    pack_quantity = COALESCE(b.v->>8, 1), price_version_id = b.v->>9
-               FROM ${findingsOf(['prices'])} b WHERE part_prices.part_id = b.v->>0 AND b.v->>5 IS NOT NULL AND b.v->>9 IS NOT NULL`, [priceFile.id])
-    await q(`DELETE FROM part_prices WHERE part_id IN (SELECT b.v->>0 FROM ${findingsOf(['prices'])} b WHERE b.v->>5 IS NULL OR b.v->>9 IS NULL)
+    const v = (i: number) => jsonAt('b.v', i, 'int')
+    await q(`UPDATE part_prices SET list_price_minor = ${v(5)}, trade_cost_minor = ${v(6)}, core_deposit_minor = COALESCE(${v(7)}, 0),
+                    pack_quantity = COALESCE(${v(8)}, 1), price_version_id = ${v(9)}
+               FROM ${findingsOf(['prices'])} b WHERE part_prices.part_id = ${v(0)} AND ${v(5)} IS NOT NULL AND ${v(9)} IS NOT NULL`, [priceFile.id])
+    await q(`DELETE FROM part_prices WHERE part_id IN (SELECT ${v(0)} FROM ${findingsOf(['prices'])} b WHERE ${v(5)} IS NULL OR ${v(9)} IS NULL)
                 OR part_id IN (${recorded('created')})`, [priceFile.id])
     await q(`UPDATE parts SET status = 'active', updated_at = $2 WHERE id IN (${recorded('discontinued')})`, [priceFile.id, now])
     // parts this file created or brought back have no price in the earlier version: out of use again

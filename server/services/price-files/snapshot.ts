@@ -8,6 +8,7 @@
 import { setImmediate as yieldToLoop } from 'node:timers/promises'
 import { QueryTypes } from 'sequelize'
 import { getDb } from '../../utils/db'
+import { jsonArray, jsonArrayAgg } from '../../utils/sql'
 import { Branch } from '../../models/accounts'
 import { activePriceVersionId } from '../price-versions'
 import type { CurrentPart } from './rows'
@@ -97,7 +98,7 @@ export class CatalogueSnapshot {
   static async load(): Promise<CatalogueSnapshot> {
     const snap = new CatalogueSnapshot()
     await inSlices(
-      `SELECT json_group_array(json_array(p.id, p.sku, p.status, pr.list_price_minor, pr.trade_cost_minor, pr.core_deposit_minor, pr.pack_quantity, pr.price_version_id)) AS rows
+      `SELECT ${jsonArrayAgg(jsonArray('p.id', 'p.sku', 'p.status', 'pr.list_price_minor', 'pr.trade_cost_minor', 'pr.core_deposit_minor', 'pr.pack_quantity', 'pr.price_version_id'))} AS rows
          FROM parts p LEFT JOIN part_prices pr ON pr.part_id = p.id WHERE p.id > $1 AND p.id <= $2`,
       (rows) => {
         for (const r of rows as [number, string, string, number | null, number | null, number | null, number | null, number | null][]) {
@@ -115,7 +116,7 @@ export class CatalogueSnapshot {
     const column = new Map(branches.map((b, i) => [b.id, i]))
     this.stock = new Int32Array(this.size * w).fill(-1)
     await inSlices(
-      'SELECT json_group_array(json_array(part_id, branch_id, quantity)) AS rows FROM stock_levels WHERE part_id > $1 AND part_id <= $2',
+      `SELECT ${jsonArrayAgg(jsonArray('part_id', 'branch_id', 'quantity'))} AS rows FROM stock_levels WHERE part_id > $1 AND part_id <= $2`,
       (rows) => {
         for (const [partId, branchId, quantity] of rows as [number, number, number][]) {
           const i = this.slotOfId(partId)

@@ -10,6 +10,7 @@
  */
 import { QueryTypes, type Transaction } from 'sequelize'
 import { getDb } from '../../utils/db'
+import { jsonArrayAgg, jsonAt, jsonElements, jsonEntries, jsonPart, jsonValue, typed } from '../../utils/sql'
 import { PriceVersion } from '../../models/catalogue'
 import type { PriceFile } from '../../models/price-files'
 import type { MissingAction } from '../../../shared/types/price-files'
@@ -72,15 +73,17 @@ export async function buildVersion(t: Transaction, priceFile: PriceFile, reserve
   )
   if (clash) throw conflict(`A part with SKU ${clash.sku} was added to the catalogue after this file was checked. Check the file again before applying it.`)
 
+  const at = typed('$2', 'timestamptz')
   await q(`INSERT INTO parts (sku, type, product_line, description, specs, status, created_at, updated_at)
-           SELECT ${col('sku')}, ${col('type')}, '', ${col('description')}, '{}', 'active', $2, $2 FROM ${findingsOf(['new'])} f`, [u, now])
+           SELECT ${col('sku')}, ${col('type')}, '', ${col('description')}, '{}', 'active', ${at}, ${at} FROM ${findingsOf(['new'])} f`, [u, now])
   await record(t, u, 'created', `SELECT p.id FROM ${findingsOf(['new'])} f JOIN parts p ON p.sku = ${col('sku')}`)
 
   // the file's prices, for the parts whose prices move ('prices': [partId, list, trade, core, pack]) and the new parts
   await q(`INSERT INTO part_prices (part_id, list_price_minor, trade_cost_minor, core_deposit_minor, pack_quantity, price_version_id)
-           SELECT f.v->>0, f.v->>1, f.v->>2, COALESCE(f.v->>3, 0), COALESCE(f.v->>4, 1), $2 FROM ${findingsOf(['prices'])} f
+           SELECT ${jsonAt('f.v', 0, 'int')}, ${jsonAt('f.v', 1, 'int')}, ${jsonAt('f.v', 2, 'int')}, COALESCE(${jsonAt('f.v', 3, 'int')}, 0),
+                  COALESCE(${jsonAt('f.v', 4, 'int')}, 1), ${typed('$2', 'integer')} FROM ${findingsOf(['prices'])} f
            UNION ALL
-           SELECT p.id, ${col('newList')}, ${col('newTrade')}, COALESCE(${col('newCore')}, 0), COALESCE(${col('newPack')}, 1), $2
+           SELECT p.id, ${col('newList')}, ${col('newTrade')}, COALESCE(${col('newCore')}, 0), COALESCE(${col('newPack')}, 1), ${typed('$2', 'integer')}
              FROM ${findingsOf(['new'])} f JOIN parts p ON p.sku = ${col('sku')} WHERE true
            ON CONFLICT (part_id) DO UPDATE SET list_price_minor = excluded.list_price_minor, trade_cost_minor = excluded.trade_cost_minor,
              core_deposit_minor = excluded.core_deposit_minor, pack_quantity = excluded.pack_quantity, price_version_id = excluded.price_version_id`, [u, reserved.id])
@@ -90,15 +93,15 @@ export async function buildVersion(t: Transaction, priceFile: PriceFile, reserve
     await q(`UPDATE parts SET status = 'discontinued', updated_at = $2 WHERE id IN (${recorded('discontinued')})`, [u, now])
   }
   // discontinued parts that the file prices again are back in use
-  await record(t, u, 'reactivated', `SELECT p.id FROM ${findingsOf(['revive'])} f JOIN parts p ON p.id = f.v WHERE p.status = 'discontinued'`)
+  await record(t, u, 'reactivated', `SELECT p.id FROM ${findingsOf(['revive'])} f JOIN parts p ON p.id = ${jsonValue('f.v')} WHERE p.status = 'discontinued'`)
   await q(`UPDATE parts SET status = 'active', updated_at = $2 WHERE id IN (${recorded('reactivated')})`, [u, now])
   // stock per branch: the counts the check found moving ('stock': [partId, { branch: count }]) and the new parts' counts
   await q(`INSERT INTO stock_levels (part_id, branch_id, quantity, updated_at)
-           SELECT x.id, b.id, CAST(s.value AS INTEGER), $2
-             FROM (SELECT f.v->>0 AS id, f.v->'$[1]' AS stock FROM ${findingsOf(['stock'])} f
+           SELECT x.id, b.id, CAST(s.value AS INTEGER), ${at}
+             FROM (SELECT ${jsonAt('f.v', 0, 'int')} AS id, ${jsonPart('f.v', 1)} AS stock FROM ${findingsOf(['stock'])} f
                    UNION ALL
-                   SELECT p.id AS id, f.v->'$[${F.stock}]' AS stock FROM ${findingsOf(['new'])} f JOIN parts p ON p.sku = ${col('sku')}
-                    WHERE ${col('stock')} IS NOT NULL) x, json_each(x.stock) s JOIN branches b ON b.code = s.key
+                   SELECT p.id AS id, ${jsonPart('f.v', F.stock)} AS stock FROM ${findingsOf(['new'])} f JOIN parts p ON p.sku = ${col('sku')}
+                    WHERE ${col('stock')} IS NOT NULL) x, ${jsonEntries('x.stock', 's')} JOIN branches b ON b.code = s.key
             WHERE true
            ON CONFLICT (part_id, branch_id) DO UPDATE SET quantity = excluded.quantity, updated_at = excluded.updated_at
              WHERE stock_levels.quantity <> excluded.quantity`, [u, now])
@@ -117,10 +120,10 @@ const APPLY_RECORDS = ['created', 'discontinued', 'reactivated']
 /** Records the part ids `select` returns under `kind` (one chunk). */
 async function record(t: Transaction, priceFileId: number, kind: string, select: string): Promise<void> {
   await getDb().query(`INSERT INTO price_file_findings (price_file_id, kind, seq, size, rows)
-                       SELECT $1, '${kind}', 0, COUNT(*), COALESCE(json_group_array(x.id), '[]') FROM (${select}) x`, { bind: [priceFileId], transaction: t })
+                       SELECT ${typed('$1', 'integer')}, '${kind}', 0, COUNT(*), COALESCE(${jsonArrayAgg('x.id')}, '[]') FROM (${select}) x`, { bind: [priceFileId], transaction: t })
 }
 
 /** SQL for the part ids recorded under `kind` for the price file bound as $1. */
 export function recorded(kind: 'created' | 'discontinued' | 'reactivated'): string {
-  return `SELECT r.value FROM price_file_findings f, json_each(f.rows) r WHERE f.price_file_id = $1 AND f.kind = '${kind}'`
+  return `SELECT ${jsonValue('r.value')} FROM price_file_findings f, ${jsonElements('f.rows', 'r')} WHERE f.price_file_id = $1 AND f.kind = '${kind}'`
 }
