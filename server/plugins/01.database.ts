@@ -1,11 +1,12 @@
 /**
  * At start: refuse a weak session secret in production, create the uploads folder (generated, never in the
- * repository), then migrate and bind the models. WAL checkpoints run in the background (server/utils/db.ts).
+ * repository), then migrate and bind the models. WAL checkpoints run in the background (server/utils/db.ts); on
+ * PostgreSQL the process listens for the other processes' writes.
  */
 import { mkdirSync } from 'node:fs'
 import { resolve } from 'node:path'
 import { databaseReady } from '../utils/ready'
-import { checkpointInBackground, closeDb } from '../utils/db'
+import { checkpointInBackground, closeDb, listenForWrites } from '../utils/db'
 
 export default defineNitroPlugin((nitro) => {
   const config = useRuntimeConfig()
@@ -20,5 +21,7 @@ export default defineNitroPlugin((nitro) => {
   mkdirSync(resolve(String(config.uploadsDir || './uploads')), { recursive: true })
   checkpointInBackground() // before the first query opens a connection
   databaseReady().catch((err) => console.error('[boreline] database not ready:', err?.message ?? err))
+  // PostgreSQL: hear the other processes' writes, so this one's caches drop with them
+  listenForWrites().catch((err) => console.error('[boreline] not listening for writes:', err?.message ?? err))
   nitro.hooks.hook('close', async () => { await closeDb() })
 })

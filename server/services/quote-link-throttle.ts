@@ -6,7 +6,7 @@
  *    address is refused until the window ends, so tokens cannot be guessed even slowly from one address.
  * Guessing is hopeless anyway (256-bit tokens); this keeps the cost of trying, and the noise, down.
  */
-import { RateLimiterMemory } from 'rate-limiter-flexible'
+import { Limiter } from './limiter'
 import { take } from './throttle'
 
 export const LINK_LIMITS = {
@@ -14,8 +14,8 @@ export const LINK_LIMITS = {
   misses: { points: 10, durationSeconds: 15 * 60 },
 }
 
-const requests = new RateLimiterMemory({ keyPrefix: 'quote-link', points: LINK_LIMITS.requests.points, duration: LINK_LIMITS.requests.durationSeconds })
-const misses = new RateLimiterMemory({ keyPrefix: 'quote-link-miss', points: LINK_LIMITS.misses.points, duration: LINK_LIMITS.misses.durationSeconds })
+const requests = new Limiter({ keyPrefix: 'quote-link', points: LINK_LIMITS.requests.points, duration: LINK_LIMITS.requests.durationSeconds })
+const misses = new Limiter({ keyPrefix: 'quote-link-miss', points: LINK_LIMITS.misses.points, duration: LINK_LIMITS.misses.durationSeconds })
 
 /** null when the request may go ahead, else the seconds to wait. */
 export async function admitLinkRequest(address: string): Promise<number | null> {

@@ -1,5 +1,6 @@
 /**
- * Throttles, with rate-limiter-flexible (atomic counters in this process), keyed on the socket's address (never
+ * Throttles, with rate-limiter-flexible (atomic counters in this process; shared by every process on PostgreSQL,
+ * see ./limiter.ts), keyed on the socket's address (never
  * `X-Forwarded-For`: anyone can send that header).
  *
  * Password guessing is held back without letting anyone lock the owner out of their own account:
@@ -14,7 +15,8 @@
  * Also here: the forgotten-password requests (quietly capped), the e-mailed links (reset, invitation) and trade
  * applications per address, and second-factor codes per person.
  */
-import { RateLimiterMemory, RateLimiterRes } from 'rate-limiter-flexible'
+import { RateLimiterRes } from 'rate-limiter-flexible'
+import { Limiter } from './limiter'
 import { DomainError } from './errors'
 import { securityEvent } from './security-log'
 
@@ -23,27 +25,27 @@ export const SIGN_IN_LIMIT = { pointsPerPair: 10, pointsPerAddress: 30, duration
 export const FREE_FAILURES = 5
 export const MAX_DELAY_MS = 8_000
 
-const byPair = new RateLimiterMemory({ keyPrefix: 'sign-in-pair', points: SIGN_IN_LIMIT.pointsPerPair, duration: MINUTES_15 })
-const byAddress = new RateLimiterMemory({ keyPrefix: 'sign-in-ip', points: SIGN_IN_LIMIT.pointsPerAddress, duration: MINUTES_15 })
+const byPair = new Limiter({ keyPrefix: 'sign-in-pair', points: SIGN_IN_LIMIT.pointsPerPair, duration: MINUTES_15 })
+const byAddress = new Limiter({ keyPrefix: 'sign-in-ip', points: SIGN_IN_LIMIT.pointsPerAddress, duration: MINUTES_15 })
 // failures per e-mail only set the delay: never refused here
-const byEmail = new RateLimiterMemory({ keyPrefix: 'sign-in-email', points: 1_000_000, duration: MINUTES_15 })
+const byEmail = new Limiter({ keyPrefix: 'sign-in-email', points: 1_000_000, duration: MINUTES_15 })
 // a used reset link starts the e-mail's pairs afresh: its generation is part of their keys
 const generations = new Map<string, number>()
 // forgotten-password requests: quietly capped so the form cannot be used to flood someone's inbox
-const resetByEmail = new RateLimiterMemory({ keyPrefix: 'reset-email', points: 3, duration: MINUTES_15 })
-const resetByAddress = new RateLimiterMemory({ keyPrefix: 'reset-ip', points: 20, duration: MINUTES_15 })
+const resetByEmail = new Limiter({ keyPrefix: 'reset-email', points: 3, duration: MINUTES_15 })
+const resetByAddress = new Limiter({ keyPrefix: 'reset-ip', points: 20, duration: MINUTES_15 })
 // every request that presents an e-mailed link (reset, invitation): reading it and using it
 export const LINK_LIMIT = { points: 60, durationSeconds: MINUTES_15 }
-const linksByAddress = new RateLimiterMemory({ keyPrefix: 'account-link-ip', points: LINK_LIMIT.points, duration: LINK_LIMIT.durationSeconds })
+const linksByAddress = new Limiter({ keyPrefix: 'account-link-ip', points: LINK_LIMIT.points, duration: LINK_LIMIT.durationSeconds })
 // trade applications: each creates a garage, a person and a stored document
 export const APPLICATION_LIMIT = { points: 10, durationSeconds: 60 * 60 }
-const applicationsByAddress = new RateLimiterMemory({ keyPrefix: 'application-ip', points: APPLICATION_LIMIT.points, duration: APPLICATION_LIMIT.durationSeconds })
+const applicationsByAddress = new Limiter({ keyPrefix: 'application-ip', points: APPLICATION_LIMIT.points, duration: APPLICATION_LIMIT.durationSeconds })
 // wrong second-factor codes per person
 export const CODE_LIMIT = { points: 10, durationSeconds: MINUTES_15 }
-const codesByUser = new RateLimiterMemory({ keyPrefix: 'mfa-user', points: CODE_LIMIT.points, duration: CODE_LIMIT.durationSeconds })
+const codesByUser = new Limiter({ keyPrefix: 'mfa-user', points: CODE_LIMIT.points, duration: CODE_LIMIT.durationSeconds })
 
 /** Takes one point for `key`: null when it was free, else the seconds until the next one is. */
-export async function take(limiter: RateLimiterMemory, key: string): Promise<number | null> {
+export async function take(limiter: Limiter, key: string): Promise<number | null> {
   try {
     await limiter.consume(key, 1)
     return null

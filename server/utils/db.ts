@@ -174,6 +174,7 @@ function integerNumbers(db: Sequelize): void {
 }
 
 export async function closeDb(): Promise<void> {
+  await stopListening()
   await finalCheckpoint()
   if (instance) await instance.close()
   instance = undefined
@@ -215,7 +216,12 @@ async function withPgWrite<T>(fn: (t: Transaction) => Promise<T>): Promise<T> {
   for (let attempt = 1; ; attempt++) {
     pgWritesRunning++
     try {
-      return await getDb().transaction((t) => currentTx.run(t, () => fn(t)))
+      return await getDb().transaction((t) => currentTx.run(t, async () => {
+        const out = await fn(t)
+        // delivered to the other processes only if this commits (see listenForWrites)
+        await getDb().query('SELECT pg_notify(:channel, :me)', { replacements: { channel: WRITES_CHANNEL, me: INSTANCE }, transaction: t })
+        return out
+      }))
     } catch (err) {
       if (attempt >= WRITE_ATTEMPTS || !RETRIED_CODES.has(sqlState(err) ?? '')) throw err
       // a short random pause so the transactions that collided do not collide again
@@ -228,8 +234,50 @@ async function withPgWrite<T>(fn: (t: Transaction) => Promise<T>): Promise<T> {
 }
 let pgWritesRunning = 0
 
+// ------------------------------------------------------------------------------------------- other processes
+//
+// On PostgreSQL every committed write transaction notifies WRITES_CHANNEL; each server process listens and runs
+// the same after-write listeners for another process's writes as for its own, so caches keyed on who may see
+// what (sessions, garage pricing context) drop within milliseconds of a change made anywhere.
+const WRITES_CHANNEL = 'boreline_writes'
+const INSTANCE = `${process.pid}-${Math.random().toString(36).slice(2, 10)}`
+let listener: pg.Client | undefined
+let listening = false
+
+/** Starts listening for other processes' writes (the server calls it once at start; a no-op on SQLite). */
+export async function listenForWrites(): Promise<void> {
+  if (!isPostgres() || listening) return
+  listening = true
+  const connect = async (): Promise<void> => {
+    const client = new pg.Client({ connectionString: databaseUrl() })
+    client.on('notification', (n) => { if (n.payload !== INSTANCE) for (const l of afterWriteListeners) l() })
+    client.on('error', () => { /* 'end' follows: reconnect there */ })
+    client.on('end', () => {
+      listener = undefined
+      if (!listening) return
+      // writes made while the connection was down were not heard: treat it as a change
+      for (const l of afterWriteListeners) l()
+      setTimeout(() => { connect().catch((err) => console.error('[boreline] listening for writes:', err?.message ?? err)) }, 1000).unref()
+    })
+    await client.connect()
+    await client.query(`LISTEN ${WRITES_CHANNEL}`)
+    listener = client
+  }
+  await connect()
+}
+
+async function stopListening(): Promise<void> {
+  listening = false
+  const c = listener
+  listener = undefined
+  if (c) await c.end().catch(() => {})
+}
+
 const afterWriteListeners = new Set<() => void>()
-/** Called after every write transaction ends (committed or rolled back), before the next one starts. */
+/**
+ * Called after every write transaction ends (committed or rolled back), before the next one starts; on PostgreSQL
+ * also after another process commits one (listenForWrites).
+ */
 export function afterEveryWrite(listener: () => void): void {
   afterWriteListeners.add(listener)
 }

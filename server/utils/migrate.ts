@@ -1,7 +1,8 @@
 import { SequelizeStorage, Umzug } from 'umzug'
 import { QueryTypes, type QueryInterface, type Sequelize } from 'sequelize'
 import { migrations } from '../migrations/index'
-import { getDb } from './db'
+import pg from 'pg'
+import { databaseUrl, getDb } from './db'
 import { tableExists } from './sql'
 
 function migrator(sequelize: Sequelize) {
@@ -19,8 +20,26 @@ function migrator(sequelize: Sequelize) {
 
 /** Applies pending migrations; returns the names applied by this call. */
 export async function migrateUp(sequelize: Sequelize = getDb()): Promise<string[]> {
-  const done = await migrator(sequelize).up()
-  return done.map((m) => m.name)
+  return oneMigratorAtATime(sequelize, async () => (await migrator(sequelize).up()).map((m) => m.name))
+}
+
+/** Any number, the same in every process: the advisory lock the migrating process holds on PostgreSQL. */
+const MIGRATION_LOCK = 72_190_019
+
+/**
+ * Several processes starting together on one PostgreSQL database migrate one after another (an advisory lock
+ * held on its own connection); the later ones find nothing left to apply. SQLite's write lock does the same.
+ */
+async function oneMigratorAtATime<T>(sequelize: Sequelize, fn: () => Promise<T>): Promise<T> {
+  if (sequelize.getDialect() !== 'postgres') return fn()
+  const client = new pg.Client({ connectionString: databaseUrl() })
+  await client.connect()
+  try {
+    await client.query('SELECT pg_advisory_lock($1)', [MIGRATION_LOCK])
+    return await fn()
+  } finally {
+    await client.end().catch(() => {})
+  }
 }
 
 /**

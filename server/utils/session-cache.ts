@@ -11,11 +11,12 @@
  *   server/models/accounts.ts, and every committed write transaction in server/utils/db.ts), so a sign-out, a role
  *   change or a suspension counts from the very next request. {@link ROWS_TTL_MS} bounds how long a change made by
  *   another process (a CLI script) can go unseen. Requests that change something (POST, PUT, PATCH, DELETE) always
- *   read the rows afresh (session middleware).
+ *   read the rows afresh (session middleware). On PostgreSQL (several processes) the rows are always read: a
+ *   sign-out, suspension or role change made through another process then counts from its very next request.
  *
  * `BORELINE_SESSION_CACHE=0` turns both off (the benchmark measures the uncached path with it).
  */
-import { afterEveryWrite } from './db'
+import { afterEveryWrite, isPostgres } from './db'
 import type { Organisation, SessionRecord, User } from '../models/accounts'
 
 export const OPENED_TTL_MS = 10 * 60_000
@@ -93,7 +94,7 @@ afterEveryWrite(authDataChanged)
 export function rowsGeneration(): number { return generation }
 
 export function cachedSessionRows(sid: string, now = Date.now()): SessionRows | undefined {
-  if (!sessionCacheOn()) return undefined
+  if (!sessionCacheOn() || isPostgres()) return undefined
   const hit = rows.get(sid)
   if (!hit) return undefined
   if (now - hit.at >= ROWS_TTL_MS) { rows.delete(sid); return undefined }

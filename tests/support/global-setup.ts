@@ -39,6 +39,8 @@ export interface TestEnv {
   securityLog: string
   /** the environment the repository's scripts need to work on this run's database (user:create) */
   scriptEnv: Record<string, string>
+  /** the settings the server was started with (a second process on the same database starts with them too) */
+  serverEnv: Record<string, string>
 }
 
 const KEY = Symbol.for('boreline.e2e.shared')
@@ -132,8 +134,7 @@ async function start(): Promise<Shared> {
     closers.push(() => fake.close())
   }
 
-  const env: NodeJS.ProcessEnv = {
-    ...process.env,
+  const own: Record<string, string> = {
     NODE_ENV: 'production',
     HOST: '127.0.0.1',
     PORT: String(appPort),
@@ -154,6 +155,7 @@ async function start(): Promise<Shared> {
     NUXT_VEHICLE_DATA_TIMEOUT_MS: '1500',
     BORELINE_TEST_HOOKS: '1',
   }
+  const env: NodeJS.ProcessEnv = { ...process.env, ...own }
   const seed = spawnSync('npx', ['tsx', 'scripts/db-seed.ts'], { cwd: root, env, encoding: 'utf8' })
   if (seed.status !== 0) throw new Error(`seeding failed:\n${seed.stdout}\n${seed.stderr}`)
 
@@ -171,6 +173,7 @@ async function start(): Promise<Shared> {
       baseUrl, mailUrl: `http://127.0.0.1:${httpPort}`, paymentsUrl, dbPath: pgServer ? '' : dbPath, databaseUrl, uploadsDir, tmpDir, smtpPort, vehicleDataUrl,
       serverPid: server.pid!, securityLog: String(env.BORELINE_SECURITY_LOG),
       scriptEnv: { DATABASE_URL: String(env.DATABASE_URL), NUXT_MFA_KEY: String(env.NUXT_MFA_KEY), NUXT_SESSION_PASSWORD: String(env.NUXT_SESSION_PASSWORD) },
+      serverEnv: own,
     },
   }
 }

@@ -51,7 +51,7 @@ function summary(priceFile: PriceFile, names: Map<number, string>, versions: Map
     fileName: priceFile.fileName,
     fileFormat: priceFile.fileFormat,
     supplierName: priceFile.supplierName,
-    progress: priceFile.status === 'parsing' ? (live?.progress ?? 0) : priceFile.progress,
+    progress: priceFile.status === 'parsing' ? (live?.progress ?? priceFile.progress ?? 0) : priceFile.progress,
     counts: countsOf(priceFile),
     createdAt: iso(priceFile.createdAt)!,
     createdBy: names.get(priceFile.createdByUserId) ?? null,

@@ -3,8 +3,15 @@
  * checks interleaved, each would slow the other and both hold a snapshot), with the stage and progress of the one
  * running and of those waiting, for the pages that poll them. The queue lives in memory, so at start the files a
  * restart cut short are queued again.
+ *
+ * On PostgreSQL (several processes) a check is a job of the shared queue (server/utils/job-queue.ts): one process
+ * takes it, one check at a time per process, and a check cut short by a restart is taken again once its job
+ * expires. Its stage and progress are also written to the price file's row (a few times a second at most), so a
+ * page polling through another process shows them.
  */
-import { withWrite } from '../../utils/db'
+import type { NitroApp } from 'nitropack/types'
+import { isPostgres, withWrite } from '../../utils/db'
+import { jobQueue, stopJobQueue } from '../../utils/job-queue'
 import { PriceFile } from '../../models/price-files'
 import { runCheck } from './check'
 
@@ -21,6 +28,10 @@ export function liveProgress(id: number): CheckProgress | undefined {
 
 /** Queues a check (the price file must already be in status `parsing`). */
 export function enqueueCheck(id: number): void {
+  if (isPostgres()) {
+    sendCheck(id).catch((err) => console.error('[boreline] price file check not queued:', err?.message ?? err))
+    return
+  }
   if (live.has(id)) return
   live.set(id, { progress: 0, stage: 'queued' })
   waiting.push(id)
@@ -32,13 +43,9 @@ async function drain(): Promise<void> {
     while (waiting.length) {
       const id = waiting.shift()!
       try {
-        await runCheck(id, (stage, progress) => {
-          live.set(id, { stage, progress: Math.max(0, Math.min(100, Math.round(progress))) })
-        })
+        await checkOne(id)
       } catch (err) {
         console.error('[boreline] price file check crashed:', err)
-      } finally {
-        live.delete(id)
       }
     }
   } finally {
@@ -46,8 +53,52 @@ async function drain(): Promise<void> {
   }
 }
 
+async function checkOne(id: number): Promise<void> {
+  let written = 0
+  let writtenStage = ''
+  try {
+    await runCheck(id, (stage, progress) => {
+      const now = { stage, progress: Math.max(0, Math.min(100, Math.round(progress))) }
+      live.set(id, now)
+      if (!isPostgres() || (stage === writtenStage && Date.now() - written < PROGRESS_WRITE_MS)) return
+      written = Date.now()
+      writtenStage = stage
+      PriceFile.update(now, { where: { id, status: 'parsing' } }).catch(() => { /* progress only: the next one tries again */ })
+    })
+  } finally {
+    live.delete(id)
+  }
+}
+const PROGRESS_WRITE_MS = 300
+
+const CHECK_QUEUE = 'boreline-price-file-check'
+let queueMade: Promise<unknown> | undefined
+
+async function checkQueue() {
+  const boss = await jobQueue()
+  // a check cut short by a restart: its job expires and is taken again (runCheck skips a file no longer parsing)
+  queueMade ??= boss.createQueue(CHECK_QUEUE, { name: CHECK_QUEUE, policy: 'standard', retryLimit: 3, expireInSeconds: 15 * 60 })
+  await queueMade
+  return boss
+}
+
+async function sendCheck(id: number): Promise<void> {
+  await (await checkQueue()).send(CHECK_QUEUE, { id }, { singletonKey: `price-file-${id}` })
+}
+
+/** On PostgreSQL: this process takes price-file checks from the shared queue, one at a time (a no-op on SQLite). */
+export function startCheckWorker(nitro: NitroApp): void {
+  if (!isPostgres()) return
+  checkQueue()
+    .then((boss) => boss.work<{ id: number }>(CHECK_QUEUE, { pollingIntervalSeconds: 0.5 }, async ([job]) => { if (job) await checkOne(job.data.id) }))
+    .catch((err) => console.error('[boreline] price file checks not taken:', err?.message ?? err))
+  nitro.hooks.hook('close', () => stopJobQueue())
+}
+
 /** At start: checks cut short by a restart run again; an apply cut short was rolled back by SQLite. */
 export async function recoverPriceFiles(): Promise<void> {
+  // PostgreSQL: another process may be applying or checking right now; the shared queue takes interrupted checks again
+  if (isPostgres()) return
   await withWrite((t) => PriceFile.update(
     { status: 'ready', errorMessage: 'The server stopped while this file was being applied; nothing was changed. Apply it again.' },
     { where: { status: 'applying' }, transaction: t },

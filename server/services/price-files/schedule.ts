@@ -56,7 +56,8 @@ export async function activateDue(now = new Date()): Promise<number> {
 /** Applies one scheduled file in its own transaction; false when it was not applied. */
 async function activateOne(priceFileId: number): Promise<boolean> {
   return withWrite(async (t) => {
-    const fresh = await PriceFile.findByPk(priceFileId, { transaction: t })
+    // locked on PostgreSQL: a sweep in another process waits here, then finds it no longer scheduled
+    const fresh = await PriceFile.findByPk(priceFileId, { transaction: t, lock: true })
     if (!fresh || fresh.status !== 'scheduled' || !fresh.priceVersionId) return false
     const reserved = await PriceVersion.findByPk(fresh.priceVersionId, { transaction: t })
     const active = await activePriceVersionId(t)

@@ -1,19 +1,25 @@
 import { QueryTypes, type QueryInterface } from 'sequelize'
 
 /**
- * On PostgreSQL, every money column (amounts in minor units, `*_minor`) becomes BIGINT, so balances and sums that
- * grow over years of trade never overflow 32 bits. SQLite stores any integer in up to 8 bytes already: nothing
- * changes there. The driver reads BIGINT back as a JS number (server/utils/db.ts).
+ * Running on PostgreSQL with several server processes (nothing changes on SQLite):
+ * - the throttles' counters live in `rate_limits` (rate-limiter-flexible's PostgreSQL store), so every process
+ *   counts the same attempts;
+ * - every money column (amounts in minor units, `*_minor`) becomes BIGINT, so balances and sums that
+ *   grow over years of trade never overflow 32 bits (SQLite stores any integer in up to 8 bytes already); the
+ *   driver reads BIGINT back as a JS number (server/utils/db.ts).
  */
 export async function up(qi: QueryInterface): Promise<void> {
   if (qi.sequelize.getDialect() !== 'postgres') return
   for (const c of await moneyColumns(qi, 'integer')) {
     await qi.sequelize.query(`ALTER TABLE "${c.table}" ALTER COLUMN "${c.column}" TYPE BIGINT`)
   }
+  // the table as rate-limiter-flexible's PostgreSQL store defines it (made here, so processes starting together never race to make it)
+  await qi.sequelize.query('CREATE TABLE rate_limits (key VARCHAR(255) PRIMARY KEY, points INTEGER NOT NULL DEFAULT 0, expire BIGINT)')
 }
 
 export async function down(qi: QueryInterface): Promise<void> {
   if (qi.sequelize.getDialect() !== 'postgres') return
+  await qi.sequelize.query('DROP TABLE IF EXISTS rate_limits')
   for (const c of await moneyColumns(qi, 'bigint')) {
     await qi.sequelize.query(`ALTER TABLE "${c.table}" ALTER COLUMN "${c.column}" TYPE INTEGER`)
   }
