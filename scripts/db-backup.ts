@@ -1,11 +1,13 @@
 /**
  * npm run db:backup -- <file>: a consistent copy of the (possibly running) database with VACUUM INTO.
  * Copying the .sqlite file while the server runs can lose committed rows (WAL), so this never does that.
+ * On PostgreSQL: pg_dump's custom format (scripts/pg-tools.ts).
  */
 import { existsSync, mkdirSync } from 'node:fs'
 import { dirname, resolve } from 'node:path'
 import sqlite3 from 'sqlite3'
-import { databaseUrl, storageFromUrl } from '../server/utils/db'
+import { databaseUrl, dialectOfUrl, storageFromUrl } from '../server/utils/db'
+import { pgBackup } from './pg-tools'
 
 const target = process.argv[2]
 if (!target) {
@@ -16,6 +18,11 @@ const dest = resolve(target)
 if (existsSync(dest)) {
   console.error(`Refusing to overwrite ${dest}: choose a new file name.`)
   process.exit(2)
+}
+if (dialectOfUrl(databaseUrl()) === 'postgres') {
+  mkdirSync(dirname(dest), { recursive: true })
+  pgBackup(databaseUrl(), dest)
+  process.exit(0)
 }
 const source = storageFromUrl(databaseUrl())
 if (!existsSync(source)) {

@@ -4,5 +4,5 @@ import { appliedMigrationCount, migrateUp } from '../server/utils/migrate'
 
 const applied = await migrateUp(getDb())
 console.log(applied.length ? `Applied: ${applied.join(', ')}` : 'Nothing to apply.')
-console.log(`${await appliedMigrationCount(getDb())} migrations recorded in ${databaseUrl()}`)
+console.log(`${await appliedMigrationCount(getDb())} migrations recorded in ${databaseUrl().replace(/\/\/([^:/@]+):[^@]*@/, '//$1:***@')}`)
 await closeDb()

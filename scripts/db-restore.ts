@@ -1,11 +1,13 @@
 /**
  * npm run db:restore -- <file>: checks a backup (integrity_check, migrations table) and copies it into
  * DATABASE_URL with SQLite's online backup API, page by page inside SQLite's own locking: never a file copy.
+ * On PostgreSQL: pg_restore of a dump made by db:backup (scripts/pg-tools.ts).
  */
 import { existsSync } from 'node:fs'
 import { resolve } from 'node:path'
 import sqlite3 from 'sqlite3'
-import { databaseUrl, storageFromUrl } from '../server/utils/db'
+import { databaseUrl, dialectOfUrl, storageFromUrl } from '../server/utils/db'
+import { pgRestore } from './pg-tools'
 
 const file = process.argv[2]
 if (!file) {
@@ -16,6 +18,11 @@ const src = resolve(file)
 if (!existsSync(src)) {
   console.error(`No such backup file: ${src}`)
   process.exit(2)
+}
+
+if (dialectOfUrl(databaseUrl()) === 'postgres') {
+  pgRestore(databaseUrl(), src)
+  process.exit(0)
 }
 
 function all<T>(db: sqlite3.Database, sql: string): Promise<T[]> {

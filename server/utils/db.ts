@@ -167,10 +167,17 @@ function integerNumbers(db: Sequelize): void {
   const toNumber = (v: string | null) => (v === null ? null : Number(v))
   pg.types.setTypeParser(INT8_OID, toNumber)
   pg.types.setTypeParser(NUMERIC_OID, toNumber)
-  // Sequelize keeps its own parser for NUMERIC (DECIMAL as text), consulted before pg's: replace it too
-  const cm = db.connectionManager as unknown as { oidParserMap?: Map<number, unknown> }
-  cm.oidParserMap?.set(NUMERIC_OID, toNumber)
-  cm.oidParserMap?.set(INT8_OID, toNumber)
+  // Sequelize keeps its own parsers (NUMERIC as text), consulted before pg's and set again whenever models are
+  // defined: answer these two before it is asked
+  type Parsers = Map<number, unknown>
+  const ours = (m: Parsers): Parsers => {
+    const theirs = m.get.bind(m)
+    m.get = (oid: number) => (oid === INT8_OID || oid === NUMERIC_OID ? toNumber : theirs(oid))
+    return m
+  }
+  const cm = db.connectionManager as unknown as { oidParserMap: Parsers }
+  let map = ours(cm.oidParserMap)
+  Object.defineProperty(cm, 'oidParserMap', { get: () => map, set: (m: Parsers) => { map = ours(m) }, configurable: true })
 }
 
 export async function closeDb(): Promise<void> {

@@ -150,3 +150,8 @@ export function joinedInOrder(expr: string, orderBy: string, from: string, alias
 export function forUpdate(): string {
   return getDb().getDialect() === 'postgres' ? ' FOR UPDATE' : ''
 }
+
+/** LIKE that ignores the case of ASCII letters on both (SQLite's LIKE does; PostgreSQL's needs ILIKE). */
+export function likeAnyCase(): string {
+  return getDb().getDialect() === 'postgres' ? 'ILIKE' : 'LIKE'
+}

@@ -14,7 +14,8 @@ async function onServer(adminUrl: string, sql: string): Promise<void> {
 export async function freshPgDatabase(adminUrl: string, name: string): Promise<{ url: string; drop: () => Promise<void> }> {
   if (!/^[a-z0-9_]+$/.test(name)) throw new Error(`not a database name: ${name}`)
   await onServer(adminUrl, `DROP DATABASE IF EXISTS ${name} WITH (FORCE)`)
-  await onServer(adminUrl, `CREATE DATABASE ${name}`)
+  // byte-order collation: text sorts as on SQLite (BINARY), so lists come out in the same order on both
+  await onServer(adminUrl, `CREATE DATABASE ${name} TEMPLATE template0 ENCODING 'UTF8' LC_COLLATE 'C' LC_CTYPE 'C.UTF-8'`)
   const url = new URL(adminUrl)
   url.pathname = `/${name}`
   return { url: url.toString(), drop: () => onServer(adminUrl, `DROP DATABASE IF EXISTS ${name} WITH (FORCE)`) }

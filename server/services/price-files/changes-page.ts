@@ -4,6 +4,7 @@
  */
 import { QueryTypes } from 'sequelize'
 import { getDb } from '../../utils/db'
+import { likeAnyCase } from '../../utils/sql'
 import { pageOfList } from '../../utils/page'
 import type { ChangeSort, ChangesQuery } from '../../../shared/schemas/price-files'
 import type { PriceChangeRow } from '../../../shared/types/price-files'
@@ -34,7 +35,7 @@ async function matching(rows: Indexed[], needle: string): Promise<Indexed[]> {
   const lower = needle.toLowerCase()
   const like = `%${needle.replace(/[\\%_]/g, (c) => `\\${c}`)}%`
   const byDescription = new Set((await getDb().query<{ id: number }>(
-    `SELECT id FROM parts WHERE description LIKE $1 ESCAPE '\\'`, { bind: [like], type: QueryTypes.SELECT },
+    `SELECT id FROM parts WHERE description ${likeAnyCase()} $1 ESCAPE '\\'`, { bind: [like], type: QueryTypes.SELECT },
   )).map((r) => r.id))
   return rows.filter(({ f }) => (f[F.sku] ?? '').toLowerCase().includes(lower) || (f[F.description] ?? '').toLowerCase().includes(lower)
     || (f[F.partId] != null && byDescription.has(f[F.partId]!)))
