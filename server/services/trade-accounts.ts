@@ -3,7 +3,7 @@
  * and the detail (document, people, decision history). Serialisers give the shapes in
  * shared/types/trade-accounts.ts. Plain Node.
  */
-import { Op, Sequelize, type Order, type WhereOptions } from 'sequelize'
+import { Op, type Order, type WhereOptions } from 'sequelize'
 import { AuditEntry, Branch, DiscountTier, Organisation, User } from '../models/accounts'
 import { ProofDocument } from '../models/accounts-extra'
 import { LedgerEntry } from '../models/orders'
@@ -13,6 +13,7 @@ import { personView } from './staff'
 import type { TradeAccountListQuery } from '../../shared/schemas/accounts'
 import type { Page } from '../../shared/types/page'
 import type { AuditView, TradeAccountDetail, TradeAccountSummary, ProofDocumentView, TierView } from '../../shared/types/trade-accounts'
+import { containsText } from '../utils/sql'
 
 /** A garage organisation with its discount tier loaded. */
 export type Garage = Organisation & { tier?: DiscountTier | null }
@@ -47,7 +48,7 @@ const ORDER: Record<string, Order> = {
 
 /** Case-insensitive "contains" without LIKE, so % and _ in the search are plain characters. */
 function contains(column: string, q: string) {
-  return Sequelize.where(Sequelize.fn('instr', Sequelize.fn('lower', Sequelize.col(`Organisation.${column}`)), q.toLowerCase()), Op.gt, 0)
+  return containsText(`Organisation.${column}`, q)
 }
 
 /** Garages filtered by status and a search over name, contact, e-mail and tax number; sorted and paged on the server. */

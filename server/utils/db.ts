@@ -212,6 +212,7 @@ export async function withWrite<T>(fn: (t: Transaction) => Promise<T>): Promise<
 /** How many times a PostgreSQL write transaction is tried before its conflict is reported. */
 export const WRITE_ATTEMPTS = 6
 const RETRIED_CODES = new Set(['40001', '40P01']) // serialization_failure, deadlock_detected
+const UNIQUE_VIOLATION = '23505'
 
 /** The SQLSTATE of a database error (Sequelize wraps the driver's error as `parent`). */
 function sqlState(err: unknown): string | undefined {
@@ -230,7 +231,11 @@ async function withPgWrite<T>(fn: (t: Transaction) => Promise<T>): Promise<T> {
         return out
       }))
     } catch (err) {
-      if (attempt >= WRITE_ATTEMPTS || !RETRIED_CODES.has(sqlState(err) ?? '')) throw err
+      const code = sqlState(err) ?? ''
+      // a unique key taken by a transaction that committed meanwhile: once more, so the check before the insert
+      // (an idempotency key, a name already there) now sees that row and answers as it would have in turn
+      const again = RETRIED_CODES.has(code) || (code === UNIQUE_VIOLATION && attempt === 1)
+      if (attempt >= WRITE_ATTEMPTS || !again) throw err
       // a short random pause so the transactions that collided do not collide again
       await new Promise((r) => setTimeout(r, Math.random() * 20 * attempt))
     } finally {

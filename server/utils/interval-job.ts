@@ -9,7 +9,7 @@
  */
 import type { NitroApp } from 'nitropack/types'
 import { isPostgres } from './db'
-import { jobQueue, queueName, stopJobQueue } from './job-queue'
+import { ensureQueue, queueName, stopJobQueue } from './job-queue'
 import { databaseReady } from './ready'
 
 interface IntervalJob<T> { setting: string; defaultSeconds: number; name: string; run: () => Promise<T>; report: (result: T) => void }
@@ -40,9 +40,8 @@ function onceAcrossProcesses<T>(nitro: NitroApp, seconds: number, o: IntervalJob
   let timer: NodeJS.Timeout | undefined
   let closed = false
   databaseReady()
-    .then(jobQueue)
+    .then(() => ensureQueue(queue, { policy: 'singleton', retryLimit: 0, expireInSeconds: Math.max(600, seconds * 2) }))
     .then(async (boss) => {
-      await boss.createQueue(queue, { name: queue, policy: 'singleton', retryLimit: 0, expireInSeconds: Math.max(600, seconds * 2) })
       await boss.work(queue, { pollingIntervalSeconds: Math.min(Math.max(0.5, seconds / 2), 2) }, () => runLogged(o))
       const offer = () => { boss.send(queue, {}, { singletonSeconds: Math.max(1, Math.round(seconds)) }).catch((err) => console.error(`[boreline] ${o.name} not queued:`, err?.message ?? err)) }
       if (closed) return

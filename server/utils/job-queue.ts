@@ -29,6 +29,29 @@ export async function stopJobQueue(): Promise<void> {
   if (b) await (await b.catch(() => undefined))?.stop({ graceful: true, timeout: 5_000 })
 }
 
+let making: Promise<unknown> = Promise.resolve()
+
+/**
+ * Makes a queue if it is not there yet. pg-boss makes each queue's table as it does, and two of those at once
+ * can deadlock: this process makes them one at a time, and a deadlock with another process is tried again.
+ */
+export function ensureQueue(name: string, options: Omit<PgBoss.Queue, 'name'>): Promise<PgBoss> {
+  const made = making.then(async () => {
+    const boss = await jobQueue()
+    for (let attempt = 1; ; attempt++) {
+      try {
+        await boss.createQueue(name, { ...options, name })
+        return boss
+      } catch (err) {
+        if (attempt >= 5) throw err
+        await new Promise((r) => setTimeout(r, 100 * attempt + Math.random() * 100))
+      }
+    }
+  })
+  making = made.catch(() => undefined)
+  return made
+}
+
 /** A queue name from a job's name ("order sweep" -> "boreline-order-sweep"). */
 export function queueName(name: string): string {
   return `boreline-${name.toLowerCase().replace(/[^a-z0-9]+/g, '-')}`

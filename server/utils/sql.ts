@@ -5,7 +5,7 @@
  * Services and migrations call these instead of writing dialect-specific SQL themselves.
  * Plain Node (no Nitro auto-imports): scripts and migrations import it with tsx.
  */
-import { QueryTypes, type QueryInterface, type Sequelize, type Transaction } from 'sequelize'
+import { Op, QueryTypes, Sequelize, type QueryInterface, type Transaction } from 'sequelize'
 import { getDb } from './db'
 
 const pgOf = (s: Sequelize) => s.getDialect() === 'postgres'
@@ -93,9 +93,12 @@ export async function changedRows(sql: string, o: { replacements?: Record<string
 
 // ---------------------------------------------------------------------------------------------------- JSON
 
-/** An aggregate that builds one JSON array text from `expr` over the group (NULL for no rows on both). */
-export function jsonArrayAgg(expr: string): string {
-  return getDb().getDialect() === 'postgres' ? `json_agg(${expr})::text` : `json_group_array(${expr})`
+/**
+ * An aggregate that builds one JSON array text from `expr` over the group (NULL for no rows on both), in `orderBy`
+ * order on PostgreSQL (SQLite's follows its scan, the rowid order of a plain table scan).
+ */
+export function jsonArrayAgg(expr: string, orderBy?: string): string {
+  return getDb().getDialect() === 'postgres' ? `json_agg(${expr}${orderBy ? ` ORDER BY ${orderBy}` : ''})::text` : `json_group_array(${expr})`
 }
 
 /** A JSON array of the given expressions, for `jsonArrayAgg`. */
@@ -154,4 +157,22 @@ export function forUpdate(): string {
 /** LIKE that ignores the case of ASCII letters on both (SQLite's LIKE does; PostgreSQL's needs ILIKE). */
 export function likeAnyCase(): string {
   return getDb().getDialect() === 'postgres' ? 'ILIKE' : 'LIKE'
+}
+
+/**
+ * A condition "the column's text, lower-cased, contains `text`" without LIKE, so % and _ in a search are plain
+ * characters (SQLite's instr, PostgreSQL's strpos). `text` is lower-cased here.
+ */
+export function containsText(column: string, text: string) {
+  const position = getDb().getDialect() === 'postgres' ? 'strpos' : 'instr'
+  return Sequelize.where(Sequelize.fn(position, Sequelize.fn('lower', Sequelize.col(column)), text.toLowerCase()), Op.gt, 0)
+}
+
+/**
+ * On PostgreSQL, locks one row until the transaction ends, so work that reads then writes on its behalf (the next
+ * number of a series kept as MAX + 1) runs one transaction at a time; SQLite's one writer needs nothing.
+ */
+export async function lockRow(t: Transaction, table: 'organisations', id: number): Promise<void> {
+  if (getDb().getDialect() !== 'postgres') return
+  await getDb().query(`SELECT id FROM ${table} WHERE id = :id FOR UPDATE`, { replacements: { id }, transaction: t })
 }

@@ -33,7 +33,10 @@ export function openTestDb(): TestDb {
       close: () => new Promise<void>((res) => d.close(() => res())),
     }
   }
-  const pool = new pg.Pool({ connectionString: env().databaseUrl, max: 2 })
+  // BIGINT (money, COUNT) and NUMERIC (SUM) as numbers, as the server reads them (server/utils/db.ts)
+  const asNumber = (v: string) => Number(v)
+  const types = { getTypeParser: ((oid: number, format?: 'text') => (oid === 20 || oid === 1700 ? asNumber : pg.types.getTypeParser(oid, format))) as typeof pg.types.getTypeParser }
+  const pool = new pg.Pool({ connectionString: env().databaseUrl, max: 2, types })
   return {
     all: async <T>(sql: string, params: unknown[] = []) => {
       let n = 0

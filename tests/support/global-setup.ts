@@ -7,7 +7,7 @@
  * Both projects share it: a second call reuses the running server (reference counted).
  */
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process'
-import { existsSync, mkdirSync, mkdtempSync, readdirSync, rmSync, statSync, writeFileSync } from 'node:fs'
+import { createWriteStream, existsSync, mkdirSync, mkdtempSync, readdirSync, rmSync, statSync, writeFileSync } from 'node:fs'
 import { createServer } from 'node:net'
 import { tmpdir } from 'node:os'
 import { join, resolve } from 'node:path'
@@ -163,6 +163,12 @@ async function start(): Promise<Shared> {
   const server = spawn(process.execPath, [...serverNodeArgs(), join(outDir, 'server/index.mjs')], { cwd: root, env, stdio: ['ignore', 'pipe', 'pipe'] })
   server.stdout!.on('data', (d) => { out = (out + d).slice(-20_000) })
   server.stderr!.on('data', (d) => { out = (out + d).slice(-20_000) })
+  // BORELINE_E2E_SERVER_LOG=<file>: everything the server prints, for looking into a failure
+  if (process.env.BORELINE_E2E_SERVER_LOG) {
+    const log = createWriteStream(process.env.BORELINE_E2E_SERVER_LOG, { flags: 'a' })
+    server.stdout!.pipe(log)
+    server.stderr!.pipe(log)
+  }
   await waitForHealth(baseUrl, server, () => out)
   writeFileSync(join(dir, 'server.log.path'), 'see stdout')
   const tmpDir = join(dir, 'work')

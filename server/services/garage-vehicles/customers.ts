@@ -2,13 +2,14 @@
  * A garage's customers (vehicle owners): created with a vehicle or on their own, their details and their consent
  * to reminders, which is recorded with when and how it was given or withdrawn. Scoped to the garage. Plain Node.
  */
-import { Op, Sequelize, type Transaction } from 'sequelize'
+import { Op, type Transaction } from 'sequelize'
 import { GarageCustomer, GarageVehicle } from '../../models/garage-vehicles'
 import { pageOf } from '../../utils/page'
 import type { CustomerDetails, GarageCustomerListQuery } from '../../../shared/schemas/garage-vehicles'
 import type { GarageCustomerView } from '../../../shared/types/garage-vehicles'
 import type { Page } from '../../../shared/types/page'
 import { notFound } from '../errors'
+import { containsText } from '../../utils/sql'
 
 export function customerView(c: GarageCustomer, vehicleCount?: number): GarageCustomerView {
   return {
@@ -53,7 +54,7 @@ export async function updateCustomer(t: Transaction, c: GarageCustomer, input: C
 export async function listCustomers(organisationId: number, query: GarageCustomerListQuery): Promise<Page<GarageCustomerView>> {
   const q = query.q?.toLowerCase()
   const where = q
-    ? { organisationId, [Op.or]: ['name', 'email', 'phone'].map((col) => Sequelize.where(Sequelize.fn('instr', Sequelize.fn('lower', Sequelize.col(col)), q), Op.gt, 0)) }
+    ? { organisationId, [Op.or]: ['name', 'email', 'phone'].map((col) => containsText(col, q)) }
     : { organisationId }
   return pageOf(query, (window) => GarageCustomer.findAndCountAll({ where, order: [['name', 'ASC'], ['id', 'ASC']], ...window }), async (rows) => {
     const counts = rows.length

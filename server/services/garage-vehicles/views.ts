@@ -17,6 +17,7 @@ import { customerView } from './customers'
 import { latestReadings } from './odometer'
 import { vinAnswer } from './vin-reading'
 import { followUpView } from '../follow-ups/views'
+import { containsText } from '../../utils/sql'
 
 const WITH_OWNER_AND_VEHICLE = [
   { model: GarageCustomer, as: 'customer' },
@@ -71,8 +72,8 @@ export async function detailOf(id: number): Promise<GarageVehicleDetail> {
   }
 }
 
-/** `%` and `_` are plain characters in a search: instr, not LIKE. */
-const contains = (column: string, text: string) => Sequelize.where(Sequelize.fn('instr', Sequelize.fn('lower', Sequelize.col(column)), text.toLowerCase()), Op.gt, 0)
+/** `%` and `_` are plain characters in a search: not LIKE. */
+const contains = (column: string, text: string) => containsText(column, text)
 
 function whereOf(organisationId: number, q: string | undefined): WhereOptions {
   if (!q) return { organisationId }

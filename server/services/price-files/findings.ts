@@ -66,7 +66,7 @@ export function expandFinding(kind: string, v: unknown[]): PriceCheckFinding {
 export function col(name: keyof typeof F, alias = 'f'): string {
   return jsonAt(`${alias}.v`, F[name], TEXT_FIELDS.has(name) ? 'text' : name === 'pct' ? 'real' : 'int')
 }
-const TEXT_FIELDS = new Set<keyof typeof F>(['sku', 'type', 'description', 'columns', 'reason'])
+const TEXT_FIELDS = new Set<keyof typeof F>(['sku', 'type', 'description', 'stock', 'columns', 'reason', 'raw'])
 
 /**
  * A subquery of the findings of the given kinds of the price file bound as `$1`, one row per finding (column `v`,

@@ -11,7 +11,7 @@
  */
 import type { NitroApp } from 'nitropack/types'
 import { isPostgres, withWrite } from '../../utils/db'
-import { jobQueue, stopJobQueue } from '../../utils/job-queue'
+import { ensureQueue, stopJobQueue } from '../../utils/job-queue'
 import { PriceFile } from '../../models/price-files'
 import { runCheck } from './check'
 
@@ -72,14 +72,13 @@ async function checkOne(id: number): Promise<void> {
 const PROGRESS_WRITE_MS = 300
 
 const CHECK_QUEUE = 'boreline-price-file-check'
-let queueMade: Promise<unknown> | undefined
+let queueMade: ReturnType<typeof ensureQueue> | undefined
 
-async function checkQueue() {
-  const boss = await jobQueue()
+function checkQueue() {
   // a check cut short by a restart: its job expires and is taken again (runCheck skips a file no longer parsing)
-  queueMade ??= boss.createQueue(CHECK_QUEUE, { name: CHECK_QUEUE, policy: 'standard', retryLimit: 3, expireInSeconds: 15 * 60 })
-  await queueMade
-  return boss
+  queueMade ??= ensureQueue(CHECK_QUEUE, { policy: 'standard', retryLimit: 3, expireInSeconds: 15 * 60 })
+  queueMade.catch(() => { queueMade = undefined })
+  return queueMade
 }
 
 async function sendCheck(id: number): Promise<void> {

@@ -14,9 +14,9 @@ import { activePriceVersionId } from '../price-versions'
 import type { CurrentPart } from './rows'
 
 /**
- * Parts and prices are loaded in slices of 5,000 parts, each slice one JSON text built by SQLite
- * (`json_group_array`) and parsed at once (much cheaper than 5,000 driver row objects), the next slice's query
- * running while this one is unpacked.
+ * Parts and prices are loaded in slices of 5,000 parts, each slice one JSON text built by the database
+ * (`json_group_array`, PostgreSQL's `json_agg`: server/utils/sql.ts) and parsed at once (much cheaper than 5,000
+ * driver row objects), the next slice's query running while this one is unpacked.
  */
 export class CatalogueSnapshot {
   private readonly index = new Map<string, number>()
@@ -98,7 +98,7 @@ export class CatalogueSnapshot {
   static async load(): Promise<CatalogueSnapshot> {
     const snap = new CatalogueSnapshot()
     await inSlices(
-      `SELECT ${jsonArrayAgg(jsonArray('p.id', 'p.sku', 'p.status', 'pr.list_price_minor', 'pr.trade_cost_minor', 'pr.core_deposit_minor', 'pr.pack_quantity', 'pr.price_version_id'))} AS rows
+      `SELECT ${jsonArrayAgg(jsonArray('p.id', 'p.sku', 'p.status', 'pr.list_price_minor', 'pr.trade_cost_minor', 'pr.core_deposit_minor', 'pr.pack_quantity', 'pr.price_version_id'), 'p.id')} AS rows
          FROM parts p LEFT JOIN part_prices pr ON pr.part_id = p.id WHERE p.id > $1 AND p.id <= $2`,
       (rows) => {
         for (const r of rows as [number, string, string, number | null, number | null, number | null, number | null, number | null][]) {

@@ -2,7 +2,7 @@
  * The garage's list of quotes, one page at a time (the list contract of shared/schemas/page.ts): most recently
  * changed first, replaced revisions left out unless asked for, searched by registration or owner's name.
  */
-import { Op, Sequelize, type WhereOptions } from 'sequelize'
+import { Op, type WhereOptions } from 'sequelize'
 import { Quote, QuoteLine } from '../../models/quotes'
 import { pageOf } from '../../utils/page'
 import { quoteTotals } from '../../../shared/utils/quote-totals'
@@ -11,6 +11,7 @@ import type { Page } from '../../../shared/types/page'
 import type { QuoteSummary } from '../../../shared/types/quotes'
 import { quoteSummary } from './garage-view'
 import { expireDueQuotes, totalsInput } from './rows'
+import { containsText } from '../../utils/sql'
 
 function whereOf(organisationId: number, query: QuoteListQuery): WhereOptions {
   const where: WhereOptions = { organisationId }
@@ -19,9 +20,9 @@ function whereOf(organisationId: number, query: QuoteListQuery): WhereOptions {
   else Object.assign(where, { status: query.status })
   if (query.q) {
     const q = query.q.toLowerCase()
-    // instr, not LIKE: % and _ in the search are plain characters
+    // contains, not LIKE: % and _ in the search are plain characters
     Object.assign(where, {
-      [Op.or]: ['registration', 'owner_name'].map((c) => Sequelize.where(Sequelize.fn('instr', Sequelize.fn('lower', Sequelize.col(c)), q), Op.gt, 0)),
+      [Op.or]: ['registration', 'owner_name'].map((c) => containsText(c, q)),
     })
   }
   return where

@@ -6,6 +6,7 @@ import { createHash, randomBytes } from 'node:crypto'
 import type { Transaction } from 'sequelize'
 import { Quote } from '../../models/quotes'
 import { DomainError } from '../errors'
+import { lockRow } from '../../utils/sql'
 
 export function quoteReference(q: Pick<Quote, 'number' | 'revision'>): string {
   return `Q-${String(q.number).padStart(4, '0')}${q.revision > 1 ? ` rev ${q.revision}` : ''}`
@@ -17,6 +18,7 @@ export function quotePdfName(q: Pick<Quote, 'number' | 'revision'>): string {
 
 /** The next number in the garage's own sequence (revisions keep their quote's number). */
 export async function nextQuoteNumber(t: Transaction, organisationId: number): Promise<number> {
+  await lockRow(t, 'organisations', organisationId) // PostgreSQL: a concurrent quote of this garage waits for this number
   const max = await Quote.max<number, Quote>('number', { where: { organisationId }, transaction: t })
   return (Number(max) || 0) + 1
 }
