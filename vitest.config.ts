@@ -43,7 +43,8 @@ export default defineConfig({
         ? [{
             resolve: { alias },
             test: {
-              name: 'processes', include: ['tests/processes/**/*.test.ts'], environment: 'node',
+              // the e2e project's server is the first of the two processes (same setup, shared)
+              name: 'processes', include: ['tests/processes/**/*.test.ts'], environment: 'node', globalSetup: ['tests/support/global-setup.ts'],
               fileParallelism: false, testTimeout: 120_000, hookTimeout: 600_000, sequence: { groupOrder: 3 },
             },
           }]

@@ -9,6 +9,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { Sequelize } from 'sequelize'
 import { dialectOfUrl, quoteMixedCaseAliases } from '../../../server/utils/db'
 import { forDialect } from '../../../server/utils/sql'
+import type * as DbModule from '../../../server/utils/db'
+import type * as SqlModule from '../../../server/utils/sql'
 
 const sqlite = new Sequelize({ dialect: 'sqlite', storage: ':memory:', logging: false })
 const postgres = new Sequelize('postgres://x:y@127.0.0.1:1/none', { dialect: 'postgres', logging: false })
@@ -63,8 +65,8 @@ describe('mixed-case aliases on PostgreSQL', () => {
 
 const pgServer = process.env.BORELINE_TEST_PG_URL
 describe.runIf(!!pgServer)('on a PostgreSQL server', () => {
-  let db: typeof import('../../../server/utils/db')
-  let sql: typeof import('../../../server/utils/sql')
+  let db: typeof DbModule
+  let sql: typeof SqlModule
   let drop: () => Promise<void>
 
   beforeAll(async () => {
