@@ -4,7 +4,7 @@
  * e2e files see the demo prices; new parts use our own SKUs (PLT-…), which stay behind as discontinued.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { openTestDb, type TestDb } from '../support/db'
+import { onPostgres, openTestDb, type TestDb } from '../support/db'
 import ExcelJS from 'exceljs'
 import { parse as parseCsvSync } from 'csv-parse/sync'
 import { all as mathAll, create } from 'mathjs'
@@ -458,7 +458,9 @@ describe('apply and roll back', () => {
       expect(stock.quantity).toBe(57)
       // missing parts were marked discontinued
       const missing = await one<{ n: number }>(`SELECT COUNT(*) AS n FROM parts WHERE status = 'discontinued'
-        AND id IN (SELECT j.value->>2 FROM price_file_findings f, json_each(f.rows) j WHERE f.price_file_id = ? AND f.kind = 'missing')`, [d.id])
+        AND id IN (${onPostgres()
+          ? `SELECT (j.value->>2)::bigint FROM price_file_findings f, json_array_elements(f.rows::json) j WHERE f.price_file_id = ? AND f.kind = 'missing'`
+          : `SELECT j.value->>2 FROM price_file_findings f, json_each(f.rows) j WHERE f.price_file_id = ? AND f.kind = 'missing'`})`, [d.id])
       expect(missing.n).toBe(d.counts.missing)
       const setByNow = new Map((await setBy()).map((r) => [r.part_id, r.price_version_id]))
       for (const p of parts) expect(setByNow.get(p.id)).toBe(now.id)
