@@ -7,3 +7,9 @@ export const StopLiftSchema = z.object({
   days: z.number({ error: 'Enter for how many days.' }).int('Enter whole days.').min(1, 'Lift the stop for at least 1 day.'),
 }).strict()
 export type StopLiftInput = z.infer<typeof StopLiftSchema>
+
+/** POST /api/statement/card-payment: pay part or all of what is owed on the trade account by card. */
+export const AccountCardPaymentSchema = z.object({
+  amountMinor: z.number({ error: 'Enter the amount to pay.' }).int('Enter the amount in pence (a whole number).').positive('The amount must be more than zero.'),
+}).strict()
+export type AccountCardPaymentInput = z.infer<typeof AccountCardPaymentSchema>

@@ -17,7 +17,11 @@ export interface OpenItem {
   reference: string
   description: string
   bookedOn: string
-  dueOn: string
+  /** the invoice that charged it and its date; null when its order is not invoiced yet (or it has no document) */
+  invoice: string | null
+  invoicedOn: string | null
+  /** payment days after the invoice's date (the booked day when it has no document); null until it is invoiced */
+  dueOn: string | null
   amountMinor: number
   paidMinor: number
   openMinor: number
