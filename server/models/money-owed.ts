@@ -13,8 +13,10 @@ export class PaymentAllocation extends Model<InferAttributes<PaymentAllocation>,
   declare createdAt: CreationOptional<Date>
 }
 
-export type AccountReminderKind = 'statement' | 'overdue'
-export type AccountReminderStatus = 'sending' | 'sent' | 'failed' | 'no_recipient'
+import { Organisation } from './accounts'
+import type { AccountReminderKind, AccountReminderStatus } from '../../shared/types/money-owed'
+
+export type { AccountReminderKind }
 
 export class AccountReminder extends Model<InferAttributes<AccountReminder>, InferCreationAttributes<AccountReminder>> {
   declare id: CreationOptional<number>
@@ -41,4 +43,5 @@ export function initMoneyOwedModels(sequelize: Sequelize): void {
     id, organisationId: INTEGER, kind: STRING, about: STRING, status: STRING, recipients: { type: TEXT, defaultValue: '' },
     subject: { type: STRING, defaultValue: '' }, amountMinor: { type: INTEGER, defaultValue: 0 }, claimedAt: DATE, sentAt: DATE, error: STRING,
   }, { sequelize, tableName: 'account_reminders', timestamps: false })
+  AccountReminder.belongsTo(Organisation, { as: 'organisation', foreignKey: 'organisationId' })
 }

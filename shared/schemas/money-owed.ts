@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { PageQuerySchema } from './page'
 
 /** POST /api/admin/trade-accounts/:id/stop-lift: lift an account stop for a number of days, saying why. */
 export const StopLiftSchema = z.object({
@@ -13,3 +14,10 @@ export const AccountCardPaymentSchema = z.object({
   amountMinor: z.number({ error: 'Enter the amount to pay.' }).int('Enter the amount in pence (a whole number).').positive('The amount must be more than zero.'),
 }).strict()
 export type AccountCardPaymentInput = z.infer<typeof AccountCardPaymentSchema>
+
+/** GET /api/admin/account-reminders: the e-mails about money owed, newest first, optionally one garage's or one kind. */
+export const AccountReminderListQuerySchema = PageQuerySchema.extend({
+  garageId: z.preprocess((v) => (v === '' ? undefined : v), z.coerce.number({ error: 'Choose a garage.' }).int().positive('Choose a garage.').optional()),
+  kind: z.preprocess((v) => (v === '' ? undefined : v), z.enum(['statement', 'overdue'], { error: 'Choose monthly statements or overdue reminders.' }).optional()),
+})
+export type AccountReminderListQuery = z.infer<typeof AccountReminderListQuerySchema>
