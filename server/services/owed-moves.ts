@@ -16,28 +16,33 @@ const INVOICED_KINDS: readonly LedgerKind[] = ['order', 'core_deposit']
 
 export interface OwedLedger { rows: LedgerEntry[]; moves: LedgerMove[]; allocations: Allocation[] }
 
-/** The first invoice of each of the garage's orders: its date (local day) and reference. */
-async function firstInvoices(organisationId: number, timeZone: string, t?: Transaction): Promise<Map<number, { day: string; reference: string }>> {
-  const docs = await IssuedDocument.findAll({
-    where: { organisationId, kind: 'invoice' }, attributes: ['id', 'orderId', 'issuedAt', 'reference'],
-    order: [['issuedAt', 'ASC'], ['id', 'ASC']], transaction: t,
-  })
-  const first = new Map<number, { day: string; reference: string }>()
-  for (const d of docs) if (!first.has(d.orderId)) first.set(d.orderId, { day: localDate(d.issuedAt, timeZone), reference: d.reference })
+type InvoiceDay = Map<number, { day: string; reference: string }>
+
+/** The first invoice of each order among `docs` (oldest first): its date (local day) and reference. */
+export function firstInvoiceOf(docs: readonly Pick<IssuedDocument, 'orderId' | 'issuedAt' | 'reference'>[], timeZone: string): InvoiceDay {
+  const first: InvoiceDay = new Map()
+  for (const d of docs) if (!first.has(d.orderId)) first.set(d.orderId, { day: localDate(new Date(d.issuedAt), timeZone), reference: d.reference })
   return first
 }
 
+/** A ledger entry as a move: an order's charge runs from its first invoice (null while there is none). */
+export function moveOfEntry(r: Pick<LedgerEntry, 'id' | 'orderId' | 'kind' | 'amountMinor' | 'reference' | 'description' | 'createdAt'>, invoices: InvoiceDay, timeZone: string): LedgerMove {
+  const move: LedgerMove = { id: r.id, day: localDate(r.createdAt, timeZone), reference: r.reference, description: r.description, amountMinor: r.amountMinor }
+  if (r.orderId === null || !INVOICED_KINDS.includes(r.kind)) return move
+  const inv = invoices.get(r.orderId)
+  return { ...move, dueFrom: inv?.day ?? null, invoice: inv?.reference ?? null }
+}
+
 export async function owedLedgerOf(organisationId: number, rows: LedgerEntry[], timeZone: string, t?: Transaction): Promise<OwedLedger> {
-  const [invoices, allocs] = await Promise.all([
-    firstInvoices(organisationId, timeZone, t),
+  const [docs, allocs] = await Promise.all([
+    IssuedDocument.findAll({
+      where: { organisationId, kind: 'invoice' }, attributes: ['id', 'orderId', 'issuedAt', 'reference'],
+      order: [['issuedAt', 'ASC'], ['id', 'ASC']], transaction: t,
+    }),
     PaymentAllocation.findAll({ where: { organisationId }, order: [['id', 'ASC']], transaction: t }),
   ])
-  const moves = rows.map((r): LedgerMove => {
-    const move: LedgerMove = { id: r.id, day: localDate(r.createdAt, timeZone), reference: r.reference, description: r.description, amountMinor: r.amountMinor }
-    if (r.orderId === null || !INVOICED_KINDS.includes(r.kind)) return move
-    const inv = invoices.get(r.orderId)
-    return { ...move, dueFrom: inv?.day ?? null, invoice: inv?.reference ?? null }
-  })
+  const invoices = firstInvoiceOf(docs, timeZone)
+  const moves = rows.map((r) => moveOfEntry(r, invoices, timeZone))
   return { rows, moves, allocations: allocs.map((a) => ({ paymentId: a.paymentEntryId, chargeId: a.chargeEntryId, amountMinor: a.amountMinor })) }
 }
 
