@@ -3,6 +3,8 @@
  * reminders e-mailed to garages about what they owe (one row per garage and subject, claimed before sending).
  */
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
+import type { AccountReminderKind, AccountReminderStatus } from '../../shared/types/money-owed'
+import { Organisation } from './accounts'
 
 export class PaymentAllocation extends Model<InferAttributes<PaymentAllocation>, InferCreationAttributes<PaymentAllocation>> {
   declare id: CreationOptional<number>
@@ -12,9 +14,6 @@ export class PaymentAllocation extends Model<InferAttributes<PaymentAllocation>,
   declare amountMinor: number
   declare createdAt: CreationOptional<Date>
 }
-
-import { Organisation } from './accounts'
-import type { AccountReminderKind, AccountReminderStatus } from '../../shared/types/money-owed'
 
 export type { AccountReminderKind }
 

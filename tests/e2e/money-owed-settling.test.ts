@@ -12,7 +12,7 @@ import { promisify } from 'node:util'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { setup } from '@nuxt/test-utils/e2e'
 import { Client, as, env, mailFor, people } from '../support/api'
-import { addLedgerEntry, makeGarage, makePart, payOnFake, sendAt, sessionIdOf, type TestGarage, type TestPart } from '../support/orders'
+import { addLedgerEntry, makeGarage, makePart, payOnFake, sessionIdOf, type TestGarage, type TestPart } from '../support/orders'
 import { backdateOrderCharges, bytesOf, runAccountsRemind } from '../support/money-owed'
 
 await setup({ host: env().baseUrl })

@@ -33,3 +33,9 @@ export async function bytesOf(c: Client, path: string): Promise<{ status: number
   const res = await fetch(new URL(path, env().baseUrl), { headers: { cookie: c.cookieHeader() } })
   return { status: res.status, type: res.headers.get('content-type') ?? '', bytes: Buffer.from(await res.arrayBuffer()) }
 }
+
+/** A write straight to the e2e database, for a scenario's set-up (a cost, a date, a recommendation). */
+export async function exec(sql: string, replacements: Record<string, unknown>): Promise<void> {
+  models()
+  await withWrite((t) => getDb().query(sql, { replacements, transaction: t }))
+}

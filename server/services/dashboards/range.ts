@@ -33,7 +33,7 @@ export function daysOf(span: Span): string[] {
 }
 
 /** A read-only query with named parameters; numbers from SUM/COUNT come back as numbers on every database. */
-export async function rows<T>(sql: string, replacements: Record<string, unknown>): Promise<T[]> {
+export async function rows<T extends object>(sql: string, replacements: Record<string, unknown>): Promise<T[]> {
   return getDb().query<T>(sql, { replacements, type: QueryTypes.SELECT })
 }
 
