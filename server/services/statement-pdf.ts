@@ -41,6 +41,7 @@ export function statementPdf(s: Statement, seller: Party, buyer: Party, fmt: For
     ['Total', m(AGEING_BUCKETS.reduce((sum, b) => sum + s.ageing[b], 0))],
   ])
   if (s.openItems.length) {
+    page.doc.moveDown(0.8)
     table(page, [
       { header: 'Reference', width: 95 }, { header: 'Invoice', width: 80 }, { header: 'Due', width: 75 }, { header: 'Overdue (days)', width: 60, align: 'right' },
       { header: 'Amount', width: 63, align: 'right' }, { header: 'Paid', width: 63, align: 'right' }, { header: 'Still open', width: 63, align: 'right' },

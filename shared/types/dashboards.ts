@@ -4,6 +4,7 @@
  * bounded (`TOP_N`) or one row per day, month, branch or bucket of the range.
  */
 import type { Ageing } from './money-owed'
+import { formatBp } from '../utils/quote-totals'
 
 export const DASHBOARD_TOP_N = 10
 export const DASHBOARD_MAX_DAYS = 366
@@ -47,3 +48,6 @@ export interface GarageDashboard {
   spendByMonth: { month: string; totalMinor: number; orders: number }[]
   reminders: { sent: number; quotesApproved: number; workMinor: number }
 }
+
+/** A rate for people: "37.5 %", or what to say when there was nothing to divide by. */
+export const rateText = (bp: number | null, none: string): string => (bp === null ? none : formatBp(bp))
