@@ -5,7 +5,8 @@ import { DataTypes, type QueryInterface } from 'sequelize'
  * - payment allocations: the part of an account payment the admin set against a named charge (the rest of the
  *   payment settles the oldest charges);
  * - account reminders: each monthly statement and each overdue reminder e-mailed to a garage, one row per
- *   (garage, what it is about) under a unique key, so two processes running the job never send one twice.
+ *   (garage, what it is about) under a unique key, so two processes running the job never send one twice;
+ * - indexes for the dashboards' ranges of days.
  */
 export async function up(qi: QueryInterface): Promise<void> {
   const { INTEGER, STRING, TEXT, DATE } = DataTypes
@@ -34,9 +35,15 @@ export async function up(qi: QueryInterface): Promise<void> {
   })
   await qi.addIndex('account_reminders', ['organisation_id', 'kind', 'about'], { unique: true })
   await qi.addIndex('account_reminders', ['claimed_at'])
+
+  // the dashboards read a range of days across every garage, and one garage's quotes by the day they were sent
+  await qi.addIndex('orders', ['created_at'])
+  await qi.addIndex('quotes', ['organisation_id', 'sent_at'])
 }
 
 export async function down(qi: QueryInterface): Promise<void> {
+  await qi.removeIndex('quotes', ['organisation_id', 'sent_at'])
+  await qi.removeIndex('orders', ['created_at'])
   await qi.dropTable('account_reminders')
   await qi.dropTable('payment_allocations')
 }

@@ -18,16 +18,32 @@ export interface OwedLedger { rows: LedgerEntry[]; moves: LedgerMove[]; allocati
 
 type InvoiceDay = Map<number, { day: string; reference: string }>
 
+/**
+ * `localDate` remembered per quarter hour: every zone's offset is a whole number of quarter hours and changes only on
+ * one, so every instant in a quarter hour falls on the same local day. A whole ledger then costs a few thousand zone
+ * conversions rather than one a row.
+ */
+export function localDayOf(timeZone: string): (at: Date) => string {
+  const seen = new Map<number, string>()
+  return (at) => {
+    const q = Math.floor(at.getTime() / 900_000)
+    let day = seen.get(q)
+    if (day === undefined) { day = localDate(at, timeZone); seen.set(q, day) }
+    return day
+  }
+}
+
 /** The first invoice of each order among `docs` (oldest first): its date (local day) and reference. */
 export function firstInvoiceOf(docs: readonly Pick<IssuedDocument, 'orderId' | 'issuedAt' | 'reference'>[], timeZone: string): InvoiceDay {
   const first: InvoiceDay = new Map()
-  for (const d of docs) if (!first.has(d.orderId)) first.set(d.orderId, { day: localDate(new Date(d.issuedAt), timeZone), reference: d.reference })
+  const dayOf = localDayOf(timeZone)
+  for (const d of docs) if (!first.has(d.orderId)) first.set(d.orderId, { day: dayOf(new Date(d.issuedAt)), reference: d.reference })
   return first
 }
 
 /** A ledger entry as a move: an order's charge runs from its first invoice (null while there is none). */
-export function moveOfEntry(r: Pick<LedgerEntry, 'id' | 'orderId' | 'kind' | 'amountMinor' | 'reference' | 'description' | 'createdAt'>, invoices: InvoiceDay, timeZone: string): LedgerMove {
-  const move: LedgerMove = { id: r.id, day: localDate(r.createdAt, timeZone), reference: r.reference, description: r.description, amountMinor: r.amountMinor }
+export function moveOfEntry(r: Pick<LedgerEntry, 'id' | 'orderId' | 'kind' | 'amountMinor' | 'reference' | 'description' | 'createdAt'>, invoices: InvoiceDay, dayOf: (at: Date) => string): LedgerMove {
+  const move: LedgerMove = { id: r.id, day: dayOf(r.createdAt), reference: r.reference, description: r.description, amountMinor: r.amountMinor }
   if (r.orderId === null || !INVOICED_KINDS.includes(r.kind)) return move
   const inv = invoices.get(r.orderId)
   return { ...move, dueFrom: inv?.day ?? null, invoice: inv?.reference ?? null }
@@ -42,7 +58,8 @@ export async function owedLedgerOf(organisationId: number, rows: LedgerEntry[], 
     PaymentAllocation.findAll({ where: { organisationId }, order: [['id', 'ASC']], transaction: t }),
   ])
   const invoices = firstInvoiceOf(docs, timeZone)
-  const moves = rows.map((r) => moveOfEntry(r, invoices, timeZone))
+  const dayOf = localDayOf(timeZone)
+  const moves = rows.map((r) => moveOfEntry(r, invoices, dayOf))
   return { rows, moves, allocations: allocs.map((a) => ({ paymentId: a.paymentEntryId, chargeId: a.chargeEntryId, amountMinor: a.amountMinor })) }
 }
 

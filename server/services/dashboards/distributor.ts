@@ -11,11 +11,10 @@ import { DASHBOARD_TOP_N, type DistributorDashboard } from '../../../shared/type
 import type { LineState, SupplySource } from '../../../shared/types/orders'
 import type { Formats } from '../../../shared/utils/format'
 import type { ViewClock } from '../orders/clock'
-import { localDate } from '../orders/zoned-time'
 import { fillRateOf } from './fill-rate'
 import { overdueOfAll } from './overdue-all'
 import { lastPriceFileEffect } from './price-effect'
-import { daysOf, num, rateBp, rows, type Span } from './range'
+import { dayIndexer, daysOf, num, rateBp, rows, type Span } from './range'
 
 /** Orders that count as sold: paid or on account, whatever happened to them since (cancelled lines are left out). */
 export const SOLD_STATUSES = ['confirmed', 'picking', 'part_dispatched', 'dispatched', 'delivered']
@@ -39,14 +38,21 @@ async function costs(lines: readonly SoldLine[]): Promise<(l: SoldLine) => numbe
   const versions = (await PriceVersion.findAll({ attributes: ['id', 'activatedAt'], order: [['activatedAt', 'ASC'], ['id', 'ASC']] }))
     .filter((v) => v.activatedAt).map((v) => ({ id: v.id, at: v.activatedAt!.getTime() }))
   const versionAt = (at: number) => versions.filter((v) => v.at <= at).at(-1)?.id ?? versions[0]?.id ?? 0
-  const used = [...new Set(lines.map((l) => versionAt(new Date(l.created_at).getTime())))]
+  // one version per order, worked out once
+  const byOrder = new Map<number, number>()
+  const versionOf = (l: SoldLine) => {
+    let v = byOrder.get(num(l.order_id))
+    if (v === undefined) { v = versionAt(new Date(l.created_at).getTime()); byOrder.set(num(l.order_id), v) }
+    return v
+  }
+  const used = [...new Set(lines.map(versionOf))]
   const cost = new Map<string, number | null>()
   if (used.length) {
     for (const r of await rows<{ price_version_id: number; part_id: number; trade_cost_minor: number | null }>(
       'SELECT price_version_id, part_id, trade_cost_minor FROM part_prices WHERE price_version_id IN (:used)', { used },
     )) cost.set(`${num(r.price_version_id)}:${num(r.part_id)}`, r.trade_cost_minor === null ? null : num(r.trade_cost_minor))
   }
-  return (l) => cost.get(`${versionAt(new Date(l.created_at).getTime())}:${num(l.part_id)}`) ?? null
+  return (l) => cost.get(`${versionOf(l)}:${num(l.part_id)}`) ?? null
 }
 
 export async function distributorDashboard(span: Span, clock: ViewClock, fmt: Formats): Promise<DistributorDashboard> {
@@ -62,7 +68,8 @@ export async function distributorDashboard(span: Span, clock: ViewClock, fmt: Fo
   ])
   const live = lines.filter((l) => l.state !== 'cancelled')
   const costOf = await costs(live)
-  const byDay = new Map(daysOf(span).map((day) => [day, { day, netMinor: 0, orders: new Set<number>() }]))
+  const byDay = daysOf(span).map((day) => ({ day, netMinor: 0, orders: new Set<number>() }))
+  const dayOf = dayIndexer(span)
   const byBranch = new Map<number, { branch: string; netMinor: number; orders: Set<number> }>()
   const parts = new Map<string, { sku: string; description: string; units: number; netMinor: number }>()
   const garages = new Map<number, { id: number; netMinor: number; orders: Set<number> }>()
@@ -70,7 +77,7 @@ export async function distributorDashboard(span: Span, clock: ViewClock, fmt: Fo
   const branchName = new Map(branches.map((b) => [b.id, b.name]))
   for (const l of live) {
     const net = num(l.line_net_minor), qty = num(l.quantity), orderId = num(l.order_id)
-    const d = byDay.get(localDate(new Date(l.created_at), clock.timeZone))
+    const d = byDay[dayOf(l.created_at)]
     if (d) { d.netMinor += net; d.orders.add(orderId) }
     const b = byBranch.get(num(l.branch_id)) ?? { branch: branchName.get(num(l.branch_id)) ?? '', netMinor: 0, orders: new Set<number>() }
     b.netMinor += net; b.orders.add(orderId); byBranch.set(num(l.branch_id), b)
@@ -91,7 +98,7 @@ export async function distributorDashboard(span: Span, clock: ViewClock, fmt: Fo
     currency: fmt.currency,
     sales: {
       netMinor: live.reduce((s, l) => s + num(l.line_net_minor), 0), orders: orderCount,
-      byDay: [...byDay.values()].map((d) => ({ day: d.day, netMinor: d.netMinor, orders: d.orders.size })),
+      byDay: byDay.map((d) => ({ day: d.day, netMinor: d.netMinor, orders: d.orders.size })),
       byBranch: [...byBranch.values()].sort((a, b) => b.netMinor - a.netMinor).map((b) => ({ branch: b.branch, netMinor: b.netMinor, orders: b.orders.size })),
     },
     margin: { ...margin, marginMinor: margin.netMinor - margin.costMinor, marginBp: rateBp(margin.netMinor - margin.costMinor, margin.netMinor) },

@@ -11,7 +11,7 @@ import type { Ageing } from '../../../shared/types/money-owed'
 import { ageingOf, openItemsOf, type Allocation, type LedgerMove } from '../ageing'
 import type { ViewClock } from '../orders/clock'
 import { localDate } from '../orders/zoned-time'
-import { moveOfEntry, firstInvoiceOf } from '../owed-moves'
+import { firstInvoiceOf, localDayOf, moveOfEntry } from '../owed-moves'
 
 function grouped<T>(list: readonly T[], key: (t: T) => number): Map<number, T[]> {
   const m = new Map<number, T[]>()
@@ -33,12 +33,13 @@ export async function overdueOfAll(clock: ViewClock): Promise<Ageing & { garages
   ])
   const today = localDate(clock.now, clock.timeZone)
   const invoices = firstInvoiceOf(docs, clock.timeZone)
+  const dayOf = localDayOf(clock.timeZone)
   const byOrg = grouped(entries, (e) => e.organisationId)
   const allocByOrg = grouped(allocs, (a) => a.organisationId)
   const total: Ageing = { current: 0, d1_30: 0, d31_60: 0, d61_90: 0, over90: 0 }
   let owing = 0
   for (const g of garages) {
-    const moves: LedgerMove[] = (byOrg.get(g.id) ?? []).map((e) => moveOfEntry({ ...e, description: '', createdAt: new Date(e.createdAt) }, invoices, clock.timeZone))
+    const moves: LedgerMove[] = (byOrg.get(g.id) ?? []).map((e) => moveOfEntry({ ...e, description: '', createdAt: new Date(e.createdAt) }, invoices, dayOf))
     const allocations: Allocation[] = (allocByOrg.get(g.id) ?? []).map((a) => ({ paymentId: a.paymentEntryId, chargeId: a.chargeEntryId, amountMinor: a.amountMinor }))
     const a = ageingOf(openItemsOf(moves, g.paymentDays ?? 0, today, allocations))
     if (a.d1_30 + a.d31_60 + a.d61_90 + a.over90 > 0) owing++
