@@ -11,6 +11,7 @@
 import { resolve } from 'node:path'
 import sqlite3 from 'sqlite3'
 import { MC_BORES, WC_BORES, prng } from '../server/seed/catalogue-data'
+import { all, insertAll, run } from './lib/sqlite-bulk'
 
 interface Args { parts: number; vehicles: number; fitments: number; database: string; seed: number }
 
@@ -35,40 +36,6 @@ function parseArgs(argv: string[]): Args {
   if (!out.database) throw new Error('Give --database <sqlite:./file.sqlite or path> or set DATABASE_URL')
   if (!out.database.startsWith('sqlite:')) out.database = `sqlite:${resolve(out.database)}`
   return out
-}
-
-const esc = (v: unknown): string => {
-  if (v === null || v === undefined) return 'NULL'
-  if (typeof v === 'number') return Number.isFinite(v) ? String(v) : 'NULL'
-  if (typeof v === 'boolean') return v ? '1' : '0'
-  return `'${String(v).replace(/'/g, "''")}'`
-}
-
-function run(db: sqlite3.Database, sql: string): Promise<void> {
-  return new Promise((res, rej) => db.exec(sql, (e) => (e ? rej(e) : res())))
-}
-function all<T>(db: sqlite3.Database, sql: string): Promise<T[]> {
-  return new Promise((res, rej) => db.all(sql, (e, rows) => (e ? rej(e) : res(rows as T[]))))
-}
-
-/** Inserts rows in multi-row statements of `chunk` rows inside one transaction. */
-async function insertAll(db: sqlite3.Database, table: string, columns: string[], rows: Iterable<unknown[]>, chunk = 1000): Promise<number> {
-  let n = 0
-  let buf: string[] = []
-  await run(db, 'BEGIN IMMEDIATE')
-  const flush = async () => {
-    if (!buf.length) return
-    await run(db, `INSERT INTO ${table} (${columns.join(', ')}) VALUES ${buf.join(',')}`)
-    buf = []
-  }
-  for (const r of rows) {
-    buf.push(`(${r.map(esc).join(',')})`)
-    n++
-    if (buf.length >= chunk) await flush()
-  }
-  await flush()
-  await run(db, 'COMMIT')
-  return n
 }
 
 const SYL = ['dor', 'vel', 'mar', 'tis', 'qua', 'len', 'bro', 'zan', 'fel', 'ryn', 'osk', 'tav', 'pel', 'gri', 'hul', 'ves', 'nor', 'cal', 'mib', 'sot', 'ark', 'lun', 'det', 'rov']

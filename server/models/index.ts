@@ -16,6 +16,7 @@ import { initGarageVehicleModels } from './garage-vehicles'
 import { initSecondFactorModels } from './second-factor'
 import { initCounterModels } from './counter'
 import { initJobModels } from './jobs'
+import { initMoneyOwedModels } from './money-owed'
 
 export * from './accounts'
 export * from './accounts-extra'
@@ -28,6 +29,7 @@ export * from './garage-vehicles'
 export * from './second-factor'
 export * from './counter'
 export * from './jobs'
+export * from './money-owed'
 
 let initialised: Sequelize | undefined
 
@@ -44,6 +46,7 @@ export function initModels(sequelize: Sequelize = getDb()): Sequelize {
   initSecondFactorModels(sequelize)
   initCounterModels(sequelize)
   initJobModels(sequelize)
+  initMoneyOwedModels(sequelize)
   initialised = sequelize
   return sequelize
 }

@@ -5,7 +5,8 @@
  * (404), a payment larger than what is owed (422: an overpayment is almost always a typing slip; book the owed
  * amount and settle the rest by arrangement), the same reference twice for one garage (409, enforced by the
  * ledger's unique (kind, external id) even under concurrent requests). Audited; the garage's managers get an
- * e-mail after the commit. Nitro only (the e-mail).
+ * e-mail after the commit. The admin may name which open items it pays (`allocations`, checked against what is
+ * open); the rest settles the oldest first. Nitro only (the e-mail).
  */
 import { UniqueConstraintError } from 'sequelize'
 import { Organisation } from '../models/accounts'
@@ -18,6 +19,8 @@ import type { Formats } from '../../shared/utils/format'
 import { accountMail } from './account-mail'
 import { garageRecipients } from './trade-accounts'
 import { balanceOf } from './orders/credit'
+import { localDate } from './orders/zoned-time'
+import { checkAllocations, saveAllocations } from './payment-allocations'
 import { DomainError, notFound } from './errors'
 
 export interface AccountPaymentOutcome {
@@ -42,15 +45,17 @@ function book(organisationId: number, input: AccountPaymentInput, actorUserId: n
         : `${org.name} owes nothing at the moment (balance ${m(owed)}), so there is nothing to book a payment against.`
       throw new DomainError('invalid', message, { fields: { amountMinor: message }, details: { balanceMinor: owed } })
     }
+    await checkAllocations(t, org, input.allocations ?? [], localDate(new Date(), fmt.timeZone), fmt)
     const entry = await LedgerEntry.create({
       organisationId: org.id, orderId: null, kind: 'account_payment', amountMinor: -input.amountMinor,
       reference: input.reference, description: `Payment received ${input.receivedOn}${input.note ? ` · ${input.note}` : ''}`.slice(0, 300),
       externalId: paymentKey(org.id, input.reference),
     }, { transaction: t })
+    await saveAllocations(t, org.id, entry.id, input.allocations ?? [])
     const balanceMinor = owed - input.amountMinor
     await audit(t, {
       actorUserId, organisationId: org.id, entity: 'ledger_entry', entityId: entry.id, action: 'tradeAccount.payment_recorded',
-      changes: { amountMinor: input.amountMinor, reference: input.reference, receivedOn: input.receivedOn, balanceMinor: { from: owed, to: balanceMinor } },
+      changes: { amountMinor: input.amountMinor, reference: input.reference, receivedOn: input.receivedOn, allocations: input.allocations ?? 'oldest first', balanceMinor: { from: owed, to: balanceMinor } },
     })
     const availableMinor = org.paymentTerms === 'account' ? (org.creditLimitMinor ?? 0) - balanceMinor : null
     return { entryId: entry.id, amountMinor: input.amountMinor, balanceMinor, availableMinor, org }

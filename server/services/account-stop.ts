@@ -7,7 +7,6 @@
  */
 import type { Transaction } from 'sequelize'
 import { Organisation } from '../models/accounts'
-import { LedgerEntry } from '../models/orders'
 import { withWrite } from '../utils/db'
 import { audit } from '../utils/audit'
 import type { AccountStop, OpenItem } from '../../shared/types/money-owed'
@@ -15,7 +14,8 @@ import type { Formats } from '../../shared/utils/format'
 import type { StopLiftInput } from '../../shared/schemas/money-owed'
 import { localDate } from './orders/zoned-time'
 import type { ViewClock } from './orders/clock'
-import { dayPlus, openItemsOf, type LedgerMove } from './ageing'
+import { dayPlus, openItemsOf } from './ageing'
+import { owedLedger } from './owed-moves'
 import { DomainError, notFound } from './errors'
 
 function whole(value: string | undefined, fallback: number, max: number): number {
@@ -27,15 +27,6 @@ export const stopSettings = (env: NodeJS.ProcessEnv = process.env) => ({
   stopAfterDays: whole(env.BORELINE_STOP_OVERDUE_DAYS, 30, 3650),
   liftMaxDays: whole(env.BORELINE_STOP_LIFT_MAX_DAYS, 30, 365) || 30,
 })
-
-/** A ledger entry as a dated move (its local calendar day) for working out open items. */
-export const moveOf = (r: LedgerEntry, timeZone: string): LedgerMove =>
-  ({ id: r.id, day: localDate(r.createdAt, timeZone), reference: r.reference, description: r.description, amountMinor: r.amountMinor })
-
-async function ledgerMoves(organisationId: number, timeZone: string, t?: Transaction): Promise<LedgerMove[]> {
-  const rows = await LedgerEntry.findAll({ where: { organisationId }, order: [['id', 'ASC']], transaction: t })
-  return rows.map((r) => moveOf(r, timeZone))
-}
 
 /** The stop as it stands on `today`, from the balance and the open items (pure). */
 export function stopFrom(
@@ -58,11 +49,16 @@ export function stopFrom(
   return { onStop: reasons.length > 0 && !lift, reasons, amountToClearMinor, overLimitMinor, longOverdueMinor, stopAfterDays, lift }
 }
 
-export async function accountStopOf(org: Organisation, clock: ViewClock, fmt: Formats, t?: Transaction): Promise<AccountStop> {
-  const moves = await ledgerMoves(org.id, clock.timeZone, t)
+/** What the garage owes on the clock's local day: the balance and the open items, oldest first. */
+export async function owedNow(org: Organisation, clock: ViewClock, t?: Transaction): Promise<{ today: string; balanceMinor: number; items: OpenItem[] }> {
+  const { moves, allocations } = await owedLedger(org.id, clock.timeZone, t)
   const today = localDate(clock.now, clock.timeZone)
-  const balance = moves.reduce((s, m) => s + m.amountMinor, 0)
-  return stopFrom(org, balance, openItemsOf(moves, org.paymentDays ?? 0, today), today, fmt)
+  return { today, balanceMinor: moves.reduce((s, m) => s + m.amountMinor, 0), items: openItemsOf(moves, org.paymentDays ?? 0, today, allocations) }
+}
+
+export async function accountStopOf(org: Organisation, clock: ViewClock, fmt: Formats, t?: Transaction): Promise<AccountStop> {
+  const { today, balanceMinor, items } = await owedNow(org, clock, t)
+  return stopFrom(org, balanceMinor, items, today, fmt)
 }
 
 /** 402 naming every reason and the amount that clears the stop, when the account is on stop. */

@@ -9,7 +9,8 @@ import { Organisation } from '../models/accounts'
 import { LedgerEntry, Order } from '../models/orders'
 import { notFound } from './errors'
 import { ageingOf, openItemsOf } from './ageing'
-import { moveOf, stopFrom } from './account-stop'
+import { stopFrom } from './account-stop'
+import { owedLedgerOf } from './owed-moves'
 import { localDate } from './orders/zoned-time'
 import { systemClock, type ViewClock } from './orders/clock'
 import { AGEING_BUCKETS, AGEING_LABELS } from '../../shared/types/money-owed'
@@ -60,8 +61,8 @@ export async function statementOf(organisationId: number, month: string | undefi
   }
   const terms = org.paymentTerms ?? 'card'
   const asOf = localDate(clock.now, clock.timeZone)
-  const moves = rows.map((r) => moveOf(r, clock.timeZone))
-  const openItems = openItemsOf(moves, org.paymentDays ?? 0, asOf)
+  const { moves, allocations } = await owedLedgerOf(org.id, rows, clock.timeZone)
+  const openItems = openItemsOf(moves, org.paymentDays ?? 0, asOf, allocations)
   return {
     garage: { id: org.id, name: org.name, terms, creditLimitMinor: org.creditLimitMinor ?? 0, paymentDays: org.paymentDays ?? 0 },
     currency: fmt.currency,
@@ -118,7 +119,7 @@ export function statementCsv(s: Statement): string {
  */
 export function openItemsCsv(s: Statement): string {
   const records: Record<string, string | number>[] = s.openItems.map((i) => ({
-    reference: i.reference, details: i.description, booked: i.bookedOn, due: i.dueOn, overdue: i.daysOverdue,
+    reference: i.reference, details: i.invoice ? `${i.description} (invoice ${i.invoice})` : i.description, booked: i.bookedOn, due: i.dueOn ?? 'not invoiced yet', overdue: i.daysOverdue,
     amount: i.amountMinor, paid: i.paidMinor, open: i.openMinor,
   }))
   const summary = (details: string, open: number) => ({ reference: '', details, booked: '', due: '', overdue: '', amount: '', paid: '', open })

@@ -161,7 +161,17 @@ export const AccountPaymentSchema = z.object({
   receivedOn: z.string({ error: 'Enter the date the money arrived.' }).regex(/^\d{4}-\d{2}-\d{2}$/, 'Enter the date as YYYY-MM-DD.')
     .refine((d) => !Number.isNaN(Date.parse(`${d}T00:00:00Z`)) && new Date(`${d}T00:00:00Z`).toISOString().slice(0, 10) === d, 'That date does not exist.'),
   note,
-}).strict()
+  /** which open items the payment pays, and how much of each; what is not allocated settles the oldest first */
+  allocations: z.array(z.object({
+    entryId: z.number({ error: 'Choose an open item.' }).int().positive('Choose an open item.'),
+    amountMinor: z.number({ error: 'Enter the amount for this item.' }).int('Enter the amount in pence (a whole number).').positive('The amount must be more than zero.'),
+  }).strict(), { error: 'List the items the payment pays.' }).max(200, 'Allocate to at most 200 items; the rest settles the oldest first.').optional(),
+}).strict().superRefine((v, ctx) => {
+  const allocated = (v.allocations ?? []).reduce((s, a) => s + a.amountMinor, 0)
+  if (allocated > v.amountMinor) ctx.addIssue({ code: 'custom', path: ['allocations'], message: 'The amounts allocated add up to more than the payment.' })
+  const ids = (v.allocations ?? []).map((a) => a.entryId)
+  if (new Set(ids).size !== ids.length) ctx.addIssue({ code: 'custom', path: ['allocations'], message: 'Each item can be chosen once.' })
+})
 export type AccountPaymentInput = z.infer<typeof AccountPaymentSchema>
 
 /** GET /api/statement?month=YYYY-MM (and the CSV): one calendar month (UTC) with its opening balance; empty = all. */

@@ -17,7 +17,11 @@ export interface OpenItem {
   reference: string
   description: string
   bookedOn: string
-  dueOn: string
+  /** the invoice that charged it and its date; null when its order is not invoiced yet (or it has no document) */
+  invoice: string | null
+  invoicedOn: string | null
+  /** payment days after the invoice's date (the booked day when it has no document); null until it is invoiced */
+  dueOn: string | null
   amountMinor: number
   paidMinor: number
   openMinor: number
@@ -39,4 +43,30 @@ export interface AccountStop {
   stopAfterDays: number
   /** an admin's lift in force: orders on account allowed until the end of `until` despite the reasons */
   lift: { until: string; reason: string } | null
+}
+
+export type AccountReminderKind = 'statement' | 'overdue'
+/** `passed`: a lower overdue threshold an item was already past when first seen; recorded, never e-mailed */
+export type AccountReminderStatus = 'sending' | 'sent' | 'failed' | 'no_recipient' | 'passed'
+
+export const ACCOUNT_REMINDER_KIND_LABELS: Record<AccountReminderKind, string> = { statement: 'Monthly statement', overdue: 'Overdue reminder' }
+export const ACCOUNT_REMINDER_STATUS_LABELS: Record<AccountReminderStatus, string> = {
+  sending: 'Being sent', sent: 'Sent', passed: 'Covered by a later reminder', failed: 'Not sent (mail failed)', no_recipient: 'Not sent (no manager e-mail)',
+}
+
+/** One e-mail about money owed, as the admin reads it: an overdue reminder names the items (one row each). */
+export interface AccountReminderView {
+  id: number
+  garage: { id: number; name: string }
+  kind: AccountReminderKind
+  kindLabel: string
+  /** the statement's month (YYYY-MM), or "<n> days overdue" */
+  about: string
+  status: AccountReminderStatus
+  statusLabel: string
+  recipients: string
+  subject: string
+  amountMinor: number
+  claimedAt: string
+  sentAt: string | null
 }

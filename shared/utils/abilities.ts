@@ -52,6 +52,11 @@ export const ABILITIES = {
   'tiers.manage': ['distributor_admin'],
   'distributor.staff': ['distributor_admin'],
   'audit.view': ['distributor_admin'],
+  /** the statements and overdue reminders e-mailed to garages */
+  'accountReminders.view': ['distributor_admin'],
+  // the view from above: figures of the business over a date range
+  'dashboard.distributor': ['distributor_admin', 'counter_staff'],
+  'dashboard.garage': ['garage_manager'],
 } as const satisfies Record<string, readonly Role[]>
 
 export type Ability = keyof typeof ABILITIES

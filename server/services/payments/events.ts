@@ -8,6 +8,7 @@ import { useStripe } from '../../utils/stripe'
 import type { Formats } from '../../../shared/utils/format'
 import { applyDeclined, applyExpired, applyPaid, applyRefund, orderIdFrom } from './effects'
 import { handleOnce, type EventRef, type Handled } from './record-once'
+import { accountPaymentOrg, settleAccountCardPayment } from './account-card'
 
 /** Settles a completed checkout (from the webhook, the sweep, or a returning browser). */
 export function settleSession(s: Stripe.Checkout.Session, evt: EventRef | null, fmt: Formats): Promise<Handled> {
@@ -37,8 +38,11 @@ export async function handleStripeEvent(evt: Stripe.Event, fmt: Formats): Promis
 async function dispatchEvent(stripe: Stripe, evt: Stripe.Event, ref: EventRef, fmt: Formats): Promise<Handled> {
   switch (evt.type) {
     case 'checkout.session.completed':
-    case 'checkout.session.async_payment_succeeded':
-      return settleSession(await stripe.checkout.sessions.retrieve(evt.data.object.id), ref, fmt)
+    case 'checkout.session.async_payment_succeeded': {
+      const s = await stripe.checkout.sessions.retrieve(evt.data.object.id)
+      // a payment on the trade account rather than for an order
+      return accountPaymentOrg(s) ? settleAccountCardPayment(s, ref, fmt) : settleSession(s, ref, fmt)
+    }
     case 'checkout.session.expired':
       return expireSession(await stripe.checkout.sessions.retrieve(evt.data.object.id), ref, fmt)
     case 'payment_intent.payment_failed': {

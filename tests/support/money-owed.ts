@@ -1,0 +1,41 @@
+/** Helpers for the money-owed tests: the account reminder job run once, a ledger entry's date moved, raw bytes. */
+import { execFile } from 'node:child_process'
+import { resolve } from 'node:path'
+import { promisify } from 'node:util'
+import { getDb, withWrite } from '../../server/utils/db'
+import { type Client, env } from './api'
+import { models } from './orders'
+
+/** `npm run accounts:remind -- --now <at>` against the e2e database and mail catcher (without blocking the loop). */
+export async function runAccountsRemind(at: Date, extraEnv: Record<string, string> = {}): Promise<string> {
+  const e = env()
+  try {
+    const r = await promisify(execFile)('npx', ['tsx', 'scripts/accounts-remind.ts', '--now', at.toISOString()], {
+      cwd: resolve(import.meta.dirname, '../..'), encoding: 'utf8',
+      env: { ...process.env, DATABASE_URL: `sqlite:${e.dbPath}`, NUXT_SMTP_HOST: '127.0.0.1', NUXT_SMTP_PORT: String(e.smtpPort), NUXT_PUBLIC_ORIGIN: e.baseUrl, ...extraEnv },
+    })
+    return r.stdout
+  } catch (err) {
+    const f = err as { code?: number; stdout?: string; stderr?: string }
+    throw new Error(`accounts:remind failed (${f.code}):\n${f.stdout}\n${f.stderr}`)
+  }
+}
+
+/** Moves every ledger entry of an order back to `at` (as if it had been booked then). */
+export async function backdateOrderCharges(orderId: number, at: Date): Promise<void> {
+  const stamp = `${at.toISOString().replace('T', ' ').replace('Z', '')} +00:00`
+  models()
+  await withWrite((t) => getDb().query('UPDATE ledger_entries SET created_at = $1 WHERE order_id = $2', { bind: [stamp, orderId], transaction: t }))
+}
+
+/** A download's bytes with the client's cookies. */
+export async function bytesOf(c: Client, path: string): Promise<{ status: number; type: string; bytes: Buffer }> {
+  const res = await fetch(new URL(path, env().baseUrl), { headers: { cookie: c.cookieHeader() } })
+  return { status: res.status, type: res.headers.get('content-type') ?? '', bytes: Buffer.from(await res.arrayBuffer()) }
+}
+
+/** A write straight to the e2e database, for a scenario's set-up (a cost, a date, a recommendation). */
+export async function exec(sql: string, replacements: Record<string, unknown>): Promise<void> {
+  models()
+  await withWrite((t) => getDb().query(sql, { replacements, transaction: t }))
+}
