@@ -20,6 +20,7 @@ import * as m0014 from './0014-owner-money'
 import * as m0015 from './0015-counter-day'
 import * as m0016 from './0016-jobs'
 import * as m0017 from './0017-money-owed'
+import * as m0020 from './0020-steering-side'
 
 export interface Migration { name: string; up: (qi: QueryInterface) => Promise<void>; down: (qi: QueryInterface) => Promise<void> }
 
@@ -41,4 +42,5 @@ export const migrations: Migration[] = [
   { name: '0015-counter-day', ...m0015 },
   { name: '0016-jobs', ...m0016 },
   { name: '0017-money-owed', ...m0017 },
+  { name: '0020-steering-side', ...m0020 },
 ]

@@ -30,6 +30,8 @@ export interface JobCardView {
   fluid: { grade: string; capacityMl: number | null }
   circuitSplit: 'front-rear' | 'diagonal' | null
   circuitSplitLabel: string
+  /** the steering wheel's side (so the master cylinder's); null: not recorded, and no bleeding order given */
+  steeringSide: 'left' | 'right' | null
   bleedingSequence: Wheel[]
   checks: JobCheck[]
   signedOff: { by: string; at: string; odometer: number | null } | null
