@@ -4,20 +4,14 @@
  * every form control. Focus stays visible when moving by keyboard, and the two journeys people make with the
  * keyboard alone work: choosing a vehicle in the finder, and the owner's approve/decline and signature.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import type { Browser, Page } from 'playwright-core'
+import { describe, expect, it } from 'vitest'
+import type { Page } from 'playwright-core'
 import { people } from '../support/api'
-import { launch, newContext, shot } from '../support/browser'
-import { axeFindings, contextAs, DESK, mainScreens, visit, type AxeFinding, type Screens } from '../support/screens'
+import { newContext, shot } from '../support/browser'
+import { axeFindings, contextAs, DESK, screensForTests, visit, type AxeFinding } from '../support/screens'
 
 describe('accessibility of the main pages (axe-core)', () => {
-  let browser: Browser
-  let screens: Screens & { ownerToken: string }
-  beforeAll(async () => {
-    browser = await launch()
-    screens = await mainScreens()
-  })
-  afterAll(async () => { await browser?.close() })
+  const run = screensForTests()
 
   async function findingsOf(page: Page, urls: string[]): Promise<Record<string, AxeFinding[]>> {
     const out: Record<string, AxeFinding[]> = {}
@@ -31,24 +25,24 @@ describe('accessibility of the main pages (axe-core)', () => {
 
   for (const role of ['technician', 'manager', 'counter', 'admin'] as const) {
     it(`${role}: no serious or critical finding on the main pages`, async () => {
-      const context = await contextAs(browser, people[role], DESK)
+      const context = await contextAs(run.browser, people[role], DESK)
       const page = await context.newPage()
-      expect(await findingsOf(page, screens[role])).toEqual({})
+      expect(await findingsOf(page, run.screens[role])).toEqual({})
       await context.close()
     })
   }
 
   it('owner: no serious or critical finding on the quote page, before and after choosing', async () => {
-    const { context } = await newContext(browser, DESK)
+    const { context } = await newContext(run.browser, DESK)
     const page = await context.newPage()
-    expect(await findingsOf(page, screens.owner)).toEqual({})
+    expect(await findingsOf(page, run.screens.owner)).toEqual({})
     await page.getByRole('radio', { name: 'Decline' }).first().click()
     expect(await axeFindings(page)).toEqual([])
     await context.close()
   })
 
   it('focus is visible on every control reached by Tab', async () => {
-    const context = await contextAs(browser, people.manager, DESK)
+    const context = await contextAs(run.browser, people.manager, DESK)
     const page = await context.newPage()
     await visit(page, '/quotes/new')
     const invisible: string[] = []
@@ -68,7 +62,7 @@ describe('accessibility of the main pages (axe-core)', () => {
   })
 
   it('the finder works by keyboard: make, model, year and engine chosen with Tab and Enter', async () => {
-    const context = await contextAs(browser, people.technician, DESK)
+    const context = await contextAs(run.browser, people.technician, DESK)
     const page = await context.newPage()
     await visit(page, '/catalogue')
     for (const step of ['Make', 'Model', 'Year', 'Engine / variant']) {
@@ -83,9 +77,9 @@ describe('accessibility of the main pages (axe-core)', () => {
   })
 
   it('the owner approves, declines and signs by keyboard alone', async () => {
-    const { context } = await newContext(browser, DESK)
+    const { context } = await newContext(run.browser, DESK)
     const page = await context.newPage()
-    await visit(page, screens.owner[0]!)
+    await visit(page, run.screens.owner[0]!)
     // each line: Tab to its choice and press Space or Enter (the first declined, then changed to approved)
     const decline = page.getByRole('radio', { name: 'Decline' }).first()
     await decline.focus()

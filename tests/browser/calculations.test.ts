@@ -13,7 +13,7 @@ import { BORE_MISMATCH } from '../../server/seed/catalogue-data'
 /** Opens the folded figures under the findings, as a person would (a click on their heading). */
 async function openFigures(page: Page): Promise<void> {
   const figures = page.getByTestId('bore-check-inputs')
-  if ((await figures.getAttribute('open')) === null) await figures.locator('summary').click()
+  if ((await figures.getAttribute('open')) === null) await figures.locator(':scope > summary').click()
 }
 
 describe('brake calculations in Chromium', () => {

@@ -3,25 +3,18 @@
  * the document is no wider than the viewport (wide tables turn into cards or scroll inside their own card).
  * Screenshots of each page at 390 px with BORELINE_SCREENSHOTS.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import type { Browser } from 'playwright-core'
+import { describe, expect, it } from 'vitest'
 import { people } from '../support/api'
-import { launch, newContext, shot } from '../support/browser'
-import { contextAs, mainScreens, PHONE, sidewaysScroll, visit, type Screens } from '../support/screens'
+import { newContext, shot } from '../support/browser'
+import { contextAs, PHONE, screensForTests, sidewaysScroll, visit } from '../support/screens'
 
 describe('main pages at 390 px wide', () => {
-  let browser: Browser
-  let screens: Screens & { ownerToken: string }
-  beforeAll(async () => {
-    browser = await launch()
-    screens = await mainScreens()
-  })
-  afterAll(async () => { await browser?.close() })
+  const run = screensForTests()
 
   const name = (url: string) => url.replace(/^\//, '').replace(/[^a-z0-9]+/gi, '-').replace(/-$/, '') || 'home'
 
   it('the bore check on a phone: findings and key figures first, the figures typed in folded below them', async () => {
-    const context = await contextAs(browser, people.technician, PHONE)
+    const context = await contextAs(run.browser, people.technician, PHONE)
     const page = await context.newPage()
     await visit(page, '/calculations/bore-check?vehicleId=1')
     await page.getByTestId('bore-check-results').waitFor()
@@ -31,7 +24,7 @@ describe('main pages at 390 px wide', () => {
     // folded: its inputs are not laid out until opened
     expect(await page.getByTestId('bore-check-inputs').getAttribute('open')).toBeNull()
     expect(await page.locator('#pedalForceN').isVisible()).toBe(false)
-    await page.getByTestId('bore-check-inputs').locator('summary').click()
+    await page.getByTestId('bore-check-inputs').locator(':scope > summary').click()
     await expect(page.locator('#pedalForceN').isVisible()).resolves.toBe(true)
     expect((await sidewaysScroll(page)).overflow).toBeLessThanOrEqual(0)
     await shot(page, '390-bore-check-opened')
@@ -40,10 +33,10 @@ describe('main pages at 390 px wide', () => {
 
   for (const role of ['technician', 'manager', 'counter', 'admin', 'owner'] as const) {
     it(`${role}: no page scrolls sideways`, async () => {
-      const context = role === 'owner' ? (await newContext(browser, PHONE)).context : await contextAs(browser, people[role], PHONE)
+      const context = role === 'owner' ? (await newContext(run.browser, PHONE)).context : await contextAs(run.browser, people[role], PHONE)
       const page = await context.newPage()
       const wide: Record<string, { overflow: number; culprits: string[] }> = {}
-      for (const url of screens[role]) {
+      for (const url of run.screens[role]) {
         await visit(page, url)
         const m = await sidewaysScroll(page)
         if (m.overflow > 0) wide[url] = m

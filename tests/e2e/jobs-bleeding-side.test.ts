@@ -32,23 +32,18 @@ beforeAll(async () => {
 afterAll(async () => { await setSide('right') })
 
 describe('bleeding order by the vehicle\'s steering side', () => {
-  it('right-hand drive (as seeded): the left rear first', async () => {
+  // right-hand master cylinder: farthest is the left rear. Front/rear: the other rear, then the fronts far first;
+  // diagonal: the left rear's circuit partner (right front), then the other circuit rear first. Left-hand drive is
+  // the mirror image.
+  const expected = {
+    right: { 'front-rear': ['left rear', 'right rear', 'left front', 'right front'], diagonal: ['left rear', 'right front', 'right rear', 'left front'] },
+    left: { 'front-rear': ['right rear', 'left rear', 'right front', 'left front'], diagonal: ['right rear', 'left front', 'left rear', 'right front'] },
+  } as const
+  it.each(['right', 'left'] as const)('%s-hand drive: the rear wheel on the other side first', async (side) => {
+    await setSide(side)
     const card = (await tech.get(`/api/quotes/${quoteId}/job-card`)).body
-    expect(card.steeringSide).toBe('right')
-    // right-hand master cylinder: farthest is the left rear. Front/rear: the other rear, then the fronts far first;
-    // diagonal: the left rear's circuit partner (right front), then the other circuit rear first
-    expect(card.bleedingSequence).toEqual(split === 'diagonal'
-      ? ['left rear', 'right front', 'right rear', 'left front']
-      : ['left rear', 'right rear', 'left front', 'right front'])
-  })
-
-  it('left-hand drive: the mirror image, the right rear first', async () => {
-    await setSide('left')
-    const card = (await tech.get(`/api/quotes/${quoteId}/job-card`)).body
-    expect(card.steeringSide).toBe('left')
-    expect(card.bleedingSequence).toEqual(split === 'diagonal'
-      ? ['right rear', 'left front', 'left rear', 'right front']
-      : ['right rear', 'left rear', 'right front', 'left front'])
+    expect(card.steeringSide).toBe(side)
+    expect(card.bleedingSequence).toEqual(expected[side][split])
   })
 
   it('not recorded: no order, and the card and its PDF still come', async () => {

@@ -5,9 +5,10 @@
  */
 import { readFileSync } from 'node:fs'
 import { createRequire } from 'node:module'
+import { afterAll, beforeAll } from 'vitest'
 import type { Browser, BrowserContext, Page } from 'playwright-core'
 import { as, env, people, type Client } from './api'
-import { hydrated, newContext } from './browser'
+import { hydrated, launch, newContext } from './browser'
 import { ok } from './jobs'
 import { sendAndReadLink, startQuote } from './quotes'
 
@@ -55,6 +56,17 @@ export async function mainScreens(): Promise<Screens & { ownerToken: string }> {
     admin: ['/admin/applications', '/admin/trade-accounts', ...(account ? [`/admin/trade-accounts/${account}`] : []), '/admin/tiers', '/staff'],
     owner: [`/q/${token}`],
   }
+}
+
+/** Inside a `describe`: Chromium and the main screens, made once before its tests and closed after them. */
+export function screensForTests(): { browser: Browser; screens: Screens & { ownerToken: string } } {
+  const shared = {} as { browser: Browser; screens: Screens & { ownerToken: string } }
+  beforeAll(async () => {
+    shared.browser = await launch()
+    shared.screens = await mainScreens()
+  })
+  afterAll(async () => { await shared.browser?.close() })
+  return shared
 }
 
 /** Opens a page as a person would and waits until it has loaded and hydrated. */
