@@ -24,6 +24,8 @@ export interface JobCardView {
   vehicle: string
   registration: string
   odometerAtQuote: string
+  /** the unit of the odometer readings (the one written at the quote; miles when it gave none) */
+  odometerUnit: 'mi' | 'km'
   groups: JobCardWheelGroup[]
   declined: JobCardLine[]
   torques: Torque[]

@@ -51,7 +51,7 @@ export function renderJobCardPdf(card: JobCardView, garage: PdfGarage, logo: Pdf
   for (const c of card.checks) boxed(c.label, c.done)
 
   heading('Sign-off')
-  if (card.signedOff) text(`Signed off by ${card.signedOff.by} on ${formats.moment(card.signedOff.at)}${card.signedOff.odometer != null ? ` at ${card.signedOff.odometer} on the odometer` : ''}.`)
+  if (card.signedOff) text(`Signed off by ${card.signedOff.by} on ${formats.moment(card.signedOff.at)}${card.signedOff.odometer != null ? ` at ${formats.count(card.signedOff.odometer)} ${card.odometerUnit} on the odometer` : ''}.`)
   else text('Technician: ____________________   Time: __________   Odometer: __________')
   doc.moveDown(0.6)
   text(card.caution, PDF_COLOURS.soft, 8)

@@ -8,6 +8,7 @@ import { User } from '../../models/accounts'
 import { Fitment, Vehicle } from '../../models/catalogue'
 import { JobCard, OwnerInvoice, VehicleJobData } from '../../models/jobs'
 import type { Quote, QuoteLine } from '../../models/quotes'
+import { parseOdometer } from '../garage-vehicles/odometer'
 import { CIRCUIT_SPLIT_LABELS, vehicleBleedingSequence, type CircuitSplit } from '../../../shared/utils/jobs/bleeding'
 import { JOB_CARD_CAUTION, JOB_CHECKS } from '../../../shared/utils/jobs/checks'
 import { effectiveQuoteStatus } from '../../../shared/utils/quote-states'
@@ -65,7 +66,7 @@ export async function jobCardOf(q: Quote, t?: Transaction): Promise<JobCardView>
   const done = new Set((card?.checks ?? []).filter((c) => c.done).map((c) => c.key))
   const split = (vehicle?.circuitSplit ?? null) as CircuitSplit | null
   return {
-    quoteId: q.id, reference: quoteReference(q), vehicle: q.vehicleLabel, registration: q.registration ?? '', odometerAtQuote: q.odometer ?? '',
+    quoteId: q.id, reference: quoteReference(q), vehicle: q.vehicleLabel, registration: q.registration ?? '', odometerAtQuote: q.odometer ?? '', odometerUnit: parseOdometer(q.odometer ?? '')?.unit ?? 'mi',
     groups: await groupsOf(q, approved, t),
     declined: work.filter((l) => l.ownerDecision === 'declined').map((l) => cardLine(l, 'declined')),
     torques: data?.torques ?? [],
