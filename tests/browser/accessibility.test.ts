@@ -17,6 +17,7 @@ describe('accessibility of the main pages (axe-core)', () => {
     const out: Record<string, AxeFinding[]> = {}
     for (const url of urls) {
       await visit(page, url)
+      await shot(page, `desk-${url.replace(/^\//, '').replace(/[^a-z0-9]+/gi, '-').replace(/-$/, '') || 'home'}`)
       const found = await axeFindings(page)
       if (found.length) out[url] = found
     }
