@@ -41,10 +41,15 @@ const stopAll = () => { for (const c of children) c.kill('SIGTERM') }
 process.on('SIGINT', () => { stopAll(); process.exit(0) })
 process.on('SIGTERM', () => { stopAll(); process.exit(0) })
 
-children.push(spawn('npx', ['tsx', 'fakes/start.ts'], { cwd: root, stdio: 'inherit', env: process.env }))
+// the fakes and the server agree on where each other is: the payments fake sends its webhooks to this server's
+// origin (its PORT), and the server sends mail to the SMTP port the mail fake listens on
+const together = {
+  ...process.env, PORT: port, NUXT_PUBLIC_ORIGIN: process.env.NUXT_PUBLIC_ORIGIN ?? `http://localhost:${port}`,
+  NUXT_SMTP_PORT: process.env.NUXT_SMTP_PORT ?? process.env.MAIL_FAKE_SMTP_PORT ?? '1025',
+}
+children.push(spawn('npx', ['tsx', 'fakes/start.ts'], { cwd: root, stdio: 'inherit', env: together }))
 const server = spawn(process.execPath, [...serverNodeArgs(), '.output/server/index.mjs'], {
-  cwd: root, stdio: 'inherit',
-  env: serverEnv({ ...process.env, NODE_ENV: 'production', PORT: port, NUXT_PUBLIC_ORIGIN: process.env.NUXT_PUBLIC_ORIGIN ?? `http://localhost:${port}` }),
+  cwd: root, stdio: 'inherit', env: serverEnv({ ...together, NODE_ENV: 'production' }),
 })
 children.push(server)
 server.on('exit', (code) => { stopAll(); process.exit(code ?? 0) })

@@ -31,6 +31,8 @@ export const NAV_ENTRIES: NavEntry[] = [
   { to: '/counter/orders', label: 'Order queue', ability: 'orders.work', side: 'distributor' },
   { to: '/counter/core-returns', label: 'Core returns', ability: 'coreReturns.decide', side: 'distributor' },
   { to: '/counter/returns', label: 'Returns in', ability: 'returns.decide', side: 'distributor' },
+  { to: '/labour-times', label: 'Labour guide', ability: 'labour.guide', side: 'distributor' },
+  { to: '/labour-times', label: 'Labour guide', ability: 'labour.ownHours', side: 'garage' },
   { to: '/garage/settings', label: 'Garage settings', ability: 'garage.settings', side: 'garage' },
   { to: '/staff', label: 'Staff', ability: 'garage.staff', side: 'garage' },
   { to: '/staff', label: 'Staff', ability: 'distributor.staff', side: 'distributor' },

@@ -2,7 +2,7 @@
  * Starts the local payment fake: `tsx fakes/payments/index.ts`.
  *
  * PAYMENTS_FAKE_PORT (default 12111), webhook URL NUXT_PUBLIC_ORIGIN + /api/webhooks/stripe
- * (default http://localhost:3000/api/webhooks/stripe), secret NUXT_STRIPE_WEBHOOK_SECRET
+ * (default http://localhost:$PORT/api/webhooks/stripe, PORT 3000 when unset, as the server's), secret NUXT_STRIPE_WEBHOOK_SECRET
  * (default whsec_boreline_local_secret). Point the SDK at it with
  * `{ host: '127.0.0.1', port, protocol: 'http' }`.
  */
@@ -19,7 +19,8 @@ export async function startPaymentsFake(env: NodeJS.ProcessEnv = process.env): P
   if (!Number.isInteger(port) || port < 0 || port > 65535) {
     throw new Error(`PAYMENTS_FAKE_PORT must be a port number (0-65535), got "${rawPort}".`)
   }
-  const origin = (env.NUXT_PUBLIC_ORIGIN || 'http://localhost:3000').replace(/\/+$/, '')
+  // the webhooks go to the server the demo started: its origin, else its PORT on this machine
+  const origin = (env.NUXT_PUBLIC_ORIGIN || `http://localhost:${env.PORT || 3000}`).replace(/\/+$/, '')
   const host = '127.0.0.1'
   const fake = createPaymentsFake({
     port,

@@ -23,6 +23,8 @@ export class Vehicle extends Model<InferAttributes<Vehicle>, InferCreationAttrib
   declare powerKw: CreationOptional<number | null>
   declare drive: CreationOptional<'FWD' | 'RWD' | 'AWD'>
   declare circuitSplit: CreationOptional<'front-rear' | 'diagonal'>
+  /** the steering wheel's side, so the master cylinder's (migration 0020); null: not recorded */
+  declare steeringSide: CreationOptional<'left' | 'right' | null>
   declare fluidGrade: CreationOptional<string>
   declare tyreSize: CreationOptional<string>
   declare kerbMassKg: CreationOptional<number | null>
@@ -159,7 +161,7 @@ const { INTEGER, STRING, FLOAT, BOOLEAN, DATE } = DataTypes
 export function initCatalogueModels(sequelize: Sequelize): void {
   Vehicle.init({
     id, make: STRING, model: STRING, generation: STRING, body: STRING, yearFrom: INTEGER, yearTo: INTEGER,
-    engineCode: STRING, engineCc: INTEGER, fuel: STRING, powerKw: INTEGER, drive: STRING, circuitSplit: STRING,
+    engineCode: STRING, engineCc: INTEGER, fuel: STRING, powerKw: INTEGER, drive: STRING, circuitSplit: STRING, steeringSide: STRING,
     fluidGrade: STRING, tyreSize: STRING, kerbMassKg: INTEGER, mcBoreMm: FLOAT, mcTandem: BOOLEAN, mcStrokeMm: FLOAT,
     pedalRatio: FLOAT, boosterRatio: FLOAT, parkingBrake: STRING,
     boosterRunOutKPa: { type: FLOAT, field: 'booster_run_out_kpa' }, wheelbaseMm: INTEGER, cogHeightMm: INTEGER, frontStaticSharePercent: FLOAT,

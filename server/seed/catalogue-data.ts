@@ -44,7 +44,7 @@ export interface SeedVehicle {
   key: string
   make: string; model: string; generation: string; body: string; yearFrom: number; yearTo: number | null
   engineCode: string; engineCc: number | null; fuel: string; powerKw: number; drive: 'FWD' | 'RWD' | 'AWD'
-  circuitSplit: 'front-rear' | 'diagonal'; fluidGrade: string; tyreSize: string; kerbMassKg: number
+  circuitSplit: 'front-rear' | 'diagonal'; steeringSide: 'left' | 'right'; fluidGrade: string; tyreSize: string; kerbMassKg: number
   mcBoreMm: number; mcTandem: boolean; mcStrokeMm: number; pedalRatio: number; boosterRatio: number | null
   parkingBrake: 'cable' | 'electric'
   /** Grip and balance figures (vehicleDynamics): typical of the class, invented for the demo. */
@@ -392,7 +392,8 @@ export function buildCatalogue(seed = 20261101): SeedCatalogue {
           const vehicle: SeedVehicle = {
             key, make: make.make, model: model.name, generation: gen[0], body: model.body, yearFrom, yearTo: gen[2],
             engineCode: `${make.make.slice(0, 2).toUpperCase()}-${engine.code}`, engineCc: engine.cc, fuel: engine.fuel, powerKw: engine.kw + between(r, -5, 5),
-            drive, circuitSplit: platform.split,
+            // the demo's market drives on the left of the road: right-hand drive throughout
+            drive, circuitSplit: platform.split, steeringSide: 'right',
             fluidGrade: model.size === 'small' && gen[1] < 2014 ? 'DOT 4' : pick(r, ['DOT 4', 'DOT 4', 'DOT 5.1']), tyreSize: platform.tyre,
             kerbMassKg,
             mcBoreMm: platform.mcBoreMm, mcTandem: true, mcStrokeMm: platform.mcStrokeMm, pedalRatio: platform.pedalRatio,

@@ -135,12 +135,17 @@ const DYNAMICS_FIELDS = [
   'ladenFrontSharePercent', 'rearValveKneeKPa', 'rearValveLadenKneeKPa', 'rearValveSlope', 'electronicDistribution',
 ] as const
 
-/** Vehicles seeded before their grip and balance figures existed get them; vehicles that have them are left alone. */
+/**
+ * Demo vehicles seeded before a figure existed get it: the grip and balance figures (while `wheelbaseMm` is empty)
+ * and the steering side (while it is empty); vehicles that have them are left alone.
+ */
 async function fillVehicleDynamics(vehicles: SeedVehicle[], t: Transaction): Promise<void> {
-  const bare = await Vehicle.findAll({ where: { wheelbaseMm: null }, attributes: ['id', 'make', 'model', 'generation', 'engineCode'], transaction: t })
   const byKey = new Map(vehicles.map((v) => [vehicleKey(v), v]))
-  for (const row of bare) {
-    const seed = byKey.get(vehicleKey(row))
-    if (seed) await row.update(Object.fromEntries(DYNAMICS_FIELDS.map((f) => [f, seed[f]])), { transaction: t })
+  for (const [empty, fields] of [['wheelbaseMm', DYNAMICS_FIELDS], ['steeringSide', ['steeringSide']]] as const) {
+    const bare = await Vehicle.findAll({ where: { [empty]: null }, attributes: ['id', 'make', 'model', 'generation', 'engineCode'], transaction: t })
+    for (const row of bare) {
+      const seed = byKey.get(vehicleKey(row))
+      if (seed) await row.update(Object.fromEntries(fields.map((f) => [f, seed[f]])), { transaction: t })
+    }
   }
 }

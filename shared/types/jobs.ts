@@ -24,12 +24,16 @@ export interface JobCardView {
   vehicle: string
   registration: string
   odometerAtQuote: string
+  /** the unit of the odometer readings (the one written at the quote; miles when it gave none) */
+  odometerUnit: 'mi' | 'km'
   groups: JobCardWheelGroup[]
   declined: JobCardLine[]
   torques: Torque[]
   fluid: { grade: string; capacityMl: number | null }
   circuitSplit: 'front-rear' | 'diagonal' | null
   circuitSplitLabel: string
+  /** the steering wheel's side (so the master cylinder's); null: not recorded, and no bleeding order given */
+  steeringSide: 'left' | 'right' | null
   bleedingSequence: Wheel[]
   checks: JobCheck[]
   signedOff: { by: string; at: string; odometer: number | null } | null

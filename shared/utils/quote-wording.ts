@@ -87,3 +87,20 @@ export function plainFinding(item: {
       return item.message
   }
 }
+
+/**
+ * A catalogue part's description as the vehicle owner reads it: without the trade detail meant for the garage and
+ * the counter: the vehicles it is listed for (", for Make Model, ..."), the pad shape code it fits, the friction
+ * code in brackets ("(FF)") and the SKU a deposit belongs to. Sizes and what the part is stay.
+ */
+export function ownerPartWords(kind: string, description: string): string {
+  if (kind === 'core_deposit') return 'Exchange deposit on the old unit'
+  if (kind !== 'part') return description
+  const forVehicles = description.lastIndexOf(', for ')
+  const plain = (forVehicles > 0 ? description.slice(0, forVehicles) : description)
+    .replace(/\s+for pad shape \S+/gi, '')
+    .replace(/\s+\([A-Z]{2}\)/g, '')
+    .replace(/\s{2,}/g, ' ')
+    .trim()
+  return plain || description
+}

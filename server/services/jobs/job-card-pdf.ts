@@ -4,6 +4,7 @@
  */
 import type { JobCardView } from '../../../shared/types/jobs'
 import type { Formats } from '../../../shared/utils/format'
+import { BLEEDING_SIDE_UNKNOWN } from '../../../shared/utils/jobs/bleeding'
 import { newPdf, PDF_COLOURS, type PdfFonts } from '../pdf/document'
 import { drawLetterhead, type PdfGarage, type PdfLogo } from '../pdf/letterhead'
 
@@ -42,14 +43,15 @@ export function renderJobCardPdf(card: JobCardView, garage: PdfGarage, logo: Pdf
   text(`Brake fluid: ${card.fluid.grade || 'as the maker specifies'}${card.fluid.capacityMl ? `, system capacity about ${(card.fluid.capacityMl / 1000).toFixed(1)} l` : ''}`)
 
   heading('Bleeding sequence')
-  if (card.circuitSplitLabel) text(`Circuits: ${card.circuitSplitLabel}`, PDF_COLOURS.soft, 8.5)
+  if (card.circuitSplitLabel) text(`Circuits: ${card.circuitSplitLabel}${card.steeringSide ? `; ${card.steeringSide}-hand drive, so the master cylinder is on the ${card.steeringSide}` : ''}`, PDF_COLOURS.soft, 8.5)
+  if (!card.bleedingSequence.length) text(BLEEDING_SIDE_UNKNOWN)
   card.bleedingSequence.forEach((w, i) => text(`${i + 1}.  ${w[0]!.toUpperCase()}${w.slice(1)}`))
 
   heading('Checks before the car goes back')
   for (const c of card.checks) boxed(c.label, c.done)
 
   heading('Sign-off')
-  if (card.signedOff) text(`Signed off by ${card.signedOff.by} on ${formats.moment(card.signedOff.at)}${card.signedOff.odometer != null ? ` at ${card.signedOff.odometer} on the odometer` : ''}.`)
+  if (card.signedOff) text(`Signed off by ${card.signedOff.by} on ${formats.moment(card.signedOff.at)}${card.signedOff.odometer != null ? ` at ${formats.count(card.signedOff.odometer)} ${card.odometerUnit} on the odometer` : ''}.`)
   else text('Technician: ____________________   Time: __________   Odometer: __________')
   doc.moveDown(0.6)
   text(card.caution, PDF_COLOURS.soft, 8)

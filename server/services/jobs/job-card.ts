@@ -8,7 +8,8 @@ import { User } from '../../models/accounts'
 import { Fitment, Vehicle } from '../../models/catalogue'
 import { JobCard, OwnerInvoice, VehicleJobData } from '../../models/jobs'
 import type { Quote, QuoteLine } from '../../models/quotes'
-import { bleedingSequence, CIRCUIT_SPLIT_LABELS, type CircuitSplit } from '../../../shared/utils/jobs/bleeding'
+import { parseOdometer } from '../garage-vehicles/odometer'
+import { CIRCUIT_SPLIT_LABELS, vehicleBleedingSequence, type CircuitSplit } from '../../../shared/utils/jobs/bleeding'
 import { JOB_CARD_CAUTION, JOB_CHECKS } from '../../../shared/utils/jobs/checks'
 import { effectiveQuoteStatus } from '../../../shared/utils/quote-states'
 import type { JobCardLine, JobCardView, JobCardWheelGroup } from '../../../shared/types/jobs'
@@ -54,7 +55,7 @@ export async function jobCardOf(q: Quote, t?: Transaction): Promise<JobCardView>
   assertApproved(q)
   const [lines, vehicle, data, card, invoice] = await Promise.all([
     linesOf(q.id, t),
-    q.vehicleId ? Vehicle.findByPk(q.vehicleId, { attributes: ['id', 'fluidGrade', 'circuitSplit'], transaction: t }) : null,
+    q.vehicleId ? Vehicle.findByPk(q.vehicleId, { attributes: ['id', 'fluidGrade', 'circuitSplit', 'steeringSide'], transaction: t }) : null,
     q.vehicleId ? VehicleJobData.findByPk(q.vehicleId, { transaction: t }) : null,
     JobCard.findOne({ where: { quoteId: q.id, organisationId: q.organisationId }, transaction: t }),
     OwnerInvoice.findOne({ where: { quoteId: q.id, organisationId: q.organisationId }, attributes: ['id'], transaction: t }),
@@ -65,14 +66,15 @@ export async function jobCardOf(q: Quote, t?: Transaction): Promise<JobCardView>
   const done = new Set((card?.checks ?? []).filter((c) => c.done).map((c) => c.key))
   const split = (vehicle?.circuitSplit ?? null) as CircuitSplit | null
   return {
-    quoteId: q.id, reference: quoteReference(q), vehicle: q.vehicleLabel, registration: q.registration ?? '', odometerAtQuote: q.odometer ?? '',
+    quoteId: q.id, reference: quoteReference(q), vehicle: q.vehicleLabel, registration: q.registration ?? '', odometerAtQuote: q.odometer ?? '', odometerUnit: parseOdometer(q.odometer ?? '')?.unit ?? 'mi',
     groups: await groupsOf(q, approved, t),
     declined: work.filter((l) => l.ownerDecision === 'declined').map((l) => cardLine(l, 'declined')),
     torques: data?.torques ?? [],
     fluid: { grade: vehicle?.fluidGrade ?? '', capacityMl: data?.fluidCapacityMl ?? null },
     circuitSplit: split,
     circuitSplitLabel: split ? CIRCUIT_SPLIT_LABELS[split] : '',
-    bleedingSequence: split ? bleedingSequence(split) : [],
+    steeringSide: vehicle?.steeringSide ?? null,
+    bleedingSequence: vehicleBleedingSequence(split, vehicle?.steeringSide ?? null),
     checks: JOB_CHECKS.map((c) => ({ key: c.key, label: c.label, done: done.has(c.key) })),
     signedOff: card?.signedOffAt ? { by: signer?.name ?? '', at: card.signedOffAt.toISOString(), odometer: card.odometer ?? null } : null,
     invoiceId: invoice?.id ?? null,

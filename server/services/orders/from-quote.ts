@@ -6,7 +6,7 @@ import { Op, type Transaction } from 'sequelize'
 import { Quote, QuoteLine } from '../../models/quotes'
 import { Order } from '../../models/orders'
 import { orderReference } from '../../../shared/types/orders'
-import { DomainError, notFound, conflict } from '../errors'
+import { DomainError, notFound, conflict, invalidInput } from '../errors'
 import { checkFit } from '../jobs/fitment-guard'
 
 export interface QuoteOrderLine { sku: string; quantity: number; quoteLineId: number; quotedUnitNetMinor: number | null }
@@ -36,10 +36,11 @@ export async function linesFromQuote(organisationId: number, quoteId: number, t?
       skipped.push({ sku: l.description, reason: 'not a catalogue part (order it separately)' })
       continue
     }
-    // the fitment guard again: the catalogue may have changed since the quote; a manager's override stands
+    // the fitment guard again, as when the line was added: the catalogue may have changed since the quote. A part
+    // that does not fit stops the order (the manager re-quotes it); the manager's override with a reason stands.
     if (quote.vehicleId && l.partId && !l.fitOverrideReason && (await checkFit(quote.vehicleId, l.partId, {}, t)).status === 'none') {
-      skipped.push({ sku: l.sku, reason: `does not fit ${quote.vehicleLabel || 'the vehicle'} by the catalogue now` })
-      continue
+      throw invalidInput({ sku: `${l.sku} does not fit ${quote.vehicleLabel || 'the vehicle'} by the catalogue now: take it off the quote or add it again with the reason it is right.` },
+        `${l.sku} does not fit ${quote.vehicleLabel || 'the vehicle'} by the catalogue now.`)
     }
     const key = l.sku.toUpperCase()
     const prev = merged.get(key)

@@ -9,6 +9,7 @@ import type { Quote, QuoteLine } from '../../models/quotes'
 import type { OwnerQuoteLine, OwnerQuoteView } from '../../../shared/types/quotes'
 import { formatBp, type TotalsLine } from '../../../shared/utils/quote-totals'
 import { declineStatement } from '../../../shared/utils/quote-declines'
+import { ownerPartWords } from '../../../shared/utils/quote-wording'
 import { acknowledgementOf, coreRefundOf } from './garage-view'
 import { quoteReference } from './references'
 import { hoursOf, iso, isDecidable, isDecided, linesOf, quoteFigures } from './rows'
@@ -54,7 +55,7 @@ function ownerLine(l: QuoteLine, f: TotalsLine): Omit<OwnerQuoteLine, 'photos'> 
   const decidable = isDecidable(l)
   const needsAcknowledgement = decidable && l.recommendation === 'required'
   return {
-    id: l.id, kind: l.kind, description: l.description, quantity: l.quantity, hours: hoursOf(l),
+    id: l.id, kind: l.kind, description: ownerPartWords(l.kind, l.description), quantity: l.quantity, hours: hoursOf(l),
     unitPriceMinor: l.unitPriceMinor, amountMinor: f.amountMinor, taxBp: f.taxBp, taxMinor: f.taxMinor, grossMinor: f.grossMinor,
     taxIncluded: !!l.taxIncluded, taxShares: f.shares,
     recommendation: l.recommendation ?? null, reason: l.reason ?? null, coreCharge: l.coreCharge ?? null, coreRefund: coreRefundOf(l),

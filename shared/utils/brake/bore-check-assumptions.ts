@@ -82,11 +82,21 @@ export function hydraulicsAssumptions(input: HydraulicsInput, original: Side, re
   }
   out.push(...axleNotes(chains), ...vehicleNotes(input, chains))
   if (rep && rep.resolved.inherited.length > 0) {
-    out.push(`Replacement values not given were taken from the original: ${rep.resolved.inherited.join(', ')}.`)
+    out.push(`Replacement values not given were taken from the original: ${rep.resolved.inherited.map(inheritedWords).join(', ')}.`)
   }
   out.push(
     'Stopping distances from 100 km/h are written as FMVSS No. 135 writes its limits: 0.10 V + V² / (25.92 a), the 0.10 V build-up term on both sides; the service stop (S7.5) is compared at its 500 N pedal force in each load state.',
     'Circuit failure: the intact circuit reaches the same line pressure as before; the wheels still braking can use only the friction of the load on them.',
   )
   return out
+}
+
+/** What a figure taken from the original is called where people read it (the paths stay in `resolved.inherited`). */
+const INHERITED_WORDS: Record<string, string> = {
+  strokeMm: 'master cylinder stroke', tandem: 'tandem or single master cylinder', ports: 'master cylinder ports', portLayout: 'port layout',
+  tyreRollingRadiusMm: 'tyre rolling radius', tyreSize: 'tyre size', pistonTravelMm: 'piston travel', padHeightMm: 'pad height', edgeMarginMm: 'pad edge margin',
+}
+function inheritedWords(path: string): string {
+  const [group, a, b] = path.split('.')
+  return group === 'masterCylinder' ? INHERITED_WORDS[a!] ?? a! : `${a} ${INHERITED_WORDS[b!] ?? b}`
 }

@@ -83,7 +83,7 @@ describe('bore-change comparison', () => {
     expect(r.findings.find((f) => f.code === 'pedal-gain-change')!.message).toMatch(/harder/)
     // stroke available not given on the replacement: taken from the original and said so
     expect(r.inputs.resolvedReplacement!.masterCylinder.strokeMm).toBe(36)
-    expect(r.assumptions.join(' ')).toMatch(/masterCylinder\.strokeMm/)
+    expect(r.assumptions.join(' ')).toMatch(/taken from the original: master cylinder stroke/)
   })
 
   it('front caliper piston 54 -> 57 mm: clamp force and fluid demand × 1.1142', () => {
@@ -97,7 +97,7 @@ describe('bore-change comparison', () => {
     expect(r.comparison!.clampForcePercent.rear).toBeCloseTo(0, 12)
     // tyre and travel taken from the original axle
     expect(r.replacement!.axles.front.tyreForceN).not.toBeNull()
-    expect(r.assumptions.join(' ')).toMatch(/axles\.front\.tyreSize/)
+    expect(r.assumptions.join(' ')).toMatch(/front tyre size/)
     expect(r.comparison!.frontShareChangePoints).toBeGreaterThan(0)
   })
 

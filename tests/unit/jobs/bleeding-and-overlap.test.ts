@@ -5,7 +5,7 @@
  * labour guides count pads fitted with new discs inside the disc job). The expected values are worked by hand below.
  */
 import { describe, expect, it } from 'vitest'
-import { bleedingSequence } from '#shared/utils/jobs/bleeding'
+import { bleedingSequence, vehicleBleedingSequence } from '#shared/utils/jobs/bleeding'
 import { jobOperations, operationFor, overlapHours } from '#shared/utils/jobs/labour'
 
 describe('bleeding sequence (common practice: farthest wheel first)', () => {
@@ -24,7 +24,14 @@ describe('bleeding sequence (common practice: farthest wheel first)', () => {
     expect(bleedingSequence('diagonal', 'left')).toEqual(['right rear', 'left front', 'left rear', 'right front'])
   })
   it('bleeds each wheel exactly once', () => {
-    for (const split of ['front-rear', 'diagonal'] as const) expect(new Set(bleedingSequence(split)).size).toBe(4)
+    for (const split of ['front-rear', 'diagonal'] as const) for (const side of ['left', 'right'] as const) expect(new Set(bleedingSequence(split, side)).size).toBe(4)
+  })
+  it('follows the vehicle: left- and right-hand drive start at opposite rear wheels; an unrecorded side gives no order', () => {
+    // left-hand drive: master cylinder on the left, so the right rear is farthest (common practice, as above)
+    expect(vehicleBleedingSequence('front-rear', 'left')[0]).toBe('right rear')
+    expect(vehicleBleedingSequence('front-rear', 'right')[0]).toBe('left rear')
+    expect(vehicleBleedingSequence('diagonal', null)).toEqual([])
+    expect(vehicleBleedingSequence(null, 'right')).toEqual([])
   })
 })
 
