@@ -11,7 +11,7 @@
 import { resolve } from 'node:path'
 import sqlite3 from 'sqlite3'
 import { MC_BORES, WC_BORES, prng } from '../server/seed/catalogue-data'
-import { all, insertAll, run } from './lib/sqlite-bulk'
+import { all, esc, insertAll, run } from './lib/sqlite-bulk'
 
 interface Args { parts: number; vehicles: number; fitments: number; database: string; seed: number }
 

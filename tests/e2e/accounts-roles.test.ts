@@ -92,6 +92,7 @@ const rows: Row[] = [
   { route: 'GET /api/admin/trade-accounts/:id', call: (c) => c.get(`/api/admin/trade-accounts/${ids.approvedGarage}`), expect: signedIn({ admin: 200, counter: 200 }) },
   { route: 'PATCH /api/admin/trade-accounts/:id', call: (c) => c.patch(`/api/admin/trade-accounts/${ids.approvedGarage}`, {}), expect: signedIn({ admin: 422 }) },
   { route: 'PATCH /api/admin/trade-accounts/:id/home-branch', call: (c) => c.patch(`/api/admin/trade-accounts/${ids.approvedGarage}/home-branch`, {}), expect: signedIn({ admin: 422 }) },
+  { route: 'GET /api/admin/trade-accounts/:id/open-items', call: (c) => c.get(`/api/admin/trade-accounts/${ids.approvedGarage}/open-items`), expect: signedIn({ admin: 200, counter: 200 }) },
   { route: 'GET /api/admin/trade-accounts/:id/stop', call: (c) => c.get(`/api/admin/trade-accounts/${ids.approvedGarage}/stop`), expect: signedIn({ admin: 200, counter: 200 }) },
   { route: 'POST /api/admin/trade-accounts/:id/stop-lift', call: (c) => c.post(`/api/admin/trade-accounts/${ids.approvedGarage}/stop-lift`, {}), expect: signedIn({ admin: 422 }) },
   { route: 'POST /api/admin/trade-accounts/:id/suspend', call: (c) => c.post(`/api/admin/trade-accounts/${ids.approvedGarage}/suspend`, {}), expect: signedIn({ admin: 422 }) },

@@ -37,6 +37,8 @@ async function sentAt(client: Client, quantity: number, iso: string, payment: 'a
   return r.body
 }
 
+/** A garage of its own for an order dispatched weeks ago (its invoice falls due from then). */
+const lateGarage = async () => as((await makeGarage({ terms: 'account', creditLimitMinor: 50_000_000, label: 'Returns Late Garage' })).email)
 const now = () => new Date().toISOString()
 const daysAfter = (iso: string, days: number) => new Date(new Date(iso).getTime() + days * 86_400_000).toISOString()
 
@@ -75,6 +77,8 @@ describe('a return accepted in part', () => {
 describe('what the garage may send back, and when', () => {
   it('charges restocking on an unneeded part sent back after 14 days', async () => {
     const sentOn = '2026-11-02T10:00:00Z'
+    // its own garage: an invoice dated back then is overdue today and would put the shared one on stop
+    const c = await lateGarage()
     const order = await sentAt(c, 2, sentOn)
     const lineId = order.lines[0].id
     // 20 days after dispatch: past the 14 days, within the 30
@@ -93,6 +97,8 @@ describe('what the garage may send back, and when', () => {
 
   it('refuses a wrong part after 30 days, but takes a faulty one as a warranty claim with its details', async () => {
     const sentOn = '2026-10-01T10:00:00Z'
+    // its own garage: an invoice dated back then is overdue today and would put the shared one on stop
+    const c = await lateGarage()
     const order = await sentAt(c, 1, sentOn)
     const lineId = order.lines[0].id
     const late = await sendAt(c, 'POST', '/api/returns', daysAfter(sentOn, 31), { orderLineId: lineId, quantity: 1, reason: 'wrong_part' })
