@@ -12,7 +12,7 @@ export async function runAccountsRemind(at: Date, extraEnv: Record<string, strin
   try {
     const r = await promisify(execFile)('npx', ['tsx', 'scripts/accounts-remind.ts', '--now', at.toISOString()], {
       cwd: resolve(import.meta.dirname, '../..'), encoding: 'utf8',
-      env: { ...process.env, DATABASE_URL: `sqlite:${e.dbPath}`, NUXT_SMTP_HOST: '127.0.0.1', NUXT_SMTP_PORT: String(e.smtpPort), NUXT_PUBLIC_ORIGIN: e.baseUrl, ...extraEnv },
+      env: { ...process.env, DATABASE_URL: e.databaseUrl, NUXT_SMTP_HOST: '127.0.0.1', NUXT_SMTP_PORT: String(e.smtpPort), NUXT_PUBLIC_ORIGIN: e.baseUrl, ...extraEnv },
     })
     return r.stdout
   } catch (err) {
