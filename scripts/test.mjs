@@ -13,8 +13,8 @@ if (!process.env.BORELINE_TEST_PG_URL || process.argv.length > 2) process.exit(f
 
 console.log('\n[test] the e2e project and the two-process suite on PostgreSQL…')
 const started = Date.now()
-const second = vitest(['--project', 'e2e', '--project', 'processes', '--outputFile.json=test-results/vitest-pg.json'], {
-  ...process.env, BORELINE_E2E_DATABASE: 'postgres', BORELINE_REBUILD: '',
+const second = vitest(['--project', 'e2e', '--project', 'processes'], {
+  ...process.env, BORELINE_E2E_DATABASE: 'postgres', BORELINE_REBUILD: '', BORELINE_VITEST_REPORT: 'test-results/vitest-pg.json',
 })
 console.log(`[test] PostgreSQL run: ${((Date.now() - started) / 60_000).toFixed(1)} min`)
 process.exit(first || second)
