@@ -49,7 +49,7 @@ export function orderLineTaxMinor(lineNetMinor: number, taxRateBp = ORDER_TAX_RA
 }
 
 /** One line's amounts: net, its tax, the deposit and the deposit's tax. */
-export function lineFigures(l: OrderTotalsLine, taxRateBp = ORDER_TAX_RATE_BP): LineFigures {
+export function orderLineFigures(l: OrderTotalsLine, taxRateBp = ORDER_TAX_RATE_BP): LineFigures {
   for (const k of ['quantity', 'unitNetMinor', 'coreDepositUnitMinor'] as const) {
     const v = l[k]
     if (!Number.isSafeInteger(v) || v < 0) throw new RangeError(`${k} must be a whole number, 0 or more (got ${v})`)
@@ -76,7 +76,7 @@ export function sumFigures(lines: readonly LineFigures[]): Omit<OrderTotals, 'li
 
 /** Subtotal, deposits, tax and the total to pay for a list of order lines. */
 export function orderTotals(lines: readonly OrderTotalsLine[], taxRateBp = ORDER_TAX_RATE_BP): OrderTotals {
-  const out = lines.map((l) => lineFigures(l, taxRateBp))
+  const out = lines.map((l) => orderLineFigures(l, taxRateBp))
   return { lines: out, ...sumFigures(out) }
 }
 

@@ -8,7 +8,7 @@ import type { Transaction } from 'sequelize'
 import { Branch, type Organisation } from '../../models/accounts'
 import { garagePrices } from '../pricing'
 import { linesFromQuote } from './from-quote'
-import { ORDER_TAX_RATE_BP, lineFigures, sumFigures } from '../../../shared/utils/order-totals'
+import { ORDER_TAX_RATE_BP, orderLineFigures, sumFigures } from '../../../shared/utils/order-totals'
 import type { Fulfilment, OrderAmounts, PricedLine } from '../../../shared/types/orders'
 import { invalidInput } from '../errors'
 import { availableStock, branchTimes } from './branches'
@@ -131,7 +131,7 @@ export async function priceOrder(org: Organisation, source: OrderSource, clock: 
   })
   const figures = pieces.map((piece) => {
     const r = requested[piece.group]!
-    return lineFigures({ quantity: piece.quantity, unitNetMinor: r.unitNetMinor, coreDepositUnitMinor: r.coreDepositUnitMinor })
+    return orderLineFigures({ quantity: piece.quantity, unitNetMinor: r.unitNetMinor, coreDepositUnitMinor: r.coreDepositUnitMinor })
   })
   const lines: PricedLine[] = pieces.map((piece, i) => {
     const { fulfilment: _ask, ...r } = requested[piece.group]!

@@ -7,7 +7,7 @@
  */
 import { describe, expect, it } from 'vitest'
 import { all, create } from 'mathjs'
-import { lineFigures, orderTotals, shareOfTax } from '../../../shared/utils/order-totals'
+import { orderLineFigures, orderTotals, shareOfTax } from '../../../shared/utils/order-totals'
 import { creditOf, type Creditable } from '../../../server/services/documents/creditable'
 import { returnTerms } from '../../../server/services/returns/rules'
 import { counterSettings } from '../../../server/services/orders/counter-settings'
@@ -19,7 +19,7 @@ const refRound = (expr: string) => Number(math.round(math.evaluate(expr)))
 describe('tax on core deposits', () => {
   it('taxes the deposit at the part\'s rate, per line', () => {
     // 2 x £100.00 = £200.00, VAT £40.00; deposits 2 x £25.00 = £50.00, VAT £10.00; total £300.00
-    expect(lineFigures({ quantity: 2, unitNetMinor: 10_000, coreDepositUnitMinor: 2_500 })).toEqual({ lineNetMinor: 20_000, lineTaxMinor: 4_000, coreDepositMinor: 5_000, coreDepositTaxMinor: 1_000 })
+    expect(orderLineFigures({ quantity: 2, unitNetMinor: 10_000, coreDepositUnitMinor: 2_500 })).toEqual({ lineNetMinor: 20_000, lineTaxMinor: 4_000, coreDepositMinor: 5_000, coreDepositTaxMinor: 1_000 })
     const t = orderTotals([{ quantity: 2, unitNetMinor: 10_000, coreDepositUnitMinor: 2_500 }, { quantity: 1, unitNetMinor: 1_001, coreDepositUnitMinor: 333 }])
     // second line: £10.01 -> VAT 200.2 -> £2.00; deposit £3.33 -> VAT 66.6 -> £0.67
     expect(t.lines[1]).toEqual({ lineNetMinor: 1_001, lineTaxMinor: refRound('1001 * 0.2'), coreDepositMinor: 333, coreDepositTaxMinor: refRound('333 * 0.2') })
