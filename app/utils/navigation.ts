@@ -10,6 +10,8 @@ export interface NavEntry {
   label: string
   ability: Ability
   side: OrgKind | 'both'
+  /** kept under "More" on a desk-wide header (set-up and records looked at now and then), so one row holds the rest */
+  more?: true
 }
 
 export const NAV_ENTRIES: NavEntry[] = [
@@ -21,8 +23,8 @@ export const NAV_ENTRIES: NavEntry[] = [
   { to: '/quotes', label: 'Quotes', ability: 'quotes.draft', side: 'garage' },
   { to: '/admin/applications', label: 'Applications', ability: 'tradeAccounts.decide', side: 'distributor' },
   { to: '/admin/trade-accounts', label: 'Trade accounts', ability: 'tradeAccounts.view', side: 'distributor' },
-  { to: '/admin/tiers', label: 'Tiers', ability: 'tiers.manage', side: 'distributor' },
-  { to: '/admin/account-reminders', label: 'Reminders sent', ability: 'accountReminders.view', side: 'distributor' },
+  { to: '/admin/tiers', label: 'Tiers', more: true, ability: 'tiers.manage', side: 'distributor' },
+  { to: '/admin/account-reminders', label: 'Reminders sent', more: true, ability: 'accountReminders.view', side: 'distributor' },
   { to: '/dashboard', label: 'Dashboard', ability: 'dashboard.distributor', side: 'distributor' },
   { to: '/dashboard', label: 'Dashboard', ability: 'dashboard.garage', side: 'garage' },
   { to: '/price-files', label: 'Price files', ability: 'priceFiles.manage', side: 'distributor' },
@@ -31,9 +33,9 @@ export const NAV_ENTRIES: NavEntry[] = [
   { to: '/counter/orders', label: 'Order queue', ability: 'orders.work', side: 'distributor' },
   { to: '/counter/core-returns', label: 'Core returns', ability: 'coreReturns.decide', side: 'distributor' },
   { to: '/counter/returns', label: 'Returns in', ability: 'returns.decide', side: 'distributor' },
-  { to: '/labour-times', label: 'Labour guide', ability: 'labour.guide', side: 'distributor' },
-  { to: '/labour-times', label: 'Labour guide', ability: 'labour.ownHours', side: 'garage' },
-  { to: '/garage/settings', label: 'Garage settings', ability: 'garage.settings', side: 'garage' },
-  { to: '/staff', label: 'Staff', ability: 'garage.staff', side: 'garage' },
-  { to: '/staff', label: 'Staff', ability: 'distributor.staff', side: 'distributor' },
+  { to: '/labour-times', label: 'Labour guide', more: true, ability: 'labour.guide', side: 'distributor' },
+  { to: '/labour-times', label: 'Labour guide', more: true, ability: 'labour.ownHours', side: 'garage' },
+  { to: '/garage/settings', label: 'Garage settings', more: true, ability: 'garage.settings', side: 'garage' },
+  { to: '/staff', label: 'Staff', more: true, ability: 'garage.staff', side: 'garage' },
+  { to: '/staff', label: 'Staff', more: true, ability: 'distributor.staff', side: 'distributor' },
 ]

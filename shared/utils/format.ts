@@ -19,6 +19,8 @@ type When = Date | string | null | undefined
 export interface Formats extends FormatSettings {
   /** "£1,234.56"; an absent amount is a dash */
   money: (minor: number | null | undefined) => string
+  /** the money unit for a column or axis heading: the currency's symbol in the locale ("£") */
+  moneyUnit: string
   /** "3 Dec 2026": the one way a date is written, on screens, documents and e-mails alike */
   day: (when: When) => string
   /** the same as `day` (kept so a narrow column can say what it wants) */
@@ -54,6 +56,7 @@ export function formatsFor(settings: Partial<FormatSettings> = {}): Formats {
   return {
     ...s,
     money: (minor) => (minor == null ? '–' : formatMinor(minor, s.currency, s.locale)),
+    moneyUnit: new Intl.NumberFormat(s.locale, { style: 'currency', currency: s.currency }).formatToParts(0).find((p) => p.type === 'currency')?.value ?? s.currency,
     day: oneDay,
     shortDay: oneDay,
     moment: dates({ dateStyle: 'medium', timeStyle: 'short' }),

@@ -7,17 +7,16 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Browser } from 'playwright-core'
 import { people } from '../support/api'
 import { launch, newContext, open, shot, signInThroughForm } from '../support/browser'
-import { addLedgerEntry, makeGarage, type TestGarage } from '../support/orders'
-import { runAccountsRemind } from '../support/money-owed'
+import type { TestGarage } from '../support/orders'
+import { owingGarage, runAccountsRemind } from '../support/money-owed'
 
 let browser: Browser
 let garage: TestGarage
 
 beforeAll(async () => {
   browser = await launch()
-  garage = await makeGarage({ terms: 'account', creditLimitMinor: 100_000, label: 'Reminded Browser' })
   // booked 40 days ago with 30 payment days: 10 days overdue, past the 7-day reminder
-  await addLedgerEntry(garage.id, { kind: 'order', amountMinor: 7_700, reference: 'REM-BR', at: new Date(Date.now() - 40 * 86_400_000).toISOString() })
+  garage = await owingGarage('Reminded Browser', [{ amountMinor: 7_700, reference: 'REM-BR', daysAgo: 40 }])
   await runAccountsRemind(new Date())
 })
 afterAll(async () => { await browser?.close() })

@@ -7,16 +7,16 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Browser } from 'playwright-core'
 import { as, people } from '../support/api'
 import { foreignRequests, launch, newContext, open, shot, signInThroughForm } from '../support/browser'
-import { addLedgerEntry, makeGarage, type TestGarage } from '../support/orders'
+import type { TestGarage } from '../support/orders'
+import { owingGarage } from '../support/money-owed'
 
 let browser: Browser
 let garage: TestGarage
 
 beforeAll(async () => {
   browser = await launch()
-  garage = await makeGarage({ terms: 'account', creditLimitMinor: 100_000, label: 'Suspended Garage' })
   // booked 70 days ago with 30 payment days: due 40 days ago, so in the 31-60 bucket and over the 30-day stop
-  await addLedgerEntry(garage.id, { kind: 'order', amountMinor: 12_000, reference: 'OWE-OLD', at: new Date(Date.now() - 70 * 86_400_000).toISOString() })
+  garage = await owingGarage('Suspended Garage', [{ amountMinor: 12_000, reference: 'OWE-OLD', daysAgo: 70 }])
   const suspended = await (await as(people.admin)).post(`/api/admin/trade-accounts/${garage.id}/suspend`, { reason: 'Statement unpaid for two months.' })
   expect(suspended.status, suspended.text).toBe(200)
 })

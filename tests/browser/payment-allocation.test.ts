@@ -6,17 +6,15 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Browser } from 'playwright-core'
 import { as, people } from '../support/api'
 import { launch, newContext, open, shot, signInThroughForm } from '../support/browser'
-import { addLedgerEntry, makeGarage, type TestGarage } from '../support/orders'
+import type { TestGarage } from '../support/orders'
+import { owingGarage } from '../support/money-owed'
 
 let browser: Browser
 let garage: TestGarage
-const DAY = 86_400_000
 
 beforeAll(async () => {
   browser = await launch()
-  garage = await makeGarage({ terms: 'account', creditLimitMinor: 100_000, label: 'Allocating Garage' })
-  await addLedgerEntry(garage.id, { kind: 'order', amountMinor: 10_000, reference: 'ALLOC-OLD', at: new Date(Date.now() - 20 * DAY).toISOString() })
-  await addLedgerEntry(garage.id, { kind: 'order', amountMinor: 20_000, reference: 'ALLOC-NEW', at: new Date(Date.now() - 5 * DAY).toISOString() })
+  garage = await owingGarage('Allocating Garage', [{ amountMinor: 10_000, reference: 'ALLOC-OLD', daysAgo: 20 }, { amountMinor: 20_000, reference: 'ALLOC-NEW', daysAgo: 5 }])
 })
 afterAll(async () => { await browser?.close() })
 

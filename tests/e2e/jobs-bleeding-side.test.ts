@@ -7,23 +7,24 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { setup } from '@nuxt/test-utils/e2e'
-import { type Client, as, env, people } from '../support/api'
+import { Client, as, env, people } from '../support/api'
 import { decidedQuote } from '../support/jobs'
 import { models } from '../support/orders'
+import { dbAll } from '../support/db'
 import { withWrite } from '../../server/utils/db'
 import { Vehicle } from '../../server/models/catalogue'
 
 await setup({ host: env().baseUrl })
 
 const VEHICLE = 3
-let manager: Client, tech: Client
+let manager: Client, tech: Client, counter: Client
 let quoteId = 0
 let split: 'front-rear' | 'diagonal'
 const setSide = (steeringSide: 'left' | 'right' | null) => withWrite((t) => Vehicle.update({ steeringSide }, { where: { id: VEHICLE }, transaction: t }))
 
 beforeAll(async () => {
   models()
-  ;[manager, tech] = await Promise.all([as(people.manager), as(people.technician)])
+  ;[manager, tech, counter] = await Promise.all([as(people.manager), as(people.technician), as(people.counter)])
   const parts = await manager.get(`/api/vehicles/${VEHICLE}/parts`)
   const disc = parts.body.groups.find((g: { axle: string }) => g.axle === 'front').types.find((t: { type: string }) => t.type === 'disc').parts[0].sku
   ;({ quoteId } = await decidedQuote(manager, VEHICLE, [disc]))
@@ -53,5 +54,34 @@ describe('bleeding order by the vehicle\'s steering side', () => {
     expect(r.body).toMatchObject({ steeringSide: null, bleedingSequence: [] })
     const pdf = await tech.get(`/api/quotes/${quoteId}/job-card.pdf`)
     expect(pdf.status).toBe(200)
+  })
+})
+
+describe('PATCH /api/vehicles/:id: counter staff record the steering side', () => {
+  it('counter staff set it; the finder and the job card follow at once; the change is audited', async () => {
+    await setSide(null)
+    const r = await counter.patch(`/api/vehicles/${VEHICLE}`, { steeringSide: 'left' })
+    expect(r.status, r.text).toBe(200)
+    expect(r.body).toEqual({ id: VEHICLE, steeringSide: 'left' })
+    expect((await manager.get(`/api/vehicles/${VEHICLE}/parts`)).body.vehicle.steeringSide).toBe('left')
+    expect((await tech.get(`/api/quotes/${quoteId}/job-card`)).body.bleedingSequence[0]).toBe('right rear')
+    const back = await counter.patch(`/api/vehicles/${VEHICLE}`, { steeringSide: null })
+    expect(back.body.steeringSide).toBeNull()
+    expect((await tech.get(`/api/quotes/${quoteId}/job-card`)).body.bleedingSequence).toEqual([])
+    const audits = await dbAll<{ action: string; changes: string }>("SELECT action, changes FROM audit_log WHERE entity = 'vehicle' AND entity_id = ? ORDER BY id", [String(VEHICLE)])
+    expect(audits.map((a) => a.action).slice(-2)).toEqual(['catalogue.vehicle.update', 'catalogue.vehicle.update'])
+    expect(audits.at(-2)!.changes).toMatch(/left/)
+  })
+
+  it('refuses other values beside the field, garages, strangers and unknown vehicles, and changes nothing', async () => {
+    await setSide('right')
+    const bad = await counter.patch(`/api/vehicles/${VEHICLE}`, { steeringSide: 'middle' })
+    expect(bad.status).toBe(422)
+    expect(bad.body.data.fields.steeringSide).toMatch(/left, right or not recorded/)
+    expect((await manager.patch(`/api/vehicles/${VEHICLE}`, { steeringSide: 'left' })).status).toBe(403)
+    expect((await tech.patch(`/api/vehicles/${VEHICLE}`, { steeringSide: 'left' })).status).toBe(403)
+    expect((await new Client().patch(`/api/vehicles/${VEHICLE}`, { steeringSide: 'left' })).status).toBe(401)
+    expect((await counter.patch('/api/vehicles/999999', { steeringSide: 'left' })).status).toBe(404)
+    expect((await Vehicle.findByPk(VEHICLE))!.steeringSide).toBe('right')
   })
 })

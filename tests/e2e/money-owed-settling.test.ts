@@ -12,7 +12,7 @@ import { promisify } from 'node:util'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { setup } from '@nuxt/test-utils/e2e'
 import { Client, as, env, mailFor, people } from '../support/api'
-import { addLedgerEntry, makeGarage, makePart, payOnFake, sessionIdOf, type TestGarage, type TestPart } from '../support/orders'
+import { addLedgerEntry, fake, makeGarage, makePart, payOnFake, pickAndDispatch, sessionIdOf, type TestGarage, type TestPart } from '../support/orders'
 import { backdateOrderCharges, bytesOf, runAccountsRemind } from '../support/money-owed'
 
 await setup({ host: env().baseUrl })
@@ -27,10 +27,7 @@ beforeAll(async () => {
   ;[admin, counter] = await Promise.all([as(people.admin), as(people.counter)])
 })
 
-async function dispatchNow(orderId: number): Promise<void> {
-  expect((await counter.patch(`/api/counter/orders/${orderId}`, { status: 'picking' })).status).toBe(200)
-  expect((await counter.patch(`/api/counter/orders/${orderId}`, { status: 'dispatched' })).status).toBe(200)
-}
+const dispatchNow = (orderId: number) => pickAndDispatch(counter, orderId)
 
 describe('due dates run from the invoice', () => {
   it('an order booked 40 days ago and invoiced today is due in 30 days, not overdue; one not yet sent has no due day', async () => {
@@ -89,6 +86,31 @@ describe('a stopped and suspended garage pays by card', () => {
     expect(s.entries.filter((e: any) => e.kind === 'account_payment').map((e: any) => e.amountMinor)).toEqual([-12_000])
     expect(s.stop.onStop).toBe(false)
     expect((await m.get('/api/orders')).status).toBe(403) // still suspended: only the statement, documents and paying
+  })
+})
+
+describe('a card payment on the account whose webhook is lost', () => {
+  it('is booked by the sweep from the payment service\'s completed checkouts, once', async () => {
+    const g = await makeGarage({ terms: 'account', creditLimitMinor: 100_000, label: 'Lost Webhook' })
+    const m = await as(g.email)
+    await addLedgerEntry(g.id, { kind: 'order', amountMinor: 4_500, reference: 'OWE-LOST', at: new Date(Date.now() - 10 * DAY).toISOString() })
+    const r = await m.post('/api/statement/card-payment', { amountMinor: 4_500 })
+    expect(r.status, r.text).toBe(200)
+    const { json: before } = await fake('GET', '/_fake/config')
+    try {
+      expect((await fake('POST', '/_fake/config', { webhookUrl: null })).status).toBe(200)
+      expect((await payOnFake(sessionIdOf(r.body.url))).status).toBe(200)
+    } finally {
+      await fake('POST', '/_fake/config', { webhookUrl: before.config.webhookUrl })
+    }
+    expect((await m.get('/api/statement')).body.balanceMinor).toBe(4_500) // nothing told us yet
+    const swept = await counter.post('/api/counter/orders/sweep')
+    expect(swept.status, swept.text).toBe(200)
+    expect(swept.body.paid).toBeGreaterThanOrEqual(1)
+    expect((await counter.post('/api/counter/orders/sweep')).status).toBe(200)
+    const s = (await m.get('/api/statement')).body
+    expect(s.balanceMinor).toBe(0)
+    expect(s.entries.filter((e: any) => e.kind === 'account_payment').map((e: any) => e.amountMinor)).toEqual([-4_500])
   })
 })
 

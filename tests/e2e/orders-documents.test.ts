@@ -12,7 +12,7 @@ import { setup } from '@nuxt/test-utils/e2e'
 // @ts-expect-error no types for the inner path
 import pdfParse from 'pdf-parse/lib/pdf-parse.js'
 import { as, env, people, type Client } from '../support/api'
-import { makeGarage, makePart, seriesNumbers, tamperWithDocument, type TestGarage } from '../support/orders'
+import { counterAndAccountGarage, makeGarage, makePart, pickAndDispatch, seriesNumbers, tamperWithDocument, type TestGarage } from '../support/orders'
 
 await setup({ host: env().baseUrl })
 
@@ -21,17 +21,12 @@ let garage: TestGarage
 let c: Client
 
 beforeAll(async () => {
-  counter = await as(people.counter)
-  garage = await makeGarage({ terms: 'account', creditLimitMinor: 50_000_000, label: 'Documents Garage' })
-  c = await as(garage.email)
+  ;({ counter, garage, c } = await counterAndAccountGarage('Documents Garage'))
 })
 
 async function sent(client: Client, sku: string, quantity: number) {
   const order = (await client.post('/api/orders', { lines: [{ sku, quantity }], payment: 'account' })).body
-  expect((await counter.patch(`/api/counter/orders/${order.id}`, { status: 'picking' })).status).toBe(200)
-  const r = await counter.patch(`/api/counter/orders/${order.id}`, { status: 'dispatched' })
-  expect(r.status, r.text).toBe(200)
-  return r.body
+  return pickAndDispatch(counter, order.id)
 }
 
 const documentOf = async (client: Client, id: number) => (await client.get(`/api/documents/${id}`)).body

@@ -11,7 +11,7 @@ import { beforeAll, describe, expect, it } from 'vitest'
 import { setup } from '@nuxt/test-utils/e2e'
 import { Client, as, env, people, waitForMail } from '../support/api'
 import { pngBytes } from '../support/accounts'
-import { fake, ledgerOf, makeGarage, makePart, payOnFake, sendAt, sessionIdOf, stockOf, waitFor, type TestGarage, type TestPart } from '../support/orders'
+import { counterAndAccountGarage, fake, ledgerOf, makeGarage, pickAndDispatch, makePart, payOnFake, sendAt, sessionIdOf, stockOf, waitFor, type TestGarage, type TestPart } from '../support/orders'
 
 await setup({ host: env().baseUrl })
 
@@ -21,9 +21,7 @@ let c: Client
 let part: TestPart
 
 beforeAll(async () => {
-  counter = await as(people.counter)
-  garage = await makeGarage({ terms: 'account', creditLimitMinor: 50_000_000, label: 'Returns Garage' })
-  c = await as(garage.email)
+  ;({ counter, garage, c } = await counterAndAccountGarage('Returns Garage'))
   part = await makePart({ listPriceMinor: 4_000, stock: { NGT: 100 } })
 })
 
@@ -31,10 +29,7 @@ beforeAll(async () => {
 async function sentAt(client: Client, quantity: number, iso: string, payment: 'account' | 'card' = 'account') {
   const order = (await sendAt(client, 'POST', '/api/orders', iso, { lines: [{ sku: part.sku, quantity }], payment })).body
   if (payment === 'card') await payOnFake(sessionIdOf((await client.post(`/api/orders/${order.id}/checkout`)).body.url))
-  expect((await sendAt(counter, 'PATCH', `/api/counter/orders/${order.id}`, iso, { status: 'picking' })).status).toBe(200)
-  const r = await sendAt(counter, 'PATCH', `/api/counter/orders/${order.id}`, iso, { status: 'dispatched' })
-  expect(r.status, r.text).toBe(200)
-  return r.body
+  return pickAndDispatch(counter, order.id, iso)
 }
 
 /** A garage of its own for an order dispatched weeks ago (its invoice falls due from then). */

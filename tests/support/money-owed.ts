@@ -1,10 +1,13 @@
-/** Helpers for the money-owed tests: the account reminder job run once, a ledger entry's date moved, raw bytes. */
+/**
+ * Helpers for the money-owed tests: a garage owing charges of given ages, the account reminder job run once, a
+ * ledger entry's date moved, raw bytes.
+ */
 import { execFile } from 'node:child_process'
 import { resolve } from 'node:path'
 import { promisify } from 'node:util'
 import { getDb, withWrite } from '../../server/utils/db'
 import { type Client, env } from './api'
-import { models } from './orders'
+import { addLedgerEntry, makeGarage, models, type TestGarage } from './orders'
 
 /** `npm run accounts:remind -- --now <at>` against the e2e database and mail catcher (without blocking the loop). */
 export async function runAccountsRemind(at: Date, extraEnv: Record<string, string> = {}): Promise<string> {
@@ -38,4 +41,13 @@ export async function bytesOf(c: Client, path: string): Promise<{ status: number
 export async function exec(sql: string, replacements: Record<string, unknown>): Promise<void> {
   models()
   await withWrite((t) => getDb().query(sql, { replacements, transaction: t }))
+}
+
+/** A garage of the test's own on account terms (30 payment days, £1,000.00 limit) owing charges booked `daysAgo`. */
+export async function owingGarage(label: string, charges: readonly { amountMinor: number; reference: string; daysAgo: number }[]): Promise<TestGarage> {
+  const garage = await makeGarage({ terms: 'account', creditLimitMinor: 100_000, label })
+  for (const c of charges) {
+    await addLedgerEntry(garage.id, { kind: 'order', amountMinor: c.amountMinor, reference: c.reference, at: new Date(Date.now() - c.daysAgo * 86_400_000).toISOString() })
+  }
+  return garage
 }

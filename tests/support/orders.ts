@@ -5,6 +5,7 @@
  * Also: signing webhook events with the test secret the global setup gives the server, and fake controls.
  */
 import { randomBytes } from 'node:crypto'
+import { expect } from 'vitest'
 import Stripe from 'stripe'
 import { QueryTypes } from 'sequelize'
 import { getDb, withWrite } from '../../server/utils/db'
@@ -14,7 +15,7 @@ import { Fitment, PartPrice, Part, PriceVersion, StockLevel } from '../../server
 import { CoreReturn, LedgerEntry, Order, OrderLine } from '../../server/models/orders'
 import { Quote, QuoteLine } from '../../server/models/quotes'
 import { hashPasswordOutsideNitro } from '../../server/services/password'
-import { DEMO_PASSWORD, env, type Client } from './api'
+import { DEMO_PASSWORD, as, env, people, type Client } from './api'
 
 /** tests/support/global-setup.ts starts the server and the payment fake with this secret */
 export const WEBHOOK_SECRET = 'whsec_boreline_test_secret'
@@ -240,6 +241,23 @@ export const at = (iso: string) => ({ 'x-boreline-test-now': iso })
 /** POST/PATCH as at a moved instant. */
 export function sendAt<T = any>(c: Client, method: 'POST' | 'PATCH' | 'GET', path: string, iso: string, json?: unknown) {
   return c.request<T>(path, { method, headers: at(iso), ...(json === undefined ? {} : { json }) })
+}
+
+/** The counter picks and dispatches an order (at a moved instant when `iso` is given); the dispatch's answer. */
+export async function pickAndDispatch(counter: Client, orderId: number, iso?: string): Promise<any> {
+  const move = (status: string) => (iso ? sendAt(counter, 'PATCH', `/api/counter/orders/${orderId}`, iso, { status }) : counter.patch(`/api/counter/orders/${orderId}`, { status }))
+  const picking = await move('picking')
+  expect(picking.status, picking.text).toBe(200)
+  const r = await move('dispatched')
+  expect(r.status, r.text).toBe(200)
+  return r.body
+}
+
+/** Counter staff signed in, and a garage of the test's own on account terms with room to order, its manager signed in. */
+export async function counterAndAccountGarage(label: string): Promise<{ counter: Client; garage: TestGarage; c: Client }> {
+  const counter = await as(people.counter)
+  const garage = await makeGarage({ terms: 'account', creditLimitMinor: 50_000_000, label })
+  return { counter, garage, c: await as(garage.email) }
 }
 
 export async function linesOf(orderId: number): Promise<OrderLine[]> {

@@ -12,7 +12,7 @@ import type { FitmentInput } from '../../../shared/schemas/catalogue/fitments'
 import { normaliseIdentifier } from '../../../shared/schemas/catalogue/params'
 import type { PartType } from '../../../shared/schemas/catalogue/part-types'
 import { axleOfSpecs, parseSpecs } from '../../../shared/schemas/catalogue/specs'
-import type { PartCreateInput, PartPatchInput } from '../../../shared/schemas/catalogue/upkeep'
+import type { PartCreateInput, PartPatchInput, VehiclePatchInput } from '../../../shared/schemas/catalogue/upkeep'
 import { answerProblems, canonicalAnswers } from '../../../shared/utils/catalogue/qualifiers'
 import { catalogueWrite } from './changes'
 import { oeDifferencesOf } from './vehicle-parts'
@@ -145,6 +145,19 @@ export async function patchFitment(actorUserId: number, id: number, input: Parti
     await f.save({ transaction: t })
     await audit(t, { actorUserId, action: 'catalogue.fitment.update', entity: 'fitment', entityId: f.id, changes: diff(before, { axle: f.axle, side: f.side, quantity: f.quantity, qualifiers: f.qualifiers, note: f.note }) })
     return { result: f, partIds: [part.id] }
+  })
+}
+
+/** Records what counter staff know about a catalogued vehicle (its steering side: the job card's bleeding order). */
+export async function patchVehicle(actorUserId: number, id: number, input: VehiclePatchInput): Promise<Vehicle> {
+  return catalogueWrite(async (t) => {
+    const v = await Vehicle.findByPk(id, { transaction: t })
+    if (!v) throw notFound(`Vehicle ${id}`)
+    const before = { steeringSide: v.steeringSide ?? null }
+    v.steeringSide = input.steeringSide
+    await v.save({ transaction: t })
+    await audit(t, { actorUserId, action: 'catalogue.vehicle.update', entity: 'vehicle', entityId: v.id, changes: diff(before, { steeringSide: v.steeringSide }) })
+    return { result: v, partIds: [] }
   })
 }
 

@@ -199,7 +199,7 @@ function render(base: Base, answers: Answers, pricing: PricingContext) {
   return {
     vehicle: {
       id: v.id, label: v.label, make: v.make, model: v.model, generation: v.generation, body: v.body, yearFrom: v.yearFrom, yearTo: v.yearTo,
-      engine: v.engine, engineCode: v.engineCode, fuel: v.fuel, drive: v.drive, circuitSplit: v.circuitSplit, fluidGrade: v.fluidGrade,
+      engine: v.engine, engineCode: v.engineCode, fuel: v.fuel, drive: v.drive, circuitSplit: v.circuitSplit, steeringSide: v.steeringSide ?? null, fluidGrade: v.fluidGrade,
       tyreSize: v.tyreSize, kerbMassKg: v.kerbMassKg, mcBoreMm: v.mcBoreMm, parkingBrake: v.parkingBrake,
       brakes: v.brakes.filter((b) => matchQualifiers(b.qualifiers, answers) !== 'excluded'),
     },

@@ -1,7 +1,8 @@
 /**
  * The periodic reconciliation of what lost or late webhooks would have told us: unpaid checkouts that completed
- * or expired, card orders that never opened a checkout (their stock goes back after the hold time), and
- * refunds that could not be sent yet (cancelled orders, old units, returned parts: the last two counted together).
+ * or expired, card orders that never opened a checkout (their stock goes back after the hold time), card payments
+ * on a trade account completed in the last days (booked once; counted as paid), and refunds that could not be
+ * sent yet (cancelled orders, old units, returned parts: the last two counted together).
  * Each pass looks at up to SWEEP_BATCH rows of each kind; the next pass takes
  * the rest, so a backlog drains without one pass holding the payment service for long.
  */
@@ -10,12 +11,15 @@ import { CoreReturn, Order } from '../../models/orders'
 import { PartReturn } from '../../models/counter'
 import { stripeProblem, useStripe } from '../../utils/stripe'
 import type { Formats } from '../../../shared/utils/format'
+import { accountPaymentOrg, settleAccountCardPayment } from './account-card'
 import { lapseOrder } from './effects'
 import { expireSession, settleSession } from './events'
 import { handleOnce } from './record-once'
 import { issueCoreRefund, issueOrderRefund, issueReturnRefund } from './refunds'
 
 const SWEEP_BATCH = 200
+/** A checkout lives at most 24 hours (the payment service's limit), so three days back covers any late payment. */
+const ACCOUNT_PAYMENT_LOOKBACK_S = 3 * 86_400
 
 export interface SweepResult { paid: number; lapsed: number; refunds: number; coreRefunds: number; errors: number }
 
@@ -52,6 +56,7 @@ export async function sweepOrders(fmt: Formats, holdMinutes: number, now = new D
     if (!order || order.status !== 'awaiting_payment' || order.checkoutSessionId) return { outcome: 'ignored' }
     return lapseOrder(t, order, fmt)
   })).outcome.startsWith('lapsed'), r, 'lapsed')
+  await sweepAccountPayments(fmt, now, r)
   const refunds = await Order.findAll({ where: { paymentState: 'refund_pending' }, limit: SWEEP_BATCH })
   await each(refunds, (o) => `refund of order ${o.id}`, (o) => issueOrderRefund(o.id, fmt), r, 'refunds')
   const coreRefunds = await CoreReturn.findAll({ where: { refundPending: true }, limit: SWEEP_BATCH })
@@ -59,4 +64,24 @@ export async function sweepOrders(fmt: Formats, holdMinutes: number, now = new D
   const returnRefunds = await PartReturn.findAll({ where: { refundPending: true }, limit: SWEEP_BATCH })
   await each(returnRefunds, (x) => `return refund ${x.id}`, (x) => issueReturnRefund(x.id), r, 'coreRefunds')
   return r
+}
+
+/**
+ * Trade-account card payments whose webhook never came: no row of ours names their checkout (nothing is booked
+ * until paid), so the payment service's completed checkouts of the last days are read instead, and each one naming
+ * a trade account is booked (once: the ledger's key on the payment's id).
+ */
+async function sweepAccountPayments(fmt: Formats, now: Date, r: SweepResult): Promise<void> {
+  let seen = 0
+  try {
+    const since = Math.floor(now.getTime() / 1000) - ACCOUNT_PAYMENT_LOOKBACK_S
+    for await (const s of useStripe().checkout.sessions.list({ status: 'complete', created: { gte: since }, limit: 100 })) {
+      if (++seen > SWEEP_BATCH * 5) break
+      if (!accountPaymentOrg(s)) continue
+      await each([s], (x) => `account payment ${x.id}`, async (x) => (await settleAccountCardPayment(x, null, fmt)).outcome === 'account payment booked', r, 'paid')
+    }
+  } catch (err) {
+    r.errors++
+    console.error('[boreline] sweep: account payments:', stripeProblem(err))
+  }
 }

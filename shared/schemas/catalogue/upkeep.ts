@@ -39,3 +39,9 @@ export const SupersedeSchema = z.object({
   newSku: SkuSchema,
   note: note('note', 240).default(''),
 })
+
+/** PATCH /api/vehicles/:id: what counter staff record about a catalogued vehicle (null: not known). */
+export const VehiclePatchSchema = z.object({
+  steeringSide: z.enum(['left', 'right'], { error: 'steering side is left, right or not recorded' }).nullable(),
+}, { error: 'send the vehicle\'s steering side' })
+export type VehiclePatchInput = z.infer<typeof VehiclePatchSchema>
