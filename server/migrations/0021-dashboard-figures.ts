@@ -31,7 +31,7 @@ export async function up(qi: QueryInterface): Promise<void> {
     organisation_id INTEGER NOT NULL REFERENCES organisations(id),
     -- the local day its payment days run from; NULL while its order is not invoiced
     due_from VARCHAR(10) NULL,
-    open_minor INTEGER NOT NULL
+    open_minor BIGINT NOT NULL
   )`)
   await q('CREATE INDEX open_items_organisation ON open_items (organisation_id)')
   await q(`CREATE TABLE open_item_marks (
