@@ -71,7 +71,7 @@ const baselineGarage = () => Promise.all([
   rows('SELECT created_at, total_minor FROM orders WHERE organisation_id = :org AND created_at >= :start AND created_at < :end AND status IN (:sold)', { org: garage!.id, ...p }),
 ])
 
-const ms = (t: number) => `${t.toFixed(0)} ms`
+const ms = (t: number) => `${t.toFixed(t < 10 ? 1 : 0)} ms`
 async function timed(fn: () => Promise<unknown>): Promise<number> {
   const t = performance.now()
   await fn()

@@ -15,7 +15,7 @@ import { cachedAnswer } from './answer-cache'
 import { overdueOfAll } from './open-items'
 import { lastPriceFileEffect } from './price-effect'
 import { daysOf, num, rateBp, rows, type Span } from './range'
-import { fillCounts, openBackOrders, salesByDay, salesByGarageBranch, salesByPartVersion, soldDescriptions, type PartVersionSales } from './sold-figures'
+import { openBackOrders, salesAndFillByGarageBranch, salesByDay, salesByPartVersion, soldDescriptions, type PartVersionSales } from './sold-figures'
 
 export { SOLD_STATUSES } from './sold-figures'
 
@@ -57,11 +57,10 @@ async function marginOf(groups: readonly PartVersionSales[]): Promise<Omit<Distr
 /** The dashboard worked out from the database, no kept answer. */
 export async function freshDistributorDashboard(span: Span, clock: ViewClock, fmt: Formats): Promise<DistributorDashboard> {
   const versions = await activations()
-  const [sales, byDay, partGroups, fill, backOrders, returns, branches, overdue, lastPriceFile] = await Promise.all([
-    salesByGarageBranch(span),
+  const [sales, byDay, partGroups, backOrders, returns, branches, overdue, lastPriceFile] = await Promise.all([
+    salesAndFillByGarageBranch(span),
     salesByDay(span),
     salesByPartVersion(span, versions),
-    fillCounts(span),
     openBackOrders(),
     rows<{ reason: ReturnReason; n: number; u: number }>('SELECT reason, COUNT(*) AS n, SUM(quantity) AS u FROM part_returns WHERE created_at >= :start AND created_at < :end GROUP BY reason', { start: span.start, end: span.end }),
     Branch.findAll({ attributes: ['id', 'name'] }),
@@ -73,7 +72,11 @@ export async function freshDistributorDashboard(span: Span, clock: ViewClock, fm
     ({ id, netMinor: (into?.netMinor ?? 0) + num(s.net), orders: (into?.orders ?? 0) + num(s.orders) })
   const byBranch = new Map<number, { id: number; netMinor: number; orders: number }>()
   const byGarage = new Map<number, { id: number; netMinor: number; orders: number }>()
+  const fill = { lines: 0, filled: 0 }
   for (const s of sales) {
+    fill.lines += num(s.counted)
+    fill.filled += num(s.filled)
+    if (!num(s.orders)) continue // only cancelled lines: nothing sold
     byBranch.set(num(s.branch_id), add(byBranch.get(num(s.branch_id)), num(s.branch_id), s))
     byGarage.set(num(s.organisation_id), add(byGarage.get(num(s.organisation_id)), num(s.organisation_id), s))
   }

@@ -1,7 +1,7 @@
 /**
  * The range's sold lines summed in the database (GROUP BY), so a year of lines never crosses into JS: sales per
- * garage and branch, per local day, per part and the price version active when its order was placed (for the top
- * parts and the margin), and requested lines by fill state. Lines count when their order is confirmed or later and
+ * garage and branch with the requested lines by fill state, per local day, and per part and the price version active
+ * when its order was placed (for the top parts and the margin). Lines count when their order is confirmed or later and
  * they were not cancelled; the fill rate counts every piece (fill-rate.ts gives the rule). The covering indexes of
  * migration 0021 serve these reads. Plain Node.
  */
@@ -18,12 +18,27 @@ const LIVE = `${SOLD} AND l.state <> 'cancelled'`
 
 const params = (span: Span) => ({ start: span.start, end: span.end, sold: SOLD_STATUSES })
 
-export interface GarageBranchSales { organisation_id: number; branch_id: number; orders: number; net: number }
+export interface GarageBranchSales { organisation_id: number; branch_id: number; orders: number; net: number; counted: number; filled: number }
 
-/** Net sales and orders per (garage, branch): every order falls in one, so the sums add up to the totals. */
-export function salesByGarageBranch(span: Span): Promise<GarageBranchSales[]> {
-  return rows<GarageBranchSales>(`SELECT o.organisation_id, o.branch_id, COUNT(DISTINCT o.id) AS orders, SUM(l.line_net_minor) AS net ${LIVE}
-    GROUP BY o.organisation_id, o.branch_id`, params(span))
+/**
+ * One pass over the range's lines, per requested line (order and line group) then per (garage, branch): net sales
+ * and orders with a line not cancelled (every order falls in one garage and branch, so the sums add up to the
+ * totals), and the requested lines whose pieces are all finished, at least one sent (`counted`), of which those sent
+ * complete from the home branch's shelf or counter without a split at picking (`filled`; fill-rate.ts gives the rule).
+ */
+export function salesAndFillByGarageBranch(span: Span): Promise<GarageBranchSales[]> {
+  return rows<GarageBranchSales>(`SELECT g.organisation_id, g.branch_id, COUNT(DISTINCT CASE WHEN g.live > 0 THEN g.order_id END) AS orders,
+      SUM(g.net) AS net, SUM(CASE WHEN g.unfinished = 0 AND g.sent > 0 THEN 1 ELSE 0 END) AS counted,
+      SUM(CASE WHEN g.unfinished = 0 AND g.sent > 0 THEN g.filled ELSE 0 END) AS filled
+    FROM (
+      SELECT l.order_id, MIN(o.organisation_id) AS organisation_id, MIN(o.branch_id) AS branch_id,
+        SUM(CASE WHEN l.state <> 'cancelled' THEN 1 ELSE 0 END) AS live,
+        SUM(CASE WHEN l.state <> 'cancelled' THEN l.line_net_minor ELSE 0 END) AS net,
+        MIN(CASE WHEN l.source IN ('home', 'collect') AND l.state = 'dispatched' AND l.split_from_line_id IS NULL THEN 1 ELSE 0 END) AS filled,
+        SUM(CASE WHEN l.state IN ('dispatched', 'cancelled') THEN 0 ELSE 1 END) AS unfinished,
+        SUM(CASE WHEN l.state = 'dispatched' THEN 1 ELSE 0 END) AS sent
+      ${SOLD} GROUP BY l.order_id, l.line_group) g
+    GROUP BY g.organisation_id, g.branch_id`, params(span))
 }
 
 /** Net sales and orders per local day of the span (index into `daysOf`), days without sales left out. */
@@ -69,20 +84,6 @@ export async function soldDescriptions(span: Span, partIds: readonly number[]): 
   const found = await rows<{ sku: string; description: string }>(`SELECT l.sku, MIN(l.description) AS description ${LIVE} AND l.part_id IN (:partIds)
     GROUP BY l.sku`, { ...params(span), partIds })
   return new Map(found.map((r) => [r.sku, r.description]))
-}
-
-/**
- * Requested lines (order and line group) of the range whose pieces are all finished, at least one sent, and of those
- * the ones sent complete from the home branch's shelf or counter without a split at picking (fill-rate.ts).
- */
-export async function fillCounts(span: Span): Promise<{ lines: number; filled: number }> {
-  const [r] = await rows<{ lines: number; filled: number }>(`SELECT COUNT(*) AS lines, SUM(g.filled) AS filled FROM (
-      SELECT MIN(CASE WHEN l.source IN ('home', 'collect') AND l.state = 'dispatched' AND l.split_from_line_id IS NULL THEN 1 ELSE 0 END) AS filled,
-        SUM(CASE WHEN l.state IN ('dispatched', 'cancelled') THEN 0 ELSE 1 END) AS unfinished,
-        SUM(CASE WHEN l.state = 'dispatched' THEN 1 ELSE 0 END) AS sent
-      ${SOLD} GROUP BY l.order_id, l.line_group) g
-    WHERE g.unfinished = 0 AND g.sent > 0`, params(span))
-  return { lines: num(r?.lines), filled: num(r?.filled) }
 }
 
 /** Back-ordered lines not yet sent nor cancelled, of orders confirmed or later: open now, whatever the range. */
