@@ -37,7 +37,7 @@ export async function openItemsScenario(cleanUp: () => Promise<void>): Promise<v
     const p1 = await book('account_payment', -7_000, '2031-04-10') // P1, 50.00 of it allocated to C2
     await book('account_payment', -3_000, '2031-06-01') // P2
     await withWrite((t) => PaymentAllocation.create({ organisationId: garage, paymentEntryId: p1, chargeEntryId: c2, amountMinor: 5_000, createdAt: new Date() }, { transaction: t }))
-  })
+  }, 120_000) // every migration on a fresh database, slow on a busy PostgreSQL server
   afterAll(async () => { await closeDb(); await cleanUp() }, 60_000) // dropping a PostgreSQL database waits for its connections
 
   describe('open items kept as the ledger is written', () => {
