@@ -29,6 +29,11 @@ export function dayPlus(day: string, n: number): string {
   return new Date((dayNumber(day) + n) * 86_400_000).toISOString().slice(0, 10)
 }
 
+/** Whole days from `dueOn` to `today`, 0 when not yet due, due today or not due at all yet (null: not invoiced). */
+export function daysPast(dueOn: string | null, today: string): number {
+  return dueOn === null ? 0 : Math.max(0, dayNumber(today) - dayNumber(dueOn))
+}
+
 export function bucketOf(daysOverdue: number): AgeingBucket {
   if (daysOverdue <= 0) return 'current'
   if (daysOverdue <= 30) return 'd1_30'
@@ -76,7 +81,7 @@ export function openItemsOf(moves: readonly LedgerMove[], paymentDays: number, t
     if (paidMinor === c.amountMinor) continue
     const from = c.dueFrom === undefined ? c.day : c.dueFrom
     const dueOn = from === null ? null : dayPlus(from, paymentDays)
-    const daysOverdue = dueOn === null ? 0 : Math.max(0, dayNumber(today) - dayNumber(dueOn))
+    const daysOverdue = daysPast(dueOn, today)
     open.push({
       entryId: c.id, reference: c.reference, description: c.description, bookedOn: c.day, invoice: c.invoice ?? null, invoicedOn: c.dueFrom ?? null, dueOn,
       amountMinor: c.amountMinor, paidMinor, openMinor: c.amountMinor - paidMinor, daysOverdue, bucket: bucketOf(daysOverdue),

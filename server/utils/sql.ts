@@ -51,6 +51,77 @@ export async function revisionTriggers(qi: QueryInterface, table: string, infix:
   }
 }
 
+/**
+ * Triggers that add one to `catalogue_revisions.<column>` once per transaction writing `table`, as that transaction
+ * commits. SQLite has one writer, so a plain trigger per row is enough there; on PostgreSQL a deferred constraint
+ * trigger runs at commit and a transaction-local flag lets only its first row count, so the counter row is locked
+ * for the moment of the commit only (busy tables such as orders never queue behind each other on it) and a reader
+ * never sees the new count before the rows it counts.
+ */
+export async function commitRevisionTriggers(qi: QueryInterface, table: string, column: string): Promise<void> {
+  if (!pgOf(qi.sequelize)) return revisionTriggers(qi, table, `rev_${column}`, column)
+  const fn = `bump_at_commit_${column}`
+  await qi.sequelize.query(`CREATE OR REPLACE FUNCTION ${fn}() RETURNS trigger LANGUAGE plpgsql AS $$
+    BEGIN
+      IF current_setting('boreline.bumped_${column}', true) = 'y' THEN RETURN NULL; END IF;
+      PERFORM set_config('boreline.bumped_${column}', 'y', true);
+      UPDATE catalogue_revisions SET ${column} = ${column} + 1 WHERE id = 1; RETURN NULL;
+    END $$`)
+  await qi.sequelize.query(`CREATE CONSTRAINT TRIGGER ${table}_rev_${column} AFTER INSERT OR UPDATE OR DELETE ON ${table}
+    DEFERRABLE INITIALLY DEFERRED FOR EACH ROW EXECUTE FUNCTION ${fn}()`)
+}
+
+/** Drops what `commitRevisionTriggers` made. */
+export async function dropCommitRevisionTriggers(qi: QueryInterface, table: string, column: string): Promise<void> {
+  if (!pgOf(qi.sequelize)) {
+    for (const op of ['insert', 'update', 'delete']) await dropTrigger(qi, table, `${table}_rev_${column}_${op}`)
+    return
+  }
+  await dropTrigger(qi, table, `${table}_rev_${column}`)
+}
+
+/**
+ * Triggers that add one to `<marks>.revision` of the organisation (`organisation_id`) of every row written to
+ * `table` (inserted, changed or deleted: old and new), making its row when there is none, so work derived from an
+ * organisation's rows knows which organisations changed since it was last worked out. On PostgreSQL the mark is
+ * made as the transaction commits (deferred), so the marks row is locked for the commit only.
+ */
+export async function organisationMarkTriggers(qi: QueryInterface, table: string, marks: string): Promise<void> {
+  const q = (sql: string) => qi.sequelize.query(sql)
+  if (!pgOf(qi.sequelize)) {
+    const mark = (row: 'NEW' | 'OLD') => `INSERT OR IGNORE INTO ${marks} (organisation_id) VALUES (${row}.organisation_id);
+      UPDATE ${marks} SET revision = revision + 1 WHERE organisation_id = ${row}.organisation_id;`
+    await q(`CREATE TRIGGER ${table}_mark_insert AFTER INSERT ON ${table} BEGIN ${mark('NEW')} END`)
+    await q(`CREATE TRIGGER ${table}_mark_update AFTER UPDATE ON ${table} BEGIN ${mark('OLD')} ${mark('NEW')} END`)
+    await q(`CREATE TRIGGER ${table}_mark_delete AFTER DELETE ON ${table} BEGIN ${mark('OLD')} END`)
+    return
+  }
+  const fn = `mark_${marks}`
+  await q(`CREATE OR REPLACE FUNCTION ${fn}() RETURNS trigger LANGUAGE plpgsql AS $$
+    BEGIN
+      IF TG_OP <> 'INSERT' THEN
+        INSERT INTO ${marks} (organisation_id, revision) VALUES (OLD.organisation_id, 1)
+          ON CONFLICT (organisation_id) DO UPDATE SET revision = ${marks}.revision + 1;
+      END IF;
+      IF TG_OP <> 'DELETE' THEN
+        INSERT INTO ${marks} (organisation_id, revision) VALUES (NEW.organisation_id, 1)
+          ON CONFLICT (organisation_id) DO UPDATE SET revision = ${marks}.revision + 1;
+      END IF;
+      RETURN NULL;
+    END $$`)
+  await q(`CREATE CONSTRAINT TRIGGER ${table}_mark AFTER INSERT OR UPDATE OR DELETE ON ${table}
+    DEFERRABLE INITIALLY DEFERRED FOR EACH ROW EXECUTE FUNCTION ${fn}()`)
+}
+
+/** Drops what `organisationMarkTriggers` made. */
+export async function dropOrganisationMarkTriggers(qi: QueryInterface, table: string): Promise<void> {
+  if (!pgOf(qi.sequelize)) {
+    for (const op of ['insert', 'update', 'delete']) await dropTrigger(qi, table, `${table}_mark_${op}`)
+    return
+  }
+  await dropTrigger(qi, table, `${table}_mark`)
+}
+
 /** A trigger that refuses every update (`op` UPDATE) or delete (`op` DELETE) of `table`'s rows with `message`. */
 export async function refusingTrigger(qi: QueryInterface, table: string, op: 'UPDATE' | 'DELETE', message: string): Promise<void> {
   const name = `${table}_immutable_${op.toLowerCase()}`
