@@ -18,10 +18,10 @@ export default defineConfig({
     projects: [
       {
         resolve: { alias },
-        test: { name: 'unit', include: ['tests/unit/**/*.test.ts', 'fakes/**/*.test.ts'], environment: 'node', testTimeout: 30_000, sequence: { groupOrder: 0 } },
+        test: { name: 'unit', include: ['tests/unit/**/*.test.ts', 'fakes/**/*.test.ts'], environment: 'node', testTimeout: 30_000, hookTimeout: 60_000, sequence: { groupOrder: 0 } },
       },
       await defineVitestProject({
-        test: { name: 'nuxt', include: ['tests/nuxt/**/*.test.ts'], environment: 'nuxt', testTimeout: 30_000, sequence: { groupOrder: 0 } },
+        test: { name: 'nuxt', include: ['tests/nuxt/**/*.test.ts'], environment: 'nuxt', testTimeout: 30_000, hookTimeout: 120_000, sequence: { groupOrder: 0 } },
       }),
       {
         resolve: { alias },

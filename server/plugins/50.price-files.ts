@@ -2,13 +2,15 @@
  * Price files at start and while running: where uploaded files live, checks interrupted by a restart run
  * again, scheduled versions take effect on time (a sweep every 15 s, plus a timer set when scheduling), and the
  * catalogue snapshot that checks compare against is kept warm. On PostgreSQL the checks are jobs of the shared
- * queue: any process may take one, and its progress is written to the price file's row for every process to show.
+ * queue: any process may take one, and its progress is written to the price file's row for every process to show;
+ * an apply cut short by a process that stopped is put back to ready by the next sweep of any process.
  */
 import { setUploadsRoot } from '../services/price-files/storage'
-import { recoverPriceFiles, startCheckWorker } from '../services/price-files/queue'
+import { recoverCutShortApplies, recoverPriceFiles, startCheckWorker } from '../services/price-files/queue'
 import { warmSnapshot } from '../services/price-files/snapshot'
 import { activateDue } from '../services/price-files/schedule'
 import { everyFewSeconds } from '../utils/interval-job'
+import { isPostgres } from '../utils/db'
 
 export default defineNitroPlugin((nitro) => {
   setUploadsRoot(String(useRuntimeConfig().uploadsDir || './uploads'))
@@ -17,6 +19,6 @@ export default defineNitroPlugin((nitro) => {
     // the compared catalogue is built once in the background, so the first price file's preview does not wait for it
     .then(async () => { await recoverPriceFiles(); await sweep(); if (process.env.BORELINE_PRICE_SNAPSHOT_AT_START !== '0') await warmSnapshot() })
     .catch((err) => console.error('[boreline] price files not recovered:', err?.message ?? err))
-  everyFewSeconds(nitro, { setting: 'BORELINE_PRICE_SCHEDULE_SECONDS', defaultSeconds: 15, name: 'price schedule', run: () => activateDue(), report: () => {} })
+  everyFewSeconds(nitro, { setting: 'BORELINE_PRICE_SCHEDULE_SECONDS', defaultSeconds: 15, name: 'price schedule', run: async () => { await activateDue(); if (isPostgres()) await recoverCutShortApplies() }, report: () => {} })
   startCheckWorker(nitro)
 })

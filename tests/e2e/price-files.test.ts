@@ -178,6 +178,9 @@ describe('bad input gets a clear message and changes nothing', () => {
     const r = await upload(counter, big, 'huge.csv')
     expect(r.status).toBe(413)
     expect(r.body.data.fields.file).toMatch(/larger than 50 MB/)
+    // the 413 closes its connection (the rest of the body is not read); give the client a moment to see the close
+    // before the next upload, so a busy machine does not hand that upload the closing socket (EPIPE)
+    await new Promise((resolve) => setTimeout(resolve, 1500))
     // looks like a workbook to file-type (content types + xl/ entries), but one entry inflates ~1000:1
     const bomb = buildZip([
       { name: '[Content_Types].xml', data: Buffer.from('<?xml version="1.0"?><Types xmlns="http://schemas.openxmlformats.org/package/2006/content-types"><Override PartName="/xl/workbook.xml" ContentType="application/vnd.openxmlformats-officedocument.spreadsheetml.sheet.main+xml"/></Types>') },

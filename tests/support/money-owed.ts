@@ -43,11 +43,21 @@ export async function exec(sql: string, replacements: Record<string, unknown>): 
   await withWrite((t) => getDb().query(sql, { replacements, transaction: t }))
 }
 
+/**
+ * Noon UTC of the day `days` calendar days before today in the installation's zone (the demo's Europe/London), as
+ * ISO text: noon UTC is that same calendar day in London (UTC+0/+1) whatever the hour a test runs, so "booked 70 days
+ * ago" is never 69 or 71 local days.
+ */
+export function noonDaysAgo(days: number, from = new Date()): string {
+  const [y, m, d] = new Intl.DateTimeFormat('en-CA', { timeZone: 'Europe/London' }).format(from).split('-').map(Number)
+  return new Date(Date.UTC(y!, m! - 1, d! - days, 12)).toISOString()
+}
+
 /** A garage of the test's own on account terms (30 payment days, £1,000.00 limit) owing charges booked `daysAgo`. */
 export async function owingGarage(label: string, charges: readonly { amountMinor: number; reference: string; daysAgo: number }[]): Promise<TestGarage> {
   const garage = await makeGarage({ terms: 'account', creditLimitMinor: 100_000, label })
   for (const c of charges) {
-    await addLedgerEntry(garage.id, { kind: 'order', amountMinor: c.amountMinor, reference: c.reference, at: new Date(Date.now() - c.daysAgo * 86_400_000).toISOString() })
+    await addLedgerEntry(garage.id, { kind: 'order', amountMinor: c.amountMinor, reference: c.reference, at: noonDaysAgo(c.daysAgo) })
   }
   return garage
 }

@@ -7,7 +7,7 @@
  * version must be checked again), and while a version is scheduled no other file is applied: two files never mix.
  */
 import type { Transaction } from 'sequelize'
-import { withWrite } from '../../utils/db'
+import { isPostgres, withWrite } from '../../utils/db'
 import { audit } from '../../utils/audit'
 import { PriceFile } from '../../models/price-files'
 import type { MissingAction } from '../../../shared/types/price-files'
@@ -135,7 +135,8 @@ async function schedule(req: ApplyRequest): Promise<ApplyOutcome> {
 async function applyNow(req: ApplyRequest): Promise<ApplyOutcome> {
   try {
     const outcome = await withWrite(async (t) => {
-      const priceFile = (await PriceFile.findByPk(req.priceFileId, { transaction: t }))!
+      // locked until this apply commits or rolls back: how other processes tell a running apply from one cut short
+      const priceFile = (await PriceFile.findByPk(req.priceFileId, { transaction: t, ...(isPostgres() ? { lock: t.LOCK.UPDATE } : {}) }))!
       priceFile.status = 'ready' // claimed above; the guard checks the rest again inside this transaction
       await guardApply(priceFile, req, t)
       const reserved = await reserveVersion(t, priceFile, req.userId, null)

@@ -10,7 +10,8 @@
  * page polling through another process shows them.
  */
 import type { NitroApp } from 'nitropack/types'
-import { isPostgres, withWrite } from '../../utils/db'
+import { QueryTypes } from 'sequelize'
+import { getDb, isPostgres, withWrite } from '../../utils/db'
 import { ensureQueue, stopJobQueue } from '../../utils/job-queue'
 import { PriceFile } from '../../models/price-files'
 import { runCheck } from './check'
@@ -94,14 +95,29 @@ export function startCheckWorker(nitro: NitroApp): void {
   nitro.hooks.hook('close', () => stopJobQueue())
 }
 
-/** At start: checks cut short by a restart run again; an apply cut short was rolled back by SQLite. */
+const CUT_SHORT = 'The server stopped while this file was being applied; nothing was changed. Apply it again.'
+
+/** At start: checks cut short by a restart run again; an apply cut short was rolled back by the database. */
 export async function recoverPriceFiles(): Promise<void> {
-  // PostgreSQL: another process may be applying or checking right now; the shared queue takes interrupted checks again
+  await recoverCutShortApplies()
+  // PostgreSQL: another process may be checking right now; the shared queue takes interrupted checks again
   if (isPostgres()) return
-  await withWrite((t) => PriceFile.update(
-    { status: 'ready', errorMessage: 'The server stopped while this file was being applied; nothing was changed. Apply it again.' },
-    { where: { status: 'applying' }, transaction: t },
-  ))
   const interrupted = await PriceFile.findAll({ where: { status: 'parsing' }, attributes: ['id'], order: [['id', 'ASC']] })
   for (const priceFile of interrupted) enqueueCheck(priceFile.id)
+}
+
+/**
+ * Files left "applying" by a process that stopped mid-apply go back to ready. On SQLite the one process is this
+ * one, so every such file was cut short. On PostgreSQL an apply holds its file's row locked until it commits or
+ * rolls back, and a process that dies loses its locks: a row still "applying" that can be locked without waiting
+ * belongs to no running apply. Returns the files put back.
+ */
+export async function recoverCutShortApplies(): Promise<number[]> {
+  return withWrite(async (t) => {
+    const ids = isPostgres()
+      ? (await getDb().query<{ id: number }>("SELECT id FROM price_files WHERE status = 'applying' FOR UPDATE SKIP LOCKED", { type: QueryTypes.SELECT, transaction: t })).map((r) => Number(r.id))
+      : (await PriceFile.findAll({ where: { status: 'applying' }, attributes: ['id'], transaction: t })).map((r) => r.id)
+    if (ids.length) await PriceFile.update({ status: 'ready', errorMessage: CUT_SHORT }, { where: { id: ids, status: 'applying' }, transaction: t })
+    return ids
+  })
 }
