@@ -58,8 +58,9 @@ const procMb = (pid: number, field: 'VmRSS' | 'VmHWM') =>
 interface BenchData { garages: { email: string; terms: 'account' | 'card' }[]; vehicles: number[]; skus: string[] }
 
 /** Migrations, seed (or the synthetic catalogue) and the bench garages, through the repository's own code. */
-function prepare(databaseUrl: string): BenchData {
-  const env = { ...process.env, DATABASE_URL: databaseUrl }
+function prepare(databaseUrl: string, uploads: string): BenchData {
+  // the seed files its proof documents under NUXT_UPLOADS_DIR: the run's own folder, not the checkout's
+  const env = { ...process.env, DATABASE_URL: databaseUrl, NUXT_UPLOADS_DIR: uploads }
   if (synthetic) {
     const r = spawnSync('npx', ['tsx', 'scripts/catalogue-synthetic.ts', ...synthetic, '--database', databaseUrl], { cwd: root, env, stdio: ['ignore', 'inherit', 'inherit'] })
     if (r.status !== 0) throw new Error(`catalogue:synthetic failed on ${databaseUrl.split(':')[0]}`)
@@ -240,7 +241,7 @@ async function main() {
   const running: Server[] = []
   try {
     console.log('preparing the same data on SQLite and PostgreSQL…')
-    const data = { sqlite: prepare(sqliteUrl), pg: prepare(pg.url) }
+    const data = { sqlite: prepare(sqliteUrl, uploads), pg: prepare(pg.url, uploads) }
     console.log(`data: ${data.sqlite.vehicles.length} vehicles with fitments, ${data.sqlite.skus.length} SKUs in the order mix, ${data.sqlite.garages.length} bench garages (PostgreSQL: ${data.pg.vehicles.length}, ${data.pg.skus.length}, ${data.pg.garages.length})`)
     const results: { sqlite: Measured[]; pg: Measured[] } = { sqlite: [], pg: [] }
     for (let round = 0; round < rounds; round++) {
