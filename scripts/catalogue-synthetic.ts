@@ -1,17 +1,19 @@
 /**
- * npm run catalogue:synthetic -- --parts 200000 --vehicles 20000 --fitments 1000000 [--database <sqlite url or path>] [--seed 7]
+ * npm run catalogue:synthetic -- --parts 200000 --vehicles 20000 --fitments 1000000 [--database <sqlite url, path or postgres url>] [--seed 7]
  *
  * Writes a large invented catalogue into a database for benchmarks: vehicles with OE brakes and option questions,
  * parts of every type with valid specs, OE numbers, supersessions, fitment (some with qualifiers), stock in every
  * branch and prices in the active price version. The database is migrated first; when it has no people yet the demo
  * seed runs too (so the benchmark can sign in). Rows go in with raw multi-row INSERTs in a few big transactions,
- * with the revision triggers off during the load. Deterministic for a given --seed. Refuses a database that already
- * holds synthetic rows (SKUs starting "SY-").
+ * with the revision triggers off during the load (on PostgreSQL they stay on: they fire once per statement, not per
+ * row). Deterministic for a given --seed. Refuses a database that already holds synthetic rows (SKUs starting "SY-").
+ * PostgreSQL (`--database postgres://…`): the same rows, booleans as true/false, the identity counters of vehicles
+ * and parts moved past the ids written here.
  */
 import { resolve } from 'node:path'
-import sqlite3 from 'sqlite3'
 import { MC_BORES, WC_BORES, prng } from '../server/seed/catalogue-data'
-import { all, esc, insertAll, run } from './lib/sqlite-bulk'
+import { openBulk } from './lib/bulk'
+import { esc } from './lib/sqlite-bulk'
 
 interface Args { parts: number; vehicles: number; fitments: number; database: string; seed: number }
 
@@ -30,11 +32,11 @@ function parseArgs(argv: string[]): Args {
     else if (a === '--vehicles') out.vehicles = num('--vehicles')
     else if (a === '--fitments') out.fitments = num('--fitments')
     else if (a === '--seed') out.seed = num('--seed')
-    else if (a === '--database') { if (!v) throw new Error('--database needs a sqlite URL or a path'); out.database = v; i++ }
+    else if (a === '--database') { if (!v) throw new Error('--database needs a sqlite URL, a path or a postgres URL'); out.database = v; i++ }
     else throw new Error(`Unknown option ${a}. Use --parts N --vehicles N --fitments N [--database <url|path>] [--seed N]`)
   }
   if (!out.database) throw new Error('Give --database <sqlite:./file.sqlite or path> or set DATABASE_URL')
-  if (!out.database.startsWith('sqlite:')) out.database = `sqlite:${resolve(out.database)}`
+  if (!out.database.startsWith('sqlite:') && !out.database.startsWith('postgres')) out.database = `sqlite:${resolve(out.database)}`
   return out
 }
 
@@ -73,19 +75,20 @@ async function main() {
   }
   await closeDb()
 
-  const db = new sqlite3.Database(storageFromUrl(args.database))
-  await run(db, 'PRAGMA journal_mode=WAL; PRAGMA synchronous=OFF; PRAGMA cache_size=-200000; PRAGMA temp_store=MEMORY; PRAGMA foreign_keys=OFF')
-  const [existing] = await all<{ n: number }>(db, "SELECT COUNT(*) AS n FROM parts WHERE sku LIKE 'SY-%'")
-  if (existing!.n > 0) throw new Error(`This database already holds ${existing!.n} synthetic parts. Use a fresh database.`)
-  const branches = await all<{ id: number }>(db, 'SELECT id FROM branches ORDER BY id')
-  let [list] = await all<{ id: number }>(db, "SELECT id FROM price_versions WHERE status = 'active' ORDER BY version DESC LIMIT 1")
+  const db = await openBulk(args.database, () => storageFromUrl(args.database))
+  if (!db.postgres) await db.run('PRAGMA journal_mode=WAL; PRAGMA synchronous=OFF; PRAGMA cache_size=-200000; PRAGMA temp_store=MEMORY; PRAGMA foreign_keys=OFF')
+  const [existing] = await db.all<{ n: number }>("SELECT COUNT(*) AS n FROM parts WHERE sku LIKE 'SY-%'")
+  if (Number(existing!.n) > 0) throw new Error(`This database already holds ${existing!.n} synthetic parts. Use a fresh database.`)
+  const branches = await db.all<{ id: number }>('SELECT id FROM branches ORDER BY id')
+  let [list] = await db.all<{ id: number }>("SELECT id FROM price_versions WHERE status = 'active' ORDER BY version DESC LIMIT 1")
   if (!list) {
-    await run(db, `INSERT INTO price_versions (version, label, status, effective_at, activated_at, created_at, updated_at) VALUES ((SELECT COALESCE(MAX(version), 0) + 1 FROM price_versions), 'Synthetic', 'active', datetime('now'), datetime('now'), datetime('now'), datetime('now'))`)
-    ;[list] = await all<{ id: number }>(db, "SELECT id FROM price_versions WHERE status = 'active' ORDER BY version DESC LIMIT 1")
+    await db.run(`INSERT INTO price_versions (version, label, status, effective_at, activated_at, created_at, updated_at) VALUES ((SELECT COALESCE(MAX(version), 0) + 1 FROM price_versions), 'Synthetic', 'active', CURRENT_TIMESTAMP, CURRENT_TIMESTAMP, CURRENT_TIMESTAMP, CURRENT_TIMESTAMP)`)
+    ;[list] = await db.all<{ id: number }>("SELECT id FROM price_versions WHERE status = 'active' ORDER BY version DESC LIMIT 1")
   }
   const triggers = [...CATALOGUE_TABLES, 'stock_levels'].flatMap((t) => ['insert', 'update', 'delete'].map((op) => `${t}_rev_${op}`))
-  const triggerSql = await all<{ sql: string }>(db, `SELECT sql FROM sqlite_master WHERE type = 'trigger' AND name IN (${triggers.map(esc).join(',')})`)
-  for (const name of triggers) await run(db, `DROP TRIGGER IF EXISTS ${name}`)
+  // SQLite's triggers fire once per row: off for the load, put back after it
+  const triggerSql = db.postgres ? [] : await db.all<{ sql: string }>(`SELECT sql FROM sqlite_master WHERE type = 'trigger' AND name IN (${triggers.map(esc).join(',')})`)
+  if (!db.postgres) for (const name of triggers) await db.run(`DROP TRIGGER IF EXISTS ${name}`)
 
   const r = prng(args.seed)
   const pick = <T>(xs: readonly T[]): T => xs[Math.floor(r() * xs.length)]!
@@ -96,7 +99,7 @@ async function main() {
   // ---- vehicles
   const makes = Array.from({ length: 60 }, (_, i) => cap(SYL[i % SYL.length]! + SYL[(i * 7 + 3) % SYL.length]! + ENDS[i % ENDS.length]!))
   const models = makes.map((_, mi) => Array.from({ length: 12 }, (_, j) => cap(SYL[(mi + j * 5) % SYL.length]! + ENDS[(mi + j) % ENDS.length]!) + (j >= 8 ? ` ${j}` : '')))
-  const [maxV] = await all<{ id: number | null }>(db, 'SELECT MAX(id) AS id FROM vehicles')
+  const [maxV] = await db.all<{ id: number | null }>('SELECT MAX(id) AS id FROM vehicles')
   const firstVehicleId = (maxV!.id ?? 0) + 1
   interface V { id: number; make: string; model: string; hasOption: boolean; discs: number[]; mc: number; piston: number; wc: number; rearDrum: boolean }
   const vehicles: V[] = []
@@ -118,25 +121,25 @@ async function main() {
     vehicleRows.push([id, make, model, `Gen ${between(1, 6)}`, pick(['hatchback', 'saloon', 'estate', 'SUV', 'van']), yearFrom, r() < 0.4 ? null : yearFrom + between(3, 8),
       `${make.slice(0, 2).toUpperCase()}-${digits(3)}`, pick([999, 1199, 1395, 1598, 1968, 1995, 2179]), pick(['petrol', 'diesel', 'hybrid', 'electric']), between(50, 250),
       pick(['FWD', 'RWD', 'AWD']), pick(['diagonal', 'front-rear']), pick(['DOT 4', 'DOT 5.1']), pick(['195/55 R16', '205/55 R16', '225/45 R17', '235/55 R19']),
-      between(950, 2300), mc, 1, pick([32, 34, 36]), pick([3.4, 3.8, 4.2]), pick([4.5, 5.5, 6.5]), 'cable', now, now])
+      between(950, 2300), mc, true, pick([32, 34, 36]), pick([3.4, 3.8, 4.2]), pick([4.5, 5.5, 6.5]), 'cable', now, now])
     if (hasOption) {
       optionRows.push([id, 'front_disc_diameter_mm', 'Front disc diameter', `Front disc diameter: ${discs[0]} mm or ${discs[1]} mm? Measure the disc.`, JSON.stringify(discs.map((x) => ({ value: String(x), label: `${x} mm` }))), now, now])
     }
     for (const dd of discs) {
-      brakeRows.push([id, 'front', hasOption ? JSON.stringify({ front_disc_diameter_mm: String(dd) }) : '{}', 'disc', dd, 25, 23, 1, null, null, 'floating', JSON.stringify([piston]), null, 0.05, 0.015, now, now])
+      brakeRows.push([id, 'front', hasOption ? JSON.stringify({ front_disc_diameter_mm: String(dd) }) : '{}', 'disc', dd, 25, 23, true, null, null, 'floating', JSON.stringify([piston]), null, 0.05, 0.015, now, now])
     }
     if (rearDrum) brakeRows.push([id, 'rear', '{}', 'drum', null, null, null, null, 228.6, 230.1, null, null, wc, 0.1, null, now, now])
-    else brakeRows.push([id, 'rear', '{}', 'disc', 272, 10, 9, 0, null, null, 'floating', JSON.stringify([38]), null, 0.08, 0.02, now, now])
+    else brakeRows.push([id, 'rear', '{}', 'disc', 272, 10, 9, false, null, null, 'floating', JSON.stringify([38]), null, 0.08, 0.02, now, now])
   }
-  await insertAll(db, 'vehicles', ['id', 'make', 'model', 'generation', 'body', 'year_from', 'year_to', 'engine_code', 'engine_cc', 'fuel', 'power_kw', 'drive', 'circuit_split',
+  await db.insertAll('vehicles', ['id', 'make', 'model', 'generation', 'body', 'year_from', 'year_to', 'engine_code', 'engine_cc', 'fuel', 'power_kw', 'drive', 'circuit_split',
     'fluid_grade', 'tyre_size', 'kerb_mass_kg', 'mc_bore_mm', 'mc_tandem', 'mc_stroke_mm', 'pedal_ratio', 'booster_ratio', 'parking_brake', 'created_at', 'updated_at'], vehicleRows)
-  await insertAll(db, 'vehicle_options', ['vehicle_id', 'key', 'label', 'question', '"values"', 'created_at', 'updated_at'], optionRows)
-  await insertAll(db, 'vehicle_brakes', ['vehicle_id', 'axle', 'qualifiers', 'kind', 'disc_diameter_mm', 'disc_thickness_mm', 'disc_min_thickness_mm', 'disc_vented',
+  await db.insertAll('vehicle_options', ['vehicle_id', 'key', 'label', 'question', '"values"', 'created_at', 'updated_at'], optionRows)
+  await db.insertAll('vehicle_brakes', ['vehicle_id', 'axle', 'qualifiers', 'kind', 'disc_diameter_mm', 'disc_thickness_mm', 'disc_min_thickness_mm', 'disc_vented',
     'drum_diameter_mm', 'drum_max_diameter_mm', 'caliper_type', 'piston_diameters_mm', 'wheel_cylinder_bore_mm', 'max_runout_mm', 'max_thickness_variation_mm', 'created_at', 'updated_at'], brakeRows)
   console.log(`vehicles: ${vehicles.length} (${optionRows.length} with an option question) in ${((Date.now() - t0) / 1000).toFixed(1)} s`)
 
   // ---- parts
-  const [maxP] = await all<{ id: number | null }>(db, 'SELECT MAX(id) AS id FROM parts')
+  const [maxP] = await db.all<{ id: number | null }>('SELECT MAX(id) AS id FROM parts')
   const firstPartId = (maxP!.id ?? 0) + 1
   const pools: Record<string, number[]> = {}
   const partRows: unknown[][] = []
@@ -187,11 +190,11 @@ async function main() {
     }
   }
   function list_id() { return list!.id }
-  await insertAll(db, 'parts', ['id', 'sku', 'type', 'product_line', 'description', 'specs', 'status', 'created_at', 'updated_at'], partRows, 500)
-  await insertAll(db, 'part_oe_numbers', ['part_id', 'oe_number', 'oe_normalised', 'maker'], oeRows)
-  await insertAll(db, 'part_prices', ['price_version_id', 'part_id', 'list_price_minor', 'trade_cost_minor', 'core_deposit_minor', 'pack_quantity'], priceRows)
-  await insertAll(db, 'stock_levels', ['part_id', 'branch_id', 'quantity', 'updated_at'], stockRows)
-  await insertAll(db, 'supersessions', ['old_sku', 'new_part_id', 'note', 'created_at'], supRows)
+  await db.insertAll('parts', ['id', 'sku', 'type', 'product_line', 'description', 'specs', 'status', 'created_at', 'updated_at'], partRows, 500)
+  await db.insertAll('part_oe_numbers', ['part_id', 'oe_number', 'oe_normalised', 'maker'], oeRows)
+  await db.insertAll('part_prices', ['price_version_id', 'part_id', 'list_price_minor', 'trade_cost_minor', 'core_deposit_minor', 'pack_quantity'], priceRows)
+  await db.insertAll('stock_levels', ['part_id', 'branch_id', 'quantity', 'updated_at'], stockRows)
+  await db.insertAll('supersessions', ['old_sku', 'new_part_id', 'note', 'created_at'], supRows)
   console.log(`parts: ${partRows.length}, OE numbers: ${oeRows.length}, supersessions: ${supRows.length} in ${((Date.now() - t0) / 1000).toFixed(1)} s`)
 
   // ---- fitments: an even share per vehicle, typed like a real vehicle's list
@@ -213,13 +216,19 @@ async function main() {
       }
     }
   }
-  const nf = await insertAll(db, 'fitments', ['vehicle_id', 'part_id', 'axle', 'side', 'quantity', 'qualifiers', 'note', 'created_at', 'updated_at'], fitmentRows(), 2000)
+  const nf = await db.insertAll('fitments', ['vehicle_id', 'part_id', 'axle', 'side', 'quantity', 'qualifiers', 'note', 'created_at', 'updated_at'], fitmentRows(), 2000)
   console.log(`fitments: ${nf} in ${((Date.now() - t0) / 1000).toFixed(1)} s`)
 
-  for (const t of triggerSql) await run(db, t.sql)
-  await run(db, 'UPDATE catalogue_revisions SET catalogue = catalogue + 1, stock = stock + 1 WHERE id = 1')
-  await run(db, 'PRAGMA synchronous=NORMAL; ANALYZE; PRAGMA wal_checkpoint(TRUNCATE)')
-  await new Promise<void>((res) => db.close(() => res()))
+  for (const t of triggerSql) await db.run(t.sql)
+  await db.run('UPDATE catalogue_revisions SET catalogue = catalogue + 1, stock = stock + 1 WHERE id = 1')
+  if (db.postgres) {
+    // the ids written above were given, not drawn: the next row the app adds must come after them
+    for (const table of ['vehicles', 'parts']) await db.run(`SELECT setval(pg_get_serial_sequence('${table}', 'id'), (SELECT MAX(id) FROM ${table}))`)
+    await db.run('ANALYZE')
+  } else {
+    await db.run('PRAGMA synchronous=NORMAL; ANALYZE; PRAGMA wal_checkpoint(TRUNCATE)')
+  }
+  await db.close()
   console.log(`done in ${((Date.now() - t0) / 1000).toFixed(1)} s: ${args.database}`)
 }
 

@@ -16,21 +16,32 @@ export function all<T>(db: sqlite3.Database, sql: string): Promise<T[]> {
 }
 
 /** Inserts rows in multi-row statements of `chunk` rows inside one transaction. */
-export async function insertAll(db: sqlite3.Database, table: string, columns: string[], rows: Iterable<unknown[]>, chunk = 1000): Promise<number> {
+export function insertAll(db: sqlite3.Database, table: string, columns: string[], rows: Iterable<unknown[]>, chunk = 1000): Promise<number> {
+  return insertRows((sql) => run(db, sql), esc, 'BEGIN IMMEDIATE', table, columns, rows, chunk)
+}
+
+/**
+ * The multi-row INSERT loop, for any database: `exec` runs one statement, `escape` writes one value as that
+ * database's literal, `begin` opens the transaction the rows go in.
+ */
+export async function insertRows(
+  exec: (sql: string) => Promise<unknown>, escape: (v: unknown) => string, begin: string,
+  table: string, columns: string[], rows: Iterable<unknown[]>, chunk: number,
+): Promise<number> {
   let n = 0
   let buf: string[] = []
-  await run(db, 'BEGIN IMMEDIATE')
+  await exec(begin)
   const flush = async () => {
     if (!buf.length) return
-    await run(db, `INSERT INTO ${table} (${columns.join(', ')}) VALUES ${buf.join(',')}`)
+    await exec(`INSERT INTO ${table} (${columns.join(', ')}) VALUES ${buf.join(',')}`)
     buf = []
   }
   for (const r of rows) {
-    buf.push(`(${r.map(esc).join(',')})`)
+    buf.push(`(${r.map(escape).join(',')})`)
     n++
     if (buf.length >= chunk) await flush()
   }
   await flush()
-  await run(db, 'COMMIT')
+  await exec('COMMIT')
   return n
 }

@@ -29,8 +29,11 @@ const byPair = new Limiter({ keyPrefix: 'sign-in-pair', points: SIGN_IN_LIMIT.po
 const byAddress = new Limiter({ keyPrefix: 'sign-in-ip', points: SIGN_IN_LIMIT.pointsPerAddress, duration: MINUTES_15 })
 // failures per e-mail only set the delay: never refused here
 const byEmail = new Limiter({ keyPrefix: 'sign-in-email', points: 1_000_000, duration: MINUTES_15 })
-// a used reset link starts the e-mail's pairs afresh: its generation is part of their keys
-const generations = new Map<string, number>()
+// a used reset link starts the e-mail's pairs afresh: its generation is part of their keys. Kept in the same store
+// as the counters (the database on PostgreSQL), so a reset through one process frees the pairs counted by all of
+// them; never expires (duration 0), so a generation cannot fall back to keys still counting: one row per person
+// who has ever reset a password
+const generations = new Limiter({ keyPrefix: 'sign-in-generation', points: Number.MAX_SAFE_INTEGER, duration: 0 })
 // forgotten-password requests: quietly capped so the form cannot be used to flood someone's inbox
 const resetByEmail = new Limiter({ keyPrefix: 'reset-email', points: 3, duration: MINUTES_15 })
 const resetByAddress = new Limiter({ keyPrefix: 'reset-ip', points: 20, duration: MINUTES_15 })
@@ -56,7 +59,10 @@ export async function take(limiter: Limiter, key: string): Promise<number | null
 }
 
 const addressKey = (address: string) => address || 'unknown'
-const pairKey = (email: string, address: string) => `${email}|${generations.get(email) ?? 0}|${addressKey(address)}`
+async function pairKey(email: string, address: string): Promise<string> {
+  const generation = (await generations.get(email))?.consumedPoints ?? 0
+  return `${email}|${generation}|${addressKey(address)}`
+}
 
 /** How long to hold an attempt for an e-mail that has already failed `failures` times in the window. */
 export function delayFor(failures: number): number {
@@ -71,7 +77,7 @@ export type Attempt = { ok: true; delayMs: number; release: () => Promise<void> 
  * gives the delay to wait before checking, and `release()`, to call when the password turned out right.
  */
 export async function countSignInAttempt(email: string, address: string): Promise<Attempt> {
-  const pair = pairKey(email, address)
+  const pair = await pairKey(email, address)
   const [a, b] = await Promise.all([take(byPair, pair), take(byAddress, addressKey(address))])
   if (a !== null || b !== null) return { ok: false, retryAfterSeconds: Math.max(a ?? 0, b ?? 0) }
   const counted = await byEmail.consume(email, 1)
@@ -105,8 +111,7 @@ export async function passwordAttempt(email: string, address: string): Promise<(
 
 /** After a password reset the owner of the address has proved themselves: no delay, every address starts afresh. */
 export async function forgetSignInFailures(email: string): Promise<void> {
-  generations.set(email, (generations.get(email) ?? 0) + 1)
-  await byEmail.delete(email)
+  await Promise.all([generations.consume(email, 1), byEmail.delete(email)])
 }
 
 /** Whether to act on a forgotten-password request (the answer to the caller is the same either way). */

@@ -3,55 +3,20 @@
  * The first is the run's e2e server (tests/support/global-setup.ts); this file starts a second from the same build
  * with the same settings, and checks that the two agree: stock, sign-outs, throttles, scheduled jobs and prices.
  */
-import { spawn, type ChildProcess } from 'node:child_process'
-import { join, resolve } from 'node:path'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { Client, as, env, people } from '../support/api'
+import { describe, expect, it } from 'vitest'
+import { Client, as, people } from '../support/api'
 import { dbAll } from '../support/db'
-import { freePort } from '../support/global-setup'
 import { makeGarage, makePart, linesOf, stockOf } from '../support/orders'
+import { through, useTwoProcesses } from '../support/second-process'
 import { SIGN_IN_LIMIT } from '../../server/services/throttle'
-import { serverNodeArgs } from '../../scripts/server-process.mjs'
 
-const outDir = process.env.BORELINE_BUILD_DIR ? join(resolve(process.env.BORELINE_BUILD_DIR), '.output') : resolve(import.meta.dirname, '../../.output')
-let second: ChildProcess
-let baseA = ''
-let baseB = ''
-
-/** The same session, sent to the other process. */
-function through(base: string, c: Client): Client {
-  const copy = new Client(base)
-  copy.cookies = c.cookies // shared: a cookie set by either process counts for both
-  return copy
-}
-
-beforeAll(async () => {
-  expect(env().databaseUrl).toMatch(/^postgres/)
-  baseA = env().baseUrl
-  const port = await freePort()
-  baseB = `http://127.0.0.1:${port}`
-  let out = ''
-  second = spawn(process.execPath, [...serverNodeArgs(), join(outDir, 'server/index.mjs')], {
-    env: { ...process.env, ...env().serverEnv, PORT: String(port) },
-    stdio: ['ignore', 'pipe', 'pipe'],
-  })
-  second.stdout!.on('data', (d) => { out = (out + d).slice(-8_000) })
-  second.stderr!.on('data', (d) => { out = (out + d).slice(-8_000) })
-  const until = Date.now() + 60_000
-  for (;;) {
-    try { if ((await fetch(`${baseB}/api/health`)).ok) break } catch { /* starting */ }
-    if (Date.now() > until || second.exitCode !== null) throw new Error(`the second process did not start:\n${out}`)
-    await new Promise((r) => setTimeout(r, 250))
-  }
-}, 90_000)
-
-afterAll(() => { second?.kill('SIGTERM') })
+const bases = useTwoProcesses()
 
 describe('two server processes on one PostgreSQL database', () => {
   it('20 concurrent orders split across both for the last 5 units: exactly 5 come off the shelf', async () => {
     const garages = await Promise.all([makeGarage({ terms: 'account', creditLimitMinor: 1_000_000, label: 'Two A' }), makeGarage({ terms: 'account', creditLimitMinor: 1_000_000, label: 'Two B' })])
     const signedIn = await Promise.all(garages.map((g) => as(g.email)))
-    const clients = [through(baseA, signedIn[0]!), through(baseB, signedIn[1]!)]
+    const clients = [through(bases.a, signedIn[0]!), through(bases.b, signedIn[1]!)]
     const part = await makePart({ listPriceMinor: 1_000, stock: { NGT: 5 } })
     const results = await Promise.all(Array.from({ length: 20 }, (_, i) =>
       clients[i % 2]!.post('/api/orders', { lines: [{ sku: part.sku, quantity: 1 }], payment: 'account' })))
@@ -64,12 +29,12 @@ describe('two server processes on one PostgreSQL database', () => {
 
   it('a cookie signed out through one process is refused by the other on the next request', async () => {
     const garage = await makeGarage({ terms: 'card', label: 'Two sign-out' })
-    const a = through(baseA, await as(garage.email))
-    const b = through(baseB, a)
+    const a = through(bases.a, await as(garage.email))
+    const b = through(bases.b, a)
     expect((await b.get('/api/me')).status).toBe(200)
     const cookie = new Map(a.cookies)
     expect((await a.post('/api/auth/sign-out')).status).toBeLessThan(300)
-    const stale = new Client(baseB)
+    const stale = new Client(bases.b)
     stale.cookies = cookie
     expect((await stale.get('/api/me')).status).toBe(401)
   })
@@ -79,7 +44,7 @@ describe('two server processes on one PostgreSQL database', () => {
     const statuses: number[] = []
     // wrong passwords, alternating between the processes, one at a time so the order is known
     for (let i = 0; i < SIGN_IN_LIMIT.pointsPerPair + 1; i++) {
-      const r = await new Client(i % 2 ? baseB : baseA).post('/api/auth/sign-in', { email: garage.email, password: `not-it-${i}` })
+      const r = await new Client(i % 2 ? bases.b : bases.a).post('/api/auth/sign-in', { email: garage.email, password: `not-it-${i}` })
       statuses.push(r.status)
     }
     // 10 failures per e-mail and address in 15 minutes, then 429 (server/services/throttle.ts), wherever they came in
@@ -104,10 +69,10 @@ describe('two server processes on one PostgreSQL database', () => {
     expect(tier.status, tier.text).toBe(201)
     const garage = await makeGarage({ terms: 'card', tier: tier.body.name, label: 'Two price' })
     const part = await makePart({ listPriceMinor: 10_000, stock: { NGT: 1 } })
-    const b = through(baseB, await as(garage.email))
+    const b = through(bases.b, await as(garage.email))
     // list 100.00, 10 % off: 90.00
     expect((await b.get(`/api/parts/${part.sku}`)).body.netPriceMinor).toBe(9_000)
-    const changed = await through(baseA, admin).patch(`/api/admin/tiers/${tier.body.id}`, { percent: 20 })
+    const changed = await through(bases.a, admin).patch(`/api/admin/tiers/${tier.body.id}`, { percent: 20 })
     expect(changed.status, changed.text).toBe(200)
     const until = Date.now() + 1_000
     let net = 0

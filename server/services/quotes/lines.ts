@@ -6,7 +6,7 @@
  */
 import type { CreationAttributes, Transaction } from 'sequelize'
 import type { Organisation } from '../../models/accounts'
-import { QuoteLine, type Quote } from '../../models/quotes'
+import { Quote, QuoteLine } from '../../models/quotes'
 import { markupBpFor } from '../../../shared/utils/quote-markup'
 import {
   hoursToHundredths, lineFigures, restatedMinor, sellingUnitMinor, withPriceEnding,
@@ -56,7 +56,14 @@ async function saveLine(t: Transaction, attributes: CreationAttributes<QuoteLine
   return line.save({ transaction: t })
 }
 
+/**
+ * The place after the quote's last line. On PostgreSQL two processes can add to one quote at once, and under READ
+ * COMMITTED both would read the same MAX: the quote's row is locked first (FOR UPDATE, held to commit), so the second
+ * add waits and then reads the first one's line. SQLite has no row locks (Sequelize leaves `lock` out) and needs
+ * none: its writes run one at a time.
+ */
 async function nextPosition(t: Transaction, quoteId: number): Promise<number> {
+  await Quote.findOne({ where: { id: quoteId }, attributes: ['id'], transaction: t, lock: t.LOCK.UPDATE })
   const max = await QuoteLine.max<number, QuoteLine>('position', { where: { quoteId }, transaction: t })
   return (Number(max) || 0) + 1
 }
