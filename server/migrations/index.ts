@@ -23,6 +23,7 @@ import * as m0017 from './0017-money-owed'
 import * as m0018 from './0018-owed-reminders'
 import * as m0019 from './0019-several-processes'
 import * as m0020 from './0020-steering-side'
+import * as m0023 from './0023-part-search-changes'
 
 export interface Migration { name: string; up: (qi: QueryInterface) => Promise<void>; down: (qi: QueryInterface) => Promise<void> }
 
@@ -47,4 +48,5 @@ export const migrations: Migration[] = [
   { name: '0018-owed-reminders', ...m0018 },
   { name: '0019-several-processes', ...m0019 },
   { name: '0020-steering-side', ...m0020 },
+  { name: '0023-part-search-changes', ...m0023 },
 ]

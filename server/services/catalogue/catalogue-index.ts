@@ -9,6 +9,7 @@ import type { PartType } from '../../../shared/schemas/catalogue/part-types'
 import { FITTING_RULES } from '../../../shared/utils/catalogue/fitting-rules'
 import { PartSearchIndex, type IndexInput } from './search-index'
 import { readRevision } from './pricing'
+import { readSavedIndex, saveInBackground } from './saved-index'
 
 let index: PartSearchIndex | null = null
 let building: Promise<PartSearchIndex> | null = null
@@ -46,26 +47,81 @@ function safeJson(s: string): Record<string, unknown> {
 
 let indexRevision: number | null = null
 
+/** More changed parts than this (or than 5 % of the catalogue) and the index is built again rather than patched. */
+const MAX_PATCH = 20_000
+
+/** Builds the index from every part in the database, in batches so the rows read never sit in memory all at once. */
+async function buildFromDatabase(): Promise<PartSearchIndex> {
+  const built = new PartSearchIndex(FITTING_RULES)
+  for (let after = 0; ;) {
+    const batch = await loadInputs(undefined, after)
+    if (!batch.length) break
+    built.addBatch(batch)
+    after = batch[batch.length - 1]!.id
+  }
+  built.finish()
+  return built
+}
+
+/** Parts noted as changed at or after `revision` (see migration 0023), or null when too many to patch. */
+async function changedSince(revision: number, parts: number): Promise<number[] | null> {
+  const limit = Math.min(MAX_PATCH, Math.max(1000, Math.ceil(parts * 0.05)))
+  const rows = await getDb().query<{ id: number }>('SELECT part_id AS id FROM part_search_changes WHERE revision >= :revision LIMIT :limit', { type: QueryTypes.SELECT, replacements: { revision, limit: limit + 1 } })
+  return rows.length > limit ? null : rows.map((r) => Number(r.id))
+}
+
+/** Re-reads these parts into `target` (drops those that are gone). */
+async function patch(target: PartSearchIndex, partIds: number[]): Promise<void> {
+  for (let i = 0; i < partIds.length; i += 5000) {
+    const ids = partIds.slice(i, i + 5000)
+    const inputs = await loadInputs(ids)
+    const found = new Set(inputs.map((x) => x.id))
+    target.apply(inputs, ids.filter((id) => !found.has(id)))
+  }
+}
+
 /**
- * The index, built once per process and rebuilt when the catalogue revision moved without this process knowing
- * (another writer: a price-file import, a script). Concurrent callers share one build, so a search right after
- * a bulk import waits for the rebuild once.
+ * The saved index when it fits this database: loaded, then the parts changed since it was saved re-read. Null when
+ * there is none, it is of another format or catalogue, or too much changed since.
+ */
+async function loadSaved(revision: number): Promise<PartSearchIndex | null> {
+  const saved = readSavedIndex()
+  if (!saved) return null
+  const changed = await changedSince(saved.meta.revision, saved.index.size)
+  if (!changed) return null
+  await patch(saved.index, changed)
+  // a load that bypassed the triggers (a bulk script with them off) shows as a count or a highest id that differ
+  const [row] = await getDb().query<{ n: number; hi: number | null }>('SELECT COUNT(*) AS n, MAX(id) AS hi FROM parts', { type: QueryTypes.SELECT })
+  if (Number(row?.n ?? 0) !== saved.index.size || Number(row?.hi ?? 0) !== saved.index.maxPartId()) return null
+  if (changed.length > 1000) saveInBackground(saved.index, revision)
+  return saved.index
+}
+
+/**
+ * The index, loaded from its saved file or built once per process, and brought up to date when the catalogue
+ * revision moved without this process knowing (another writer: a price-file import, a script): the parts noted
+ * as changed are re-read, or, after a bulk change, the index is built again. Concurrent callers share one load,
+ * so a search right after a bulk import waits for it once.
  */
 export function getPartIndex(revision?: number): Promise<PartSearchIndex> {
   const stale = index !== null && revision !== undefined && revision !== indexRevision
   if (index && !stale) return Promise.resolve(index)
   building ??= (async () => {
     const t0 = performance.now()
-    const rev = (await readRevision()).catalogue // read first: a change during the load makes the next call rebuild
-    const built = new PartSearchIndex(FITTING_RULES)
-    // in batches, so the rows read never sit in memory all at once
-    for (let after = 0; ;) {
-      const batch = await loadInputs(undefined, after)
-      if (!batch.length) break
-      built.addBatch(batch)
-      after = batch[batch.length - 1]!.id
+    const rev = (await readRevision()).catalogue // read first: a change during the load makes the next call re-read it
+    if (index && indexRevision !== null) {
+      const changed = await changedSince(indexRevision, index.size)
+      if (changed) {
+        await patch(index, changed)
+        indexRevision = rev
+        return index
+      }
     }
-    built.finish()
+    let built = index ? null : await loadSaved(rev).catch((err) => { console.error('[boreline] saved part search index not used:', err?.message ?? err); return null })
+    if (!built) {
+      built = await buildFromDatabase()
+      saveInBackground(built, rev)
+    }
     index = built
     indexRevision = rev
     builtInMs = performance.now() - t0
@@ -90,10 +146,7 @@ export async function refreshIndexedParts(partIds: number[]): Promise<void> {
   if (building) await building.catch(() => {})
   const target = index // dropped or rebuilt while the rows are read: the next search reads the database anyway
   if (!target || !partIds.length) return
-  const inputs = await loadInputs(partIds)
-  const found = new Set(inputs.map((i) => i.id))
-  for (const id of partIds) if (!found.has(id)) target.remove(id)
-  for (const input of inputs) target.upsert(input)
+  await patch(target, partIds)
 }
 
 /** Drops the index; the next search rebuilds it (after bulk changes). */

@@ -53,6 +53,20 @@ export class IdentifierTable {
   slot(entry: number): number { return this.slots[entry]! }
   kind(entry: number): number { return this.kinds[entry]! }
 
+  /** The sorted entries as they are, for a saved index ({@link fromImage} takes them back). */
+  image(): { keys: string[]; slots: Int32Array; kinds: Uint8Array } {
+    if (this.pending) throw new Error('identifier table: commit staged entries before saving')
+    return { keys: this.keys, slots: Int32Array.from(this.slots), kinds: Uint8Array.from(this.kinds) }
+  }
+
+  static fromImage(img: { keys: string[]; slots: Int32Array; kinds: Uint8Array }): IdentifierTable {
+    const t = new IdentifierTable()
+    t.keys = img.keys
+    t.slots = Array.from(img.slots)
+    t.kinds = Array.from(img.kinds)
+    return t
+  }
+
   /** Bulk load, step 1: entries wait unsorted until {@link commit}. */
   stage(entries: IdEntry[]): void {
     this.pending ??= { keys: [], slots: [], kinds: [] }
@@ -72,24 +86,25 @@ export class IdentifierTable {
     this.kinds = order.map((i) => kinds[i]!)
   }
 
-  /** Puts entries straight into their sorted places (one part edited). */
-  insert(entries: IdEntry[]): void {
-    for (const [k, sl, kind] of entries) {
-      const i = this.lowerBound(k)
-      this.keys.splice(i, 0, k)
-      this.slots.splice(i, 0, sl)
-      this.kinds.splice(i, 0, kind)
+  /**
+   * Drops every entry of these part slots and merges `entries` into their sorted places (by key, then kind), in
+   * one pass over the table however many parts changed.
+   */
+  replace(removedSlots: ReadonlySet<number>, entries: IdEntry[]): void {
+    const add = [...entries].sort((a, b) => (a[0] < b[0] ? -1 : a[0] > b[0] ? 1 : a[1] - b[1] || a[2] - b[2]))
+    if (!removedSlots.size && !add.length) return
+    const keys: string[] = [], slots: number[] = [], kinds: number[] = []
+    let j = 0
+    for (let i = 0; i < this.keys.length; i++) {
+      const k = this.keys[i]!
+      while (j < add.length && (add[j]![0] < k || (add[j]![0] === k && add[j]![2] < this.kinds[i]!))) { keys.push(add[j]![0]); slots.push(add[j]![1]); kinds.push(add[j]![2]); j++ }
+      if (removedSlots.has(this.slots[i]!)) continue
+      keys.push(k); slots.push(this.slots[i]!); kinds.push(this.kinds[i]!)
     }
-  }
-
-  /** Drops every entry of one part slot. */
-  removeSlot(slot: number): void {
-    const keep: number[] = []
-    for (let i = 0; i < this.slots.length; i++) if (this.slots[i] !== slot) keep.push(i)
-    if (keep.length === this.slots.length) return
-    this.keys = keep.map((i) => this.keys[i]!)
-    this.kinds = keep.map((i) => this.kinds[i]!)
-    this.slots = keep.map((i) => this.slots[i]!)
+    for (; j < add.length; j++) { keys.push(add[j]![0]); slots.push(add[j]![1]); kinds.push(add[j]![2]) }
+    this.keys = keys
+    this.slots = slots
+    this.kinds = kinds
   }
 
   private lowerBound(key: string): number {
