@@ -19,27 +19,50 @@ const ALPHABET = 'abcdefghijklmnopqrstuvwxyz0123456789'
 /**
  * How likely a slip is, lower first. Transposed neighbours and a key next to the right one are the commonest
  * single-character typing errors (Damerau 1964; Kernighan, Church & Gale 1990 weight substitutions by keyboard
- * nearness), then a doubled character dropped or added, then any other.
+ * nearness), then a doubled character dropped or added, then any other. A wrong key that does not touch the right
+ * one costs more the further away it is ({@link substitutionCost}), between `neighbour` and `other`.
  */
 export const SLIP = { swap: 0, neighbour: 1, doubled: 2, other: 3 } as const
 
-/** Keys that touch: the digits' neighbours in the top row and, orthogonally, on a numeric keypad (0 under 1 and 2). */
-const DIGIT_NEIGHBOURS: Record<string, string> = {
-  0: '129', 1: '024', 2: '0135', 3: '246', 4: '1357', 5: '2468', 6: '3579', 7: '468', 8: '579', 9: '068',
-}
-const QWERTY = ['qwertyuiop', 'asdfghjkl', 'zxcvbnm']
-const letterAt = new Map<string, [number, number]>(QWERTY.flatMap((row, r) => [...row].map((ch, c) => [ch, [r, c]] as [string, [number, number]])))
+type At = [row: number, col: number]
+/** Key centres in key widths: the top row of digits, and the numeric keypad (7 8 9 / 4 5 6 / 1 2 3 / wide 0). */
+const TOP_ROW = new Map<string, At[]>([...'1234567890'].map((ch, i) => [ch, [[0, i]]]))
+const KEYPAD = new Map<string, At[]>([
+  ...['789', '456', '123'].flatMap((row, r) => [...row].map((ch, c): [string, At[]] => [ch, [[r, c]]])),
+  ['0', [[3, 0], [3, 1]]], // the 0 key is two keys wide
+])
+/** Letters, QWERTY, each row set half a key right of the one above (so a key touches two in the next row). */
+const LETTERS = new Map<string, At[]>(['qwertyuiop', 'asdfghjkl', 'zxcvbnm'].flatMap((row, r) => [...row].map((ch, c): [string, At[]] => [ch, [[r, c + r / 2]]])))
 
-/** Whether two keys touch (digits: top row and keypad; letters: same row or the row next to it, QWERTY). */
+function distanceOn(layout: Map<string, At[]>, a: string, b: string): number {
+  const p = layout.get(a), q = layout.get(b)
+  if (!p || !q) return Infinity
+  let d = Infinity
+  for (const [r1, c1] of p) for (const [r2, c2] of q) d = Math.min(d, Math.hypot(r1 - r2, c1 - c2))
+  return d
+}
+
+/**
+ * How far apart two keys are, in key widths, on the layout where they are nearest: digits on the top row or the
+ * numeric keypad (either may be used at a counter), letters on QWERTY; Infinity between a letter and a digit.
+ */
+export function keyDistance(a: string, b: string): number {
+  return Math.min(distanceOn(TOP_ROW, a, b), distanceOn(KEYPAD, a, b), distanceOn(LETTERS, a, b))
+}
+
+/** Whether two keys touch: side by side (1 key width) or in the next letter row (half a key across, about 1.12). */
 export function isNeighbourKey(a: string, b: string): boolean {
-  if (a in DIGIT_NEIGHBOURS) return DIGIT_NEIGHBOURS[a]!.includes(b)
-  const p = letterAt.get(a), q = letterAt.get(b)
-  if (!p || !q) return false
-  // staggered rows: a key touches the one below it and the one below-left
-  if (p[0] === q[0]) return Math.abs(p[1] - q[1]) === 1
-  if (Math.abs(p[0] - q[0]) !== 1) return false
-  const [upper, lower] = p[0] < q[0] ? [p, q] : [q, p]
-  return lower[1] === upper[1] || lower[1] === upper[1] - 1
+  return a !== b && keyDistance(a, b) <= 1.2
+}
+
+/**
+ * The cost of typing `b` for `a`: a touching key is a neighbour slip; a key further off costs more with its distance
+ * (a keypad diagonal, 1.41 key widths, about 1.7; two keys away 2; three or more, or a letter for a digit, 3).
+ */
+export function substitutionCost(a: string, b: string): number {
+  const d = keyDistance(a, b)
+  if (d <= 1.2) return SLIP.neighbour
+  return Math.min(SLIP.other, 1 + d / 2)
 }
 
 /** The sorted identifiers; lookups answer entry numbers, read back with {@link key}, {@link slot}, {@link kind}. */
@@ -140,7 +163,7 @@ export class IdentifierTable {
       // missing character: a doubled one dropped is the commonest kind
       add(key.slice(0, i) + key.slice(i + 1), c === key[i - 1] || c === key[i + 1] ? SLIP.doubled : SLIP.other)
       if (i + 1 < key.length) add(key.slice(0, i) + key[i + 1] + c + key.slice(i + 2), SLIP.swap)
-      for (const x of ALPHABET) if (x !== c) add(key.slice(0, i) + x + key.slice(i + 1), isNeighbourKey(c, x) ? SLIP.neighbour : SLIP.other)
+      for (const x of ALPHABET) if (x !== c) add(key.slice(0, i) + x + key.slice(i + 1), substitutionCost(c, x))
     }
     for (let i = 0; i <= key.length; i++) {
       for (const x of ALPHABET) add(key.slice(0, i) + x + key.slice(i), x === key[i - 1] || x === key[i] ? SLIP.doubled : SLIP.other)
