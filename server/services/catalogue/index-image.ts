@@ -51,7 +51,7 @@ export function encodeImage<M>(meta: M, sections: Sections): Buffer[] {
   lead.write(MAGIC, 0, 'latin1')
   lead.writeUInt32LE(FORMAT, 4)
   lead.writeUInt32LE(header.length, 8)
-  const out = [lead, header, Buffer.alloc(pad8(12 + header.length))]
+  const out: Buffer[] = [lead, header, Buffer.alloc(pad8(12 + header.length))]
   for (const { bytes } of parts) out.push(bytes, Buffer.alloc(pad8(bytes.length)))
   return out
 }

@@ -4,20 +4,17 @@
  * temporary directory under a name made from the database's host and name, so the processes of one machine load
  * the same file. `BORELINE_SEARCH_INDEX_FILE` names another path, or `0` to neither save nor load one.
  *
- * A saved file is used only when it was written by code that indexes parts the same way (a fingerprint of the
- * functions that make the index's contents) and, by catalogue:  the revision it was saved at, its part count and
- * highest part id, checked by the loader (catalogue-index.ts). Plain Node.
+ * A saved file is used only when it was written by code that indexes parts the same way ({@link indexFingerprint})
+ * and fits the catalogue: the revision it was saved at, its part count and highest part id are checked by the
+ * loader (catalogue-index.ts). Plain Node.
  */
 import { createHash } from 'node:crypto'
 import os from 'node:os'
 import { join } from 'node:path'
 import { FITTING_RULES } from '../../../shared/utils/catalogue/fitting-rules'
-import { axleOfSpecs } from '../../../shared/schemas/catalogue/specs'
 import { databaseUrl, dialectOfUrl, storageFromUrl } from '../../utils/db'
 import { decodeImage, encodeImage, readImageFile, writeImageFile } from './index-image'
-import { attributesOf, dimensionsOf, fittingKey } from './part-columns'
-import { COMMON_DF, PartSearchIndex } from './search-index'
-import { indexTerms } from './search-plan'
+import { COMMON_DF, PartSearchIndex, type IndexInput } from './search-index'
 
 export interface SavedMeta { fingerprint: string; revision: number; parts: number; maxPartId: number; savedAt: string }
 
@@ -36,15 +33,31 @@ export function savedIndexPath(): string | null {
   return join(os.tmpdir(), `boreline-search-index-${name}`)
 }
 
+/** Bump when the file's sections change meaning in a way the sample parts below would not show. */
+const INDEX_FORMAT = 1
+
+/** Sample parts of several types with OE numbers, a superseded SKU and specs that every column reads. */
+const SAMPLES: IndexInput[] = [
+  { id: 1, sku: 'SA-D-1', type: 'disc', productLine: 'Sample Standard', status: 'active', oeNumbers: ['SMP 615 301 C'], replaces: [{ oldSku: 'SA-OLD-1', note: 'Replaced.' }], description: 'Front brake disc 300 × 25 mm vented, for Sample Model', specs: { axle: 'front', diameterMm: 300, thicknessMm: 25, minThicknessMm: 23, heightMm: 40, centreBoreMm: 57.1, boltHoles: 5, pcdMm: 112, vented: true } },
+  { id: 2, sku: 'SA-P-2', type: 'pad_set', productLine: 'Sample Ceramic', status: 'discontinued', oeNumbers: [], replaces: [], description: 'Rear pad set 100 × 45 × 16.5 mm low dust, for Sample Model', specs: { axle: 'rear', padShape: 'PS-1', widthMm: 100, heightMm: 45, thicknessMm: 16.5, wearSensor: 'none', frictionCode: 'FF' } },
+  { id: 3, sku: 'SA-C-3', type: 'caliper', productLine: 'Sample Reman', status: 'active', oeNumbers: ['SMP-54-3'], replaces: [], description: 'Front caliper reman twin piston', specs: { axle: 'front', side: 'left', pistonDiametersMm: [38, 42], condition: 'remanufactured', parkingBrake: 'electric', coreDepositApplies: true } },
+  { id: 4, sku: 'SA-M-4', type: 'master_cylinder', productLine: 'Sample New', status: 'active', oeNumbers: [], replaces: [], description: 'Master cylinder tandem 22.22 mm bore', specs: { boreMm: 22.22, tandem: true, ports: 2, reservoir: 'integrated', condition: 'new', coreDepositApplies: false } },
+  { id: 5, sku: 'SA-H-5', type: 'hose', productLine: 'Sample Standard', status: 'active', oeNumbers: [], replaces: [], description: 'Brake hose 420 mm', specs: { axle: 'front', lengthMm: 420 } },
+]
+
 let fingerprint: string | null = null
-/** Changes whenever the code that decides what the index holds changes (a saved index from other code is rebuilt). */
-function indexFingerprint(): string {
-  const ix = PartSearchIndex.prototype as unknown as Record<string, unknown>
-  fingerprint ??= createHash('sha256').update([
-    String(ix.place), String(ix.identifierEntries), String(ix.finish), String(ix.msText), String(ix.toSections),
-    String(indexTerms), String(attributesOf), String(dimensionsOf), String(fittingKey), String(axleOfSpecs),
-    JSON.stringify(FITTING_RULES), String(COMMON_DF),
-  ].join('\n')).digest('hex').slice(0, 24)
+/**
+ * Changes whenever the code that decides what the index holds does: a hash of the sections the code makes of the
+ * sample parts (and the format number), so a file saved by other code, or by another build of the same code that
+ * indexes differently, is not used. The server's bundle and the worker's, built apart, agree on it.
+ */
+export function indexFingerprint(): string {
+  if (fingerprint) return fingerprint
+  const sample = new PartSearchIndex(FITTING_RULES)
+  sample.addAll(SAMPLES)
+  const h = createHash('sha256').update(`${INDEX_FORMAT}|${COMMON_DF}`)
+  for (const b of encodeImage({}, sample.toSections())) h.update(b)
+  fingerprint = h.digest('hex').slice(0, 24)
   return fingerprint
 }
 

@@ -84,7 +84,7 @@ export class PartSearchIndex {
   private statusOf: number[] = [] // 0 active, 1 discontinued, 2 removed
   private attrsOf: number[] = []
   private dimsOf: Record<Dimension, Float64Array> = Object.fromEntries(DIMS.map((d) => [d, new Float64Array(0)])) as Record<Dimension, Float64Array>
-  private dims2Of = new Float64Array(0) // second piston diameter
+  private dims2Of: Float64Array = new Float64Array(0) // second piston diameter
   private termsOf: (Int32Array | null)[] = []
   private fitKeyOf: string[] = []
   private slotOf = new Map<number, number>()
