@@ -120,7 +120,7 @@ export class PartSearchIndex {
     for (let i = 0, at = 0; i < n; i++) { const t = this.termsOf[i]; if (t) { terms.set(t, at); at += t.length } }
     out.set('termCounts', counts).set('terms', terms)
     const ids = this.ids.image()
-    out.set('id.keys', ids.keys).set('id.slots', ids.slots).set('id.kinds', ids.kinds)
+    out.set('id.bytes', ids.bytes).set('id.starts', ids.starts).set('id.slots', ids.slots).set('id.kinds', ids.kinds)
     const notes = [...this.oldNotes]
     out.set('notes.keys', notes.map(([k]) => k)).set('notes.old', notes.map(([, v]) => v.oldSku)).set('notes.text', notes.map(([, v]) => v.note))
     for (const [type, ti] of this.types) {
@@ -160,11 +160,11 @@ export class PartSearchIndex {
     ix.termsOf = new Array(counts.length)
     for (let i = 0, at = 0; i < counts.length; i++) {
       const c = counts[i]!
-      ix.termsOf[i] = c < 0 ? null : terms.slice(at, at + c)
+      ix.termsOf[i] = c < 0 ? null : terms.subarray(at, at + c) // views of one buffer: no copy per part
       if (c > 0) at += c
     }
     for (let slot = 0; slot < ix.partId.length; slot++) if (ix.statusOf[slot] !== 2) ix.slotOf.set(ix.partId[slot]!, slot)
-    ix.ids = IdentifierTable.fromImage({ keys: get('id.keys'), slots: get('id.slots'), kinds: get('id.kinds') })
+    ix.ids = IdentifierTable.fromImage({ bytes: get('id.bytes'), starts: get('id.starts'), slots: get('id.slots'), kinds: get('id.kinds') })
     const nk = get<string[]>('notes.keys'), no = get<string[]>('notes.old'), nt = get<string[]>('notes.text')
     nk.forEach((k, i) => ix.oldNotes.set(k, { oldSku: no[i]!, note: nt[i]! }))
     for (const [type, ti] of ix.types) {
