@@ -57,13 +57,14 @@ async function buildInWorker(): Promise<boolean> {
   const file = indexWorkerPath(), path = savedIndexPath()
   if (!file || !path) return false
   const worker = new Worker(file, { workerData: { databaseUrl: databaseUrl(), path } satisfies IndexJob })
-  try {
-    const [m] = await once(worker, 'message') as [IndexWorkerMessage]
-    if (m.type === 'failed') throw new Error(m.message)
-    return true
-  } finally {
-    void worker.terminate()
-  }
+  const ended = once(worker, 'exit')
+  // the worker answers once its database connection is closed, and then ends by itself: not terminated, which
+  // could tear it down while the sqlite3 driver still has work in flight
+  const m = await Promise.race([once(worker, 'message').then(([x]) => x as IndexWorkerMessage), ended.then(() => null)])
+  await ended
+  if (!m) throw new Error('the part index worker ended without an answer')
+  if (m.type === 'failed') throw new Error(m.message)
+  return true
 }
 
 /**

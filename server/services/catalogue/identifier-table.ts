@@ -78,9 +78,9 @@ const byKeyThenKind = (a: IdEntry, b: IdEntry) => (a[0] < b[0] ? -1 : a[0] > b[0
  */
 export class IdentifierTable {
   private bytes: Uint8Array = new Uint8Array(0)
-  private starts = new Uint32Array(1)
-  private slots = new Int32Array(0)
-  private kinds = new Uint8Array(0)
+  private starts: Uint32Array = new Uint32Array(1)
+  private slots: Int32Array = new Int32Array(0)
+  private kinds: Uint8Array = new Uint8Array(0)
   private pending: IdEntry[] | null = null
 
   get size(): number { return this.slots.length }

@@ -9,7 +9,7 @@ import { parentPort, workerData } from 'node:worker_threads'
 export interface IndexJob { databaseUrl: string; path: string }
 export type IndexWorkerMessage = { type: 'saved'; revision: number; parts: number } | { type: 'failed'; message: string }
 
-async function main(): Promise<void> {
+async function main(): Promise<IndexWorkerMessage> {
   const job = workerData as IndexJob
   process.env.DATABASE_URL = job.databaseUrl
   const { closeDb } = await import('../../utils/db')
@@ -19,12 +19,15 @@ async function main(): Promise<void> {
     const revision = await catalogueRevision() // before the rows: a change while they are read is re-read later
     const index = await buildFromDatabase()
     saveIndex(index, revision, job.path)
-    parentPort!.postMessage({ type: 'saved', revision, parts: index.size } satisfies IndexWorkerMessage)
+    return { type: 'saved', revision, parts: index.size }
   } finally {
+    // closed before the answer goes: the thread then ends on its own with nothing in flight (the sqlite3 driver
+    // aborts the process when a thread is torn down while a close is pending)
     await closeDb()
   }
 }
 
-main().catch((err: unknown) => {
-  parentPort!.postMessage({ type: 'failed', message: err instanceof Error ? err.message : String(err) } satisfies IndexWorkerMessage)
-})
+main().then(
+  (m) => parentPort!.postMessage(m),
+  (err: unknown) => parentPort!.postMessage({ type: 'failed', message: err instanceof Error ? err.message : String(err) } satisfies IndexWorkerMessage),
+)
