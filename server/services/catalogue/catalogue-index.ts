@@ -72,7 +72,7 @@ async function buildInWorker(): Promise<boolean> {
  * there is none, it is of another format or catalogue, or too much changed since.
  */
 async function loadSaved(revision: number): Promise<PartSearchIndex | null> {
-  const saved = readSavedIndex()
+  const saved = await readSavedIndex()
   if (!saved) return null
   const changed = await changedSince(saved.meta.revision, saved.index.size)
   if (!changed) return null

@@ -11,6 +11,8 @@ import os from 'node:os'
 export type Section = Int32Array | Uint8Array | Float64Array | string[] | string
 /** The named sections of an index, in any order. */
 export type Sections = Map<string, Section>
+/** Sections as read back: each decoded when asked for, and not kept. */
+export interface SectionSource { names(): string[]; get(name: string): Section | undefined }
 
 const MAGIC = 'BLSI'
 const FORMAT = 1
@@ -65,22 +67,29 @@ function headerOf<M>(buf: Buffer): { header: Header<M>; start: number } | null {
   return { header, start: 12 + len + pad8(12 + len) }
 }
 
-/** The sections back from the file's bytes (typed arrays are copies, so the file's buffer can go). */
-export function decodeImage<M>(buf: Buffer): { meta: M; sections: Sections } | null {
+/**
+ * The sections back from the file's bytes, each decoded when first asked for (typed arrays are copies, so the file's
+ * buffer can go): a loader that takes them one at a time never holds every decoded section, or every text index's
+ * JSON, at once.
+ */
+export function decodeImage<M>(buf: Buffer): { meta: M; sections: SectionSource } | null {
   const h = headerOf<M>(buf)
   if (!h) return null
-  const sections: Sections = new Map()
-  for (const r of h.header.sections) {
+  if (h.header.sections.some((r) => h.start + r.offset + r.bytes > buf.length)) return null
+  const refs = new Map(h.header.sections.map((r) => [r.name, r]))
+  const decode = (r: SectionRef): Section => {
     const at = h.start + r.offset
-    if (at + r.bytes > buf.length) return null
     const copy = () => { const b = new ArrayBuffer(r.bytes); new Uint8Array(b).set(buf.subarray(at, at + r.bytes)); return b }
-    if (r.kind === 'str') sections.set(r.name, buf.toString('utf8', at, at + r.bytes))
-    else if (r.kind === 'strs') sections.set(r.name, r.count === 0 ? [] : buf.toString('utf8', at, at + r.bytes).split(SEP))
-    else if (r.kind === 'i32') sections.set(r.name, new Int32Array(copy()))
-    else if (r.kind === 'f64') sections.set(r.name, new Float64Array(copy()))
-    else sections.set(r.name, new Uint8Array(copy()))
+    if (r.kind === 'str') return buf.toString('utf8', at, at + r.bytes)
+    if (r.kind === 'strs') return r.count === 0 ? [] : buf.toString('utf8', at, at + r.bytes).split(SEP)
+    if (r.kind === 'i32') return new Int32Array(copy())
+    if (r.kind === 'f64') return new Float64Array(copy())
+    return new Uint8Array(copy())
   }
-  return { meta: h.header.meta, sections }
+  return {
+    meta: h.header.meta,
+    sections: { names: () => [...refs.keys()], get: (name) => { const r = refs.get(name); return r ? decode(r) : undefined } },
+  }
 }
 
 /** Writes the file whole or not at all: to a temporary name beside it, then renamed over the old one. */

@@ -62,13 +62,13 @@ export function indexFingerprint(): string {
 }
 
 /** The saved index and what it was saved from, or null when there is none that this code can use. */
-export function readSavedIndex(): { index: PartSearchIndex; meta: SavedMeta } | null {
+export async function readSavedIndex(): Promise<{ index: PartSearchIndex; meta: SavedMeta } | null> {
   const path = savedIndexPath()
   const buf = path ? readImageFile(path) : null
   if (!buf) return null
   const image = decodeImage<SavedMeta>(buf)
   if (!image || image.meta.fingerprint !== indexFingerprint()) return null
-  const index = PartSearchIndex.fromSections(image.sections, FITTING_RULES)
+  const index = await PartSearchIndex.fromSections(image.sections, FITTING_RULES)
   return index.size === image.meta.parts ? { index, meta: image.meta } : null
 }
 

@@ -19,7 +19,7 @@ import { axleOfSpecs } from '../../../shared/schemas/catalogue/specs'
 import type { FittingRule } from '../../../shared/utils/catalogue/fitting-rules'
 import type { AxleName } from '../../../shared/types/axles'
 import { ID_KIND, IdentifierTable, norm, type IdEntry } from './identifier-table'
-import type { Section, Sections } from './index-image'
+import type { Section, SectionSource, Sections } from './index-image'
 import { ATTR_BITS, AXLE_CODE, TYPES_WITH_DIMENSION, attributesOf, dimensionsOf, fittingKey } from './part-columns'
 import { editDistance, indexTerms, type ScoredTerm, type SearchPlan } from './search-plan'
 
@@ -135,8 +135,12 @@ export class PartSearchIndex {
     return out
   }
 
-  /** An index back from {@link toSections}: answers exactly as the one saved. */
-  static fromSections(sec: Sections, fittingRules?: Record<PartType, FittingRule[]>): PartSearchIndex {
+  /**
+   * An index back from {@link toSections}: answers exactly as the one saved. Pauses between the columns and each
+   * part type's text index, so a server loading a large one at start still answers other requests meanwhile.
+   */
+  static async fromSections(sec: SectionSource, fittingRules?: Record<PartType, FittingRule[]>): Promise<PartSearchIndex> {
+    const pause = () => new Promise<void>((res) => setImmediate(res))
     const get = <T extends Section>(name: string): T => {
       const v = sec.get(name)
       if (v === undefined) throw new Error(`part search index file: no section ${name}`)
@@ -168,6 +172,7 @@ export class PartSearchIndex {
     const nk = get<string[]>('notes.keys'), no = get<string[]>('notes.old'), nt = get<string[]>('notes.text')
     nk.forEach((k, i) => ix.oldNotes.set(k, { oldSku: no[i]!, note: nt[i]! }))
     for (const [type, ti] of ix.types) {
+      await pause()
       ti.ms = MiniSearch.loadJSON(get<string>(`${type}.ms`), MS_OPTIONS)
       ti.list = Array.from(get<Int32Array>(`${type}.list`))
       const state = get<Int32Array>(`${type}.state`)

@@ -27,20 +27,20 @@ const QUERIES = [
 const answers = (ix: PartSearchIndex) => QUERIES.flatMap((q) => [
   ix.search(planQuery(q)).hits, ix.search(planQuery(q), { axle: 'front' }).hits, ix.search(planQuery(q), { ranges: { diameter: { min: 280, max: 300 } } }).hits,
 ])
-const roundTrip = (ix: PartSearchIndex) => {
+const roundTrip = async (ix: PartSearchIndex) => {
   const bytes = Buffer.concat(encodeImage({ revision: 7 }, ix.toSections()))
   const back = decodeImage<{ revision: number }>(bytes)!
-  return { meta: back.meta, index: PartSearchIndex.fromSections(back.sections, FITTING_RULES), bytes }
+  return { meta: back.meta, index: await PartSearchIndex.fromSections(back.sections, FITTING_RULES), bytes }
 }
 
 describe('the saved part search index', () => {
   const dir = mkdtempSync(join(os.tmpdir(), 'boreline-saved-index-'))
   afterAll(() => rmSync(dir, { recursive: true, force: true }))
 
-  it('answers every query exactly as the index it was saved from (hits, order, scores, match kinds)', () => {
+  it('answers every query exactly as the index it was saved from (hits, order, scores, match kinds)', async () => {
     const built = new PartSearchIndex(FITTING_RULES)
     built.addAll(PARTS)
-    const { meta, index } = roundTrip(built)
+    const { meta, index } = await roundTrip(built)
     expect(meta).toEqual({ revision: 7 })
     expect(index.size).toBe(built.size)
     const want = answers(built)
@@ -49,10 +49,10 @@ describe('the saved part search index', () => {
     expect(index.sameFittingKey(4)).toEqual(built.sameFittingKey(4))
   })
 
-  it('saves the same sections again after a load, and keeps answering alike after the same edits on both', () => {
+  it('saves the same sections again after a load, and keeps answering alike after the same edits on both', async () => {
     const built = new PartSearchIndex(FITTING_RULES)
     built.addAll(PARTS)
-    const first = roundTrip(built)
+    const first = await roundTrip(built)
     // every section alike; the text indexes hold the same terms (minisearch lists them in its tree's order)
     const again = first.index.toSections(), before = built.toSections()
     const terms = (json: unknown) => (JSON.parse(json as string) as { index: [string, unknown][] }).index.sort((a, b) => (a[0] < b[0] ? -1 : 1))
@@ -88,7 +88,7 @@ describe('the saved part search index', () => {
     writeImageFile(path, encodeImage({ v: 1 }, sections))
     const back = decodeImage<{ v: number }>(readFileSync(path))!
     expect(back.meta).toEqual({ v: 1 })
-    expect([...back.sections]).toEqual([...sections])
+    expect(back.sections.names().map((n) => [n, back.sections.get(n)])).toEqual([...sections])
     expect(decodeImage(Buffer.from('not an index file at all'))).toBeNull()
   })
 })
@@ -113,11 +113,11 @@ describe('the saved index file beside the database', () => {
     process.env.BORELINE_SEARCH_INDEX_FILE = '0'
     expect(savedIndexPath()).toBeNull()
     process.env.BORELINE_SEARCH_INDEX_FILE = join(dir, 'parts.search-index')
-    expect(readSavedIndex()).toBeNull() // none yet
+    expect(await readSavedIndex()).toBeNull() // none yet
     const built = new PartSearchIndex(FITTING_RULES)
     built.addAll(PARTS.slice(0, 300))
     saveIndex(built, 42)
-    const saved = readSavedIndex()!
+    const saved = (await readSavedIndex())!
     expect(saved.meta).toMatchObject({ revision: 42, parts: 300, maxPartId: 300, fingerprint: indexFingerprint() })
     expect(answers(saved.index)).toEqual(answers(built))
   })
