@@ -136,8 +136,8 @@ export class PartSearchIndex {
   }
 
   /**
-   * An index back from {@link toSections}: answers exactly as the one saved. Pauses between groups of columns and
-   * loads each part type's text index in batches, so a server loading a large one at start still answers meanwhile.
+   * An index back from {@link toSections}: answers exactly as the one saved. Pauses between the columns and each
+   * part type's text index, so a server loading a large one at start still answers other requests meanwhile.
    */
   static async fromSections(sec: SectionSource, fittingRules?: Record<PartType, FittingRule[]>): Promise<PartSearchIndex> {
     const pause = () => new Promise<void>((res) => setImmediate(res))
@@ -160,7 +160,6 @@ export class PartSearchIndex {
     ix.fitKeyOf = get<string[]>('fitKey').map((k) => { const s = keys.get(k); if (s !== undefined) return s; keys.set(k, k); return k })
     ix.vocabList = get<string[]>('vocab')
     ix.vocab = new Map(ix.vocabList.map((w, i) => [w, i]))
-    await pause()
     const counts = get<Int32Array>('termCounts'), terms = get<Int32Array>('terms')
     ix.termsOf = new Array(counts.length)
     for (let i = 0, at = 0; i < counts.length; i++) {
@@ -168,15 +167,13 @@ export class PartSearchIndex {
       ix.termsOf[i] = c < 0 ? null : terms.subarray(at, at + c) // views of one buffer: no copy per part
       if (c > 0) at += c
     }
-    await pause()
     for (let slot = 0; slot < ix.partId.length; slot++) if (ix.statusOf[slot] !== 2) ix.slotOf.set(ix.partId[slot]!, slot)
-    await pause()
     ix.ids = IdentifierTable.fromImage({ bytes: get('id.bytes'), starts: get('id.starts'), slots: get('id.slots'), kinds: get('id.kinds') })
     const nk = get<string[]>('notes.keys'), no = get<string[]>('notes.old'), nt = get<string[]>('notes.text')
     nk.forEach((k, i) => ix.oldNotes.set(k, { oldSku: no[i]!, note: nt[i]! }))
     for (const [type, ti] of ix.types) {
       await pause()
-      ti.ms = await MiniSearch.loadJSONAsync(get<string>(`${type}.ms`), MS_OPTIONS) // in batches, with pauses
+      ti.ms = MiniSearch.loadJSON(get<string>(`${type}.ms`), MS_OPTIONS)
       ti.list = Array.from(get<Int32Array>(`${type}.list`))
       const state = get<Int32Array>(`${type}.state`)
       ti.sorted = state[0] === 1
