@@ -81,8 +81,9 @@ export default defineNuxtConfig({
       const after = [config.errorHandler ?? []].flat()
       config.errorHandler = [fileURLToPath(new URL('./server/error-handler.ts', import.meta.url)), ...after]
     },
-    // the price-file rows worker (server/services/price-files/rows-worker.ts) runs in its own thread, so it is
-    // bundled on its own, beside the server's entry, once the server is built (dev builds too)
+    // the price-file rows worker (server/services/price-files/rows-worker.ts) and the part-search index worker run in
+    // threads of their own, so they are bundled on their own, beside the server's entry, once the server is built
+    // (dev builds too)
     'nitro:init'(nitro) {
       nitro.hooks.hook('compiled', async () => {
         const { build } = await import('esbuild')
@@ -92,6 +93,14 @@ export default defineNuxtConfig({
           bundle: true, platform: 'node', format: 'cjs', target: 'node20', logLevel: 'warning',
           // XLSX files are read in the worker too: exceljs is loaded from the server's own node_modules beside it
           external: ['exceljs'],
+        })
+        // the part-search index is built in a thread of its own too (server/services/catalogue/index-worker.ts)
+        await build({
+          entryPoints: [fileURLToPath(new URL('./server/services/catalogue/index-worker.ts', import.meta.url))],
+          outfile: join(nitro.options.output.serverDir, 'part-index-worker.cjs'),
+          bundle: true, platform: 'node', format: 'cjs', target: 'node20', logLevel: 'warning',
+          // the database drivers are loaded from the server's own node_modules beside it
+          external: ['sqlite3', 'sequelize', 'pg', 'pg-hstore'],
         })
       })
     },

@@ -66,6 +66,8 @@ async function main() {
   const { migrateUp } = await import('../server/utils/migrate')
   const { initModels } = await import('../server/models/index')
   const { CATALOGUE_TABLES } = await import('../server/migrations/0004-catalogue-extra')
+  // the part-search change log too: a saved index notices a bulk load by the part count and highest id instead
+  const { PART_SEARCH_SOURCES } = await import('../server/migrations/0023-part-search-changes')
   await migrateUp(getDb())
   initModels(getDb())
   const [users] = await getDb().query('SELECT COUNT(*) AS n FROM users') as [{ n: number }[], unknown]
@@ -86,6 +88,7 @@ async function main() {
     ;[list] = await db.all<{ id: number }>("SELECT id FROM price_versions WHERE status = 'active' ORDER BY version DESC LIMIT 1")
   }
   const triggers = [...CATALOGUE_TABLES, 'stock_levels'].flatMap((t) => ['insert', 'update', 'delete'].map((op) => `${t}_rev_${op}`))
+    .concat(PART_SEARCH_SOURCES.flatMap(({ table }) => ['insert', 'update', 'delete'].map((op) => `${table}_search_${op}`)))
   // SQLite's triggers fire once per row: off for the load, put back after it
   const triggerSql = db.postgres ? [] : await db.all<{ sql: string }>(`SELECT sql FROM sqlite_master WHERE type = 'trigger' AND name IN (${triggers.map(esc).join(',')})`)
   if (!db.postgres) for (const name of triggers) await db.run(`DROP TRIGGER IF EXISTS ${name}`)

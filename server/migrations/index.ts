@@ -24,6 +24,7 @@ import * as m0018 from './0018-owed-reminders'
 import * as m0019 from './0019-several-processes'
 import * as m0020 from './0020-steering-side'
 import * as m0021 from './0021-dashboard-figures'
+import * as m0023 from './0023-part-search-changes'
 
 export interface Migration { name: string; up: (qi: QueryInterface) => Promise<void>; down: (qi: QueryInterface) => Promise<void> }
 
@@ -49,4 +50,5 @@ export const migrations: Migration[] = [
   { name: '0019-several-processes', ...m0019 },
   { name: '0020-steering-side', ...m0020 },
   { name: '0021-dashboard-figures', ...m0021 },
+  { name: '0023-part-search-changes', ...m0023 },
 ]

@@ -19,6 +19,7 @@ import { axleOfSpecs } from '../../../shared/schemas/catalogue/specs'
 import type { FittingRule } from '../../../shared/utils/catalogue/fitting-rules'
 import type { AxleName } from '../../../shared/types/axles'
 import { ID_KIND, IdentifierTable, norm, type IdEntry } from './identifier-table'
+import type { Section, SectionSource, Sections } from './index-image'
 import { ATTR_BITS, AXLE_CODE, TYPES_WITH_DIMENSION, attributesOf, dimensionsOf, fittingKey } from './part-columns'
 import { editDistance, indexTerms, type ScoredTerm, type SearchPlan } from './search-plan'
 
@@ -57,6 +58,11 @@ const KIND_SCORE = [4e9, 3e9, 2e9, 1.5e9]
 const KIND_NAME: MatchKind[] = ['sku', 'superseded', 'oe', 'sku']
 const TYPE_CODE = new Map(PART_TYPES.map((t, i) => [t, i]))
 const DIMS: readonly Dimension[] = DIMENSIONS
+/** The text indexes' options (a saved one is loaded with the same). */
+const MS_OPTIONS = {
+  fields: ['text'], storeFields: [], tokenize: (s: string) => (s ? s.split(' ') : []), processTerm: (t: string) => t || null,
+  searchOptions: { tokenize: (s: string) => [s], processTerm: (t: string) => t },
+}
 
 interface TypeIndex {
   ms: MiniSearch<{ id: number; text: string }>
@@ -78,7 +84,7 @@ export class PartSearchIndex {
   private statusOf: number[] = [] // 0 active, 1 discontinued, 2 removed
   private attrsOf: number[] = []
   private dimsOf: Record<Dimension, Float64Array> = Object.fromEntries(DIMS.map((d) => [d, new Float64Array(0)])) as Record<Dimension, Float64Array>
-  private dims2Of = new Float64Array(0) // second piston diameter
+  private dims2Of: Float64Array = new Float64Array(0) // second piston diameter
   private termsOf: (Int32Array | null)[] = []
   private fitKeyOf: string[] = []
   private slotOf = new Map<number, number>()
@@ -92,20 +98,104 @@ export class PartSearchIndex {
 
   constructor(fittingRules?: Record<PartType, FittingRule[]>) {
     this.fittingRules = fittingRules ?? null
-    for (const t of PART_TYPES) {
-      this.types.set(t, {
-        ms: new MiniSearch<{ id: number; text: string }>({
-          fields: ['text'], storeFields: [], tokenize: (s) => (s ? s.split(' ') : []), processTerm: (t) => t || null,
-          searchOptions: { tokenize: (s) => [s], processTerm: (t) => t },
-        }),
-        list: [], sorted: true, live: 0, df: new Map(), common: new Map(),
-      })
+    for (const t of PART_TYPES) this.types.set(t, { ms: new MiniSearch(MS_OPTIONS), list: [], sorted: true, live: 0, df: new Map(), common: new Map() })
+  }
+
+  /**
+   * The whole index as named sections (index-image.ts writes them to a file): the per-part columns as typed
+   * arrays, the identifiers, the words, and per part type its text index (minisearch's own JSON), list and counts.
+   */
+  toSections(): Sections {
+    const n = this.partId.length
+    const out: Sections = new Map<string, Section>([
+      ['partId', Int32Array.from(this.partId)], ['sku', this.skuOf], ['type', Uint8Array.from(this.typeOf)],
+      ['axle', Uint8Array.from(this.axleOf)], ['status', Uint8Array.from(this.statusOf)], ['attrs', Int32Array.from(this.attrsOf)],
+      ['dims2', this.dims2Of.slice(0, n)], ['fitKey', this.fitKeyOf], ['vocab', this.vocabList],
+      ...DIMS.map((d): [string, Section] => [`dim.${d}`, this.dimsOf[d].slice(0, n)]),
+    ])
+    const counts = new Int32Array(n)
+    let total = 0
+    for (let i = 0; i < n; i++) { const t = this.termsOf[i]; counts[i] = t ? t.length : -1; total += t ? t.length : 0 }
+    const terms = new Int32Array(total)
+    for (let i = 0, at = 0; i < n; i++) { const t = this.termsOf[i]; if (t) { terms.set(t, at); at += t.length } }
+    out.set('termCounts', counts).set('terms', terms)
+    const ids = this.ids.image()
+    out.set('id.bytes', ids.bytes).set('id.starts', ids.starts).set('id.slots', ids.slots).set('id.kinds', ids.kinds)
+    const notes = [...this.oldNotes]
+    out.set('notes.keys', notes.map(([k]) => k)).set('notes.old', notes.map(([, v]) => v.oldSku)).set('notes.text', notes.map(([, v]) => v.note))
+    for (const [type, ti] of this.types) {
+      const common = [...ti.common]
+      out.set(`${type}.ms`, JSON.stringify(ti.ms)).set(`${type}.list`, Int32Array.from(ti.list))
+        .set(`${type}.state`, Int32Array.of(ti.sorted ? 1 : 0, ti.live))
+        .set(`${type}.df`, Int32Array.from([...ti.df].flat()))
+        .set(`${type}.commonWords`, Int32Array.from(common.map(([w]) => w)))
+        .set(`${type}.commonCounts`, Int32Array.from(common.map(([, slots]) => slots.length)))
+        .set(`${type}.commonSlots`, Int32Array.from(common.flatMap(([, slots]) => slots)))
     }
+    return out
+  }
+
+  /**
+   * An index back from {@link toSections}: answers exactly as the one saved. Pauses between the columns and each
+   * part type's text index, so a server loading a large one at start still answers other requests meanwhile.
+   */
+  static async fromSections(sec: SectionSource, fittingRules?: Record<PartType, FittingRule[]>): Promise<PartSearchIndex> {
+    const pause = () => new Promise<void>((res) => setImmediate(res))
+    const get = <T extends Section>(name: string): T => {
+      const v = sec.get(name)
+      if (v === undefined) throw new Error(`part search index file: no section ${name}`)
+      return v as T
+    }
+    const ix = new PartSearchIndex(fittingRules)
+    ix.partId = Array.from(get<Int32Array>('partId'))
+    ix.skuOf = get<string[]>('sku')
+    ix.typeOf = Array.from(get<Uint8Array>('type'))
+    ix.axleOf = Array.from(get<Uint8Array>('axle'))
+    ix.statusOf = Array.from(get<Uint8Array>('status'))
+    ix.attrsOf = Array.from(get<Int32Array>('attrs'))
+    ix.dims2Of = get<Float64Array>('dims2')
+    for (const d of DIMS) ix.dimsOf[d] = get<Float64Array>(`dim.${d}`)
+    // fitting keys repeat across parts: one string each
+    const keys = new Map<string, string>()
+    ix.fitKeyOf = get<string[]>('fitKey').map((k) => { const s = keys.get(k); if (s !== undefined) return s; keys.set(k, k); return k })
+    ix.vocabList = get<string[]>('vocab')
+    ix.vocab = new Map(ix.vocabList.map((w, i) => [w, i]))
+    const counts = get<Int32Array>('termCounts'), terms = get<Int32Array>('terms')
+    ix.termsOf = new Array(counts.length)
+    for (let i = 0, at = 0; i < counts.length; i++) {
+      const c = counts[i]!
+      ix.termsOf[i] = c < 0 ? null : terms.subarray(at, at + c) // views of one buffer: no copy per part
+      if (c > 0) at += c
+    }
+    for (let slot = 0; slot < ix.partId.length; slot++) if (ix.statusOf[slot] !== 2) ix.slotOf.set(ix.partId[slot]!, slot)
+    ix.ids = IdentifierTable.fromImage({ bytes: get('id.bytes'), starts: get('id.starts'), slots: get('id.slots'), kinds: get('id.kinds') })
+    const nk = get<string[]>('notes.keys'), no = get<string[]>('notes.old'), nt = get<string[]>('notes.text')
+    nk.forEach((k, i) => ix.oldNotes.set(k, { oldSku: no[i]!, note: nt[i]! }))
+    for (const [type, ti] of ix.types) {
+      await pause()
+      ti.ms = MiniSearch.loadJSON(get<string>(`${type}.ms`), MS_OPTIONS)
+      ti.list = Array.from(get<Int32Array>(`${type}.list`))
+      const state = get<Int32Array>(`${type}.state`)
+      ti.sorted = state[0] === 1
+      ti.live = state[1]!
+      const df = get<Int32Array>(`${type}.df`)
+      for (let i = 0; i < df.length; i += 2) ti.df.set(df[i]!, df[i + 1]!)
+      const cw = get<Int32Array>(`${type}.commonWords`), cc = get<Int32Array>(`${type}.commonCounts`), cs = get<Int32Array>(`${type}.commonSlots`)
+      for (let i = 0, at = 0; i < cw.length; i++) { ti.common.set(cw[i]!, Array.from(cs.subarray(at, at + cc[i]!))); at += cc[i]! }
+    }
+    return ix
   }
 
   get size(): number { return this.slotOf.size }
 
   has(partId: number): boolean { return this.slotOf.has(partId) }
+
+  /** The highest part id indexed (0 when empty). */
+  maxPartId(): number {
+    let hi = 0
+    for (const id of this.slotOf.keys()) if (id > hi) hi = id
+    return hi
+  }
 
   /** SKU, type, axle and status of an indexed part. */
   info(partId: number): { sku: string; type: PartType; axle: AxleName | null; status: string } | null {
@@ -218,31 +308,48 @@ export class PartSearchIndex {
 
   /** Adds or replaces one part (after an edit). */
   upsert(input: IndexInput): void {
-    this.remove(input.id)
-    const { slot, words } = this.place(input)
-    const ti = this.types.get(input.type)!
-    for (const w of words) ti.common.get(w)?.push(slot)
-    ti.ms.add({ id: slot, text: this.msText(input.type, words) })
-    this.ids.insert(this.identifierEntries(input, slot))
+    this.apply([input], [])
   }
 
   remove(partId: number): void {
-    const slot = this.slotOf.get(partId)
-    if (slot === undefined) return
-    const type = PART_TYPES[this.typeOf[slot]!]!
-    const ti = this.types.get(type)!
-    ti.ms.discard(slot)
-    ti.list = ti.list.filter((s) => s !== slot)
-    ti.live--
-    for (const w of this.termsOf[slot] ?? []) {
-      const n = (ti.df.get(w) ?? 1) - 1
-      if (n <= 0) ti.df.delete(w)
-      else ti.df.set(w, n)
+    this.apply([], [partId])
+  }
+
+  /**
+   * Replaces these parts (`inputs`) and drops those (`removed`): re-reading a few thousand changed parts costs one
+   * pass over the identifiers and each type's list, not one per part.
+   */
+  apply(inputs: IndexInput[], removed: number[]): void {
+    const gone = new Set<number>()
+    const touched = new Set<PartType>()
+    for (const partId of [...removed, ...inputs.map((i) => i.id)]) {
+      const slot = this.slotOf.get(partId)
+      if (slot === undefined) continue
+      const type = PART_TYPES[this.typeOf[slot]!]!
+      const ti = this.types.get(type)!
+      ti.ms.discard(slot)
+      ti.live--
+      for (const w of this.termsOf[slot] ?? []) {
+        const n = (ti.df.get(w) ?? 1) - 1
+        if (n <= 0) ti.df.delete(w)
+        else ti.df.set(w, n)
+      }
+      this.statusOf[slot] = 2
+      this.termsOf[slot] = null
+      this.slotOf.delete(partId)
+      gone.add(slot)
+      touched.add(type)
     }
-    this.statusOf[slot] = 2
-    this.termsOf[slot] = null
-    this.slotOf.delete(partId)
-    this.ids.removeSlot(slot)
+    for (const type of touched) { const ti = this.types.get(type)!; ti.list = ti.list.filter((s) => !gone.has(s)) }
+    const entries: IdEntry[] = []
+    for (const input of inputs) {
+      const { slot, words } = this.place(input)
+      const ti = this.types.get(input.type)!
+      for (const w of words) ti.common.get(w)?.push(slot)
+      ti.ms.add({ id: slot, text: this.msText(input.type, words) })
+      for (const e of this.identifierEntries(input, slot)) entries.push(e)
+    }
+    this.ids.replace(gone, entries)
   }
 
   private listOf(type: PartType): number[] {

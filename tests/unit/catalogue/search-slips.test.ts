@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest'
 import { FITTING_RULES } from '#shared/utils/catalogue/fitting-rules'
 import { planQuery } from '../../../server/services/catalogue/search-plan'
 import { PartSearchIndex, type IndexInput } from '../../../server/services/catalogue/search-index'
-import { isNeighbourKey, SLIP } from '../../../server/services/catalogue/identifier-table'
+import { isNeighbourKey, keyDistance, SLIP, substitutionCost } from '../../../server/services/catalogue/identifier-table'
 
 // Part numbers handed out in sequence (common practice for a distributor's own SKUs): almost every number one
 // slip away from a real one is another real part, so a slipped SKU usually matches some part exactly.
@@ -53,5 +53,31 @@ describe('part numbers typed with one slip', () => {
     expect(isNeighbourKey('s', 'a') && isNeighbourKey('s', 'w') && isNeighbourKey('s', 'x') && isNeighbourKey('s', 'e')).toBe(true)
     expect(isNeighbourKey('s', 'p')).toBe(false)
     expect(SLIP.swap).toBeLessThan(SLIP.neighbour)
+  })
+
+  it('costs a wrong key by its distance from the right one, on the layout where the two are nearest', () => {
+    // numeric keypad (7 8 9 / 4 5 6 / 1 2 3 / wide 0) and top row, key centres one key width apart (common practice):
+    // 5 -> 9 is one key across and one up on the keypad, sqrt(1^2 + 1^2) = 1.414; 0 -> 3 the same from the 0 key's
+    // right half; 1 -> 8 is two up and one across, sqrt(2^2 + 1^2) = 2.236; 7 -> 0 three rows apart on the keypad
+    // and three keys apart on the top row (7 8 9 0), so 3
+    expect(keyDistance('5', '9')).toBeCloseTo(Math.SQRT2, 9)
+    expect(keyDistance('0', '3')).toBeCloseTo(Math.SQRT2, 9)
+    expect(keyDistance('1', '8')).toBeCloseTo(2.2360679775, 9)
+    expect(keyDistance('7', '0')).toBe(3)
+    expect(keyDistance('a', '1')).toBe(Infinity)
+    // costs: touching 1, then 1 + d/2 up to 3 (keypad diagonal 1.707, two keys 2, 1 -> 8 2.118, 7 -> 0 2.5)
+    expect(substitutionCost('5', '6')).toBe(SLIP.neighbour)
+    expect(substitutionCost('5', '9')).toBeCloseTo(1 + Math.SQRT2 / 2, 9)
+    expect(substitutionCost('1', '3')).toBe(2)
+    expect(substitutionCost('7', '0')).toBe(2.5)
+    expect(substitutionCost('q', 'p')).toBe(SLIP.other)
+  })
+
+  it('ranks a keypad diagonal above a key further off, both after the touching keys', () => {
+    // typed 0001255: 0001259 has a keypad diagonal of 5 (1.41, cost 1.71), 0001250 a key two rows below it on the
+    // keypad (5 -> 0, 2 key widths, cost 2; five apart on the top row), 0001256 one that touches
+    const diagonal = rankOf('SY-P0001255', 'SY-P0001259')
+    expect(rankOf('SY-P0001255', 'SY-P0001256')).toBeLessThan(diagonal)
+    expect(diagonal).toBeLessThan(rankOf('SY-P0001255', 'SY-P0001250'))
   })
 })
