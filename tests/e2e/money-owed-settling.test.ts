@@ -13,12 +13,13 @@ import { beforeAll, describe, expect, it } from 'vitest'
 import { setup } from '@nuxt/test-utils/e2e'
 import { Client, as, env, mailFor, people } from '../support/api'
 import { addLedgerEntry, fake, makeGarage, makePart, payOnFake, pickAndDispatch, sessionIdOf, type TestGarage, type TestPart } from '../support/orders'
-import { backdateOrderCharges, bytesOf, runAccountsRemind } from '../support/money-owed'
+import { backdateOrderCharges, bytesOf, noonDaysAgo, runAccountsRemind } from '../support/money-owed'
 
 await setup({ host: env().baseUrl })
 
 const DAY = 86_400_000
-const dayOf = (d: Date) => d.toISOString().slice(0, 10)
+// the installation's calendar day (Europe/London), as the statement writes it
+const dayOf = (d: Date) => new Intl.DateTimeFormat('en-CA', { timeZone: 'Europe/London' }).format(d)
 let part: TestPart, admin: Client, counter: Client
 const accountOrder = () => ({ lines: [{ sku: part.sku, quantity: 1 }], payment: 'account' })
 
@@ -36,11 +37,11 @@ describe('due dates run from the invoice', () => {
     const sent = (await m.post('/api/orders', accountOrder())).body
     const waiting = (await m.post('/api/orders', accountOrder())).body
     await dispatchNow(sent.id)
-    await backdateOrderCharges(sent.id, new Date(Date.now() - 40 * DAY))
+    await backdateOrderCharges(sent.id, new Date(noonDaysAgo(40)))
     const s = (await m.get('/api/statement')).body
     const [first, second] = s.openItems
     // booked 40 days ago: the old rule would have made it due 10 days ago; from the invoice (today) + 30 it is not due
-    expect(first).toMatchObject({ bookedOn: dayOf(new Date(Date.now() - 40 * DAY)), invoicedOn: s.asOf, dueOn: dayOf(new Date(Date.parse(`${s.asOf}T12:00:00Z`) + 30 * DAY)), daysOverdue: 0 })
+    expect(first).toMatchObject({ bookedOn: dayOf(new Date(noonDaysAgo(40))), invoicedOn: s.asOf, dueOn: dayOf(new Date(Date.parse(`${s.asOf}T12:00:00Z`) + 30 * DAY)), daysOverdue: 0 })
     expect(first.invoice).toMatch(/^INV-\d{6}$/)
     expect(second).toMatchObject({ reference: `BL-${String(waiting.id).padStart(6, '0')}`, invoice: null, dueOn: null, daysOverdue: 0, bucket: 'current' })
     expect(s.stop.onStop).toBe(false)
@@ -53,7 +54,7 @@ describe('a stopped and suspended garage pays by card', () => {
     g = await makeGarage({ terms: 'account', creditLimitMinor: 100_000, label: 'Card Settles' })
     m = await as(g.email)
     // booked 70 days ago, no document: due 40 days ago, over the 30-day stop
-    await addLedgerEntry(g.id, { kind: 'order', amountMinor: 12_000, reference: 'OWE-CARD', at: new Date(Date.now() - 70 * DAY).toISOString() })
+    await addLedgerEntry(g.id, { kind: 'order', amountMinor: 12_000, reference: 'OWE-CARD', at: noonDaysAgo(70) })
   })
 
   it('shows nothing available on account while on stop, and why', async () => {
@@ -93,7 +94,7 @@ describe('a card payment on the account whose webhook is lost', () => {
   it('is booked by the sweep from the payment service\'s completed checkouts, once', async () => {
     const g = await makeGarage({ terms: 'account', creditLimitMinor: 100_000, label: 'Lost Webhook' })
     const m = await as(g.email)
-    await addLedgerEntry(g.id, { kind: 'order', amountMinor: 4_500, reference: 'OWE-LOST', at: new Date(Date.now() - 10 * DAY).toISOString() })
+    await addLedgerEntry(g.id, { kind: 'order', amountMinor: 4_500, reference: 'OWE-LOST', at: noonDaysAgo(10) })
     const r = await m.post('/api/statement/card-payment', { amountMinor: 4_500 })
     expect(r.status, r.text).toBe(200)
     const { json: before } = await fake('GET', '/_fake/config')
@@ -120,7 +121,7 @@ describe('the admin allocates a payment', () => {
     g = await makeGarage({ terms: 'account', creditLimitMinor: 1_000_000, label: 'Remittance' })
     ids = []
     for (const [reference, daysAgo, amountMinor] of [['ALC-A', 50, 10_000], ['ALC-B', 40, 20_000], ['ALC-C', 20, 30_000]] as const) {
-      ids.push(await addLedgerEntry(g.id, { kind: 'order', amountMinor, reference, at: new Date(Date.now() - daysAgo * DAY).toISOString() }))
+      ids.push(await addLedgerEntry(g.id, { kind: 'order', amountMinor, reference, at: noonDaysAgo(daysAgo) }))
     }
   })
 
@@ -157,7 +158,7 @@ describe('the admin allocates a payment', () => {
 describe('the statement as a PDF', () => {
   it('carries the same figures as the screen, for the manager only', async () => {
     const g = await makeGarage({ terms: 'account', creditLimitMinor: 50_000, label: 'Printed Statement' })
-    await addLedgerEntry(g.id, { kind: 'order', amountMinor: 12_345, reference: 'PDF-A', at: new Date(Date.now() - 45 * DAY).toISOString() })
+    await addLedgerEntry(g.id, { kind: 'order', amountMinor: 12_345, reference: 'PDF-A', at: noonDaysAgo(45) })
     const m = await as(g.email)
     const pdf = await bytesOf(m, '/api/statement.pdf')
     expect(pdf.status).toBe(200)
@@ -183,8 +184,8 @@ describe('account reminders', () => {
   beforeAll(async () => {
     g = await makeGarage({ terms: 'account', creditLimitMinor: 1_000_000, label: 'Reminded' })
     // A booked 60 days ago: due 30 days ago, 30 days overdue (past 7 and 21); B booked 40 days ago: 10 days overdue (past 7)
-    await addLedgerEntry(g.id, { kind: 'order', amountMinor: 11_100, reference: 'REM-A', at: new Date(now.getTime() - 60 * DAY).toISOString() })
-    await addLedgerEntry(g.id, { kind: 'order', amountMinor: 22_200, reference: 'REM-B', at: new Date(now.getTime() - 40 * DAY).toISOString() })
+    await addLedgerEntry(g.id, { kind: 'order', amountMinor: 11_100, reference: 'REM-A', at: noonDaysAgo(60, now) })
+    await addLedgerEntry(g.id, { kind: 'order', amountMinor: 22_200, reference: 'REM-B', at: noonDaysAgo(40, now) })
   })
 
   it('sends last month\'s statement and one overdue reminder, once, even with two runs at the same time', async () => {
@@ -216,7 +217,7 @@ describe('account reminders', () => {
     const rows = list.body.data as any[]
     expect(rows.filter((r) => r.kind === 'overdue').map((r) => `${r.about} ${r.status}`).sort()).toEqual(['21 days overdue sent', '21 days overdue sent', '7 days overdue sent'])
     // one statement a month: the month before today, and the month before the moved clock (the same month or the next)
-    const months = new Set([now, new Date(now.getTime() + 12 * DAY)].map((d) => { const x = new Date(d); x.setUTCDate(0); return dayOf(x).slice(0, 7) }))
+    const months = new Set([now, new Date(now.getTime() + 12 * DAY)].map((d) => { const x = new Date(d); x.setUTCDate(0); return x.toISOString().slice(0, 7) }))
     expect(rows.filter((r) => r.kind === 'statement').map((r) => r.about).sort()).toEqual([...months].sort())
     expect(list.body.data[0].recipients).toContain(g.email.toLowerCase())
     const [cs, m, bad] = await Promise.all([
