@@ -7,7 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Browser } from 'playwright-core'
 import { as, people } from '../support/api'
 import { launch, shot } from '../support/browser'
-import { contextAs, DESK, visit } from '../support/screens'
+import { contextAs, DESK, PHONE, sidewaysScroll, visit } from '../support/screens'
 
 const VEHICLE = 3 // a seeded right-hand-drive demo vehicle; put back after
 let browser: Browser
@@ -39,6 +39,20 @@ describe('the steering side in the finder', () => {
     await expect.poll(() => tp.getByTestId('steering-side').textContent()).toMatch(/Left-hand drive/)
     expect(await tp.getByTestId('steering-side').getByRole('button').count()).toBe(0)
     await garage.close()
+  })
+})
+
+describe('the steering side on a phone', () => {
+  it('the form opens at 390 px without sideways scrolling', async () => {
+    const context = await contextAs(browser, people.counter, PHONE)
+    const page = await context.newPage()
+    await visit(page, `/catalogue?vehicle=${VEHICLE}`)
+    const box = page.getByTestId('steering-side')
+    await box.getByRole('button', { name: /steering side/ }).click()
+    await box.getByLabel('Steering side').waitFor()
+    expect((await sidewaysScroll(page)).overflow).toBeLessThanOrEqual(0)
+    await shot(page, 'steering-side-390')
+    await context.close()
   })
 })
 
