@@ -10,8 +10,12 @@
  *
  * Reported, in ms: once, bringing every garage's open items up to date after the migration that adds them; then for
  * each dashboard and baseline the first run in this process ("first") and the median of the runs after it
- * ("median"). The distributor's dashboard is timed twice: worked out afresh (its kept answer forgotten before each
- * run, so every figure is read from the database) and answered from the kept answer (nothing written meanwhile).
+ * ("median"). The distributor's dashboard is timed as it is asked on a trading day: with no day kept yet (every day
+ * summed from the order lines: the first look after the migration, a price file or a time-zone change); after an
+ * order is placed today (today summed again, the other days kept); after a line of an order of three months ago
+ * changes (that day summed again); in a new process (the kept days read from the table, nothing summed); and answered
+ * from the kept answer (nothing written meanwhile). Beside them, one run of the background job that keeps the days
+ * summed when nothing was written since its last run.
  * The load average (1, 5, 15 min) is printed before and after: the machine is shared.
  */
 import { existsSync } from 'node:fs'
@@ -40,6 +44,8 @@ const { spanOf, rows } = await import('../server/services/dashboards/range')
 const { distributorDashboard, freshDistributorDashboard, SOLD_STATUSES } = await import('../server/services/dashboards/distributor')
 const { forgetAnswers } = await import('../server/services/dashboards/answer-cache')
 const { refreshOpenItems } = await import('../server/services/dashboards/open-items')
+const { forgetParsedDays, keepRecentDays } = await import('../server/services/dashboards/day-figures')
+const { withWrite } = await import('../server/utils/db')
 const { garageDashboard } = await import('../server/services/dashboards/garage')
 const { formatsFor } = await import('../shared/utils/format')
 
@@ -78,20 +84,44 @@ async function timed(fn: () => Promise<unknown>): Promise<number> {
   return performance.now() - t
 }
 /** The first run, then the median of `runs` more. */
-async function firstAndMedian(fn: () => Promise<unknown>, before: () => void = () => {}): Promise<[number, number]> {
-  before()
+async function firstAndMedian(fn: () => Promise<unknown>, before: () => unknown = () => {}): Promise<[number, number]> {
+  await before()
   const first = await timed(fn)
   const times: number[] = []
-  for (let i = 0; i < runs; i++) { before(); times.push(await timed(fn)) }
+  for (let i = 0; i < runs; i++) { await before(); times.push(await timed(fn)) }
   return [first, times.sort((a, b) => a - b)[Math.floor(times.length / 2)]!]
 }
+
+/** A write as the counter makes one: an order placed now with three lines, or a line of an older order changed. */
+const [sample] = await rows<{ organisation_id: number; branch_id: number; user_id: number }>(
+  "SELECT organisation_id, branch_id, placed_by_user_id AS user_id FROM orders WHERE status = 'confirmed' OR status = 'delivered' ORDER BY id LIMIT 1", {})
+const [lineOfOld] = await rows<{ id: number }>(`SELECT l.id FROM order_lines l JOIN orders o ON o.id = l.order_id
+  WHERE o.created_at < :at ORDER BY o.created_at DESC LIMIT 1`, { at: new Date(Date.now() - 90 * 86_400_000) })
+const placeOrder = () => withWrite(async (t) => {
+  const now = new Date()
+  await getDb().query(`INSERT INTO orders (organisation_id, branch_id, placed_by_user_id, status, payment_method, payment_state,
+    subtotal_minor, tax_rate_bp, tax_minor, total_minor, currency, created_at, updated_at)
+    VALUES (:org, :branch, :user, 'confirmed', 'account', 'on_account', 9000, 2000, 1800, 10800, 'GBP', :now, :now)`,
+  { replacements: { org: sample!.organisation_id, branch: sample!.branch_id, user: sample!.user_id, now }, transaction: t })
+  const [[{ id }]] = await getDb().query('SELECT MAX(id) AS id FROM orders', { transaction: t }) as unknown as [[{ id: number }]]
+  for (const [k, sku] of ['KD-1028', 'KD-1029', 'KD-1030'].entries()) {
+    await getDb().query(`INSERT INTO order_lines (order_id, part_id, sku, description, quantity, unit_list_minor, unit_net_minor, line_net_minor, position, line_group)
+      SELECT :id, id, sku, 'Bench line', 1, 3000, 3000, 3000, :k, :k FROM parts WHERE sku = :sku`, { replacements: { id, sku, k }, transaction: t })
+  }
+})
+const changeOldLine = () => withWrite((t) => getDb().query('UPDATE order_lines SET position = position WHERE id = :id', { replacements: { id: lineOfOld!.id }, transaction: t }))
+const forgetDays = () => withWrite((t) => getDb().query('DELETE FROM trade_day_figures', { transaction: t }))
 
 let caughtUp = 0
 const catchUp = await timed(async () => { caughtUp = await refreshOpenItems(clock.timeZone) })
 console.log(`${Number(lineCount!.n)} order lines; open items brought up to date for ${caughtUp} garages in ${ms(catchUp)} (once, after the migration)`)
 const results: [string, [number, number]][] = [
-  ['distributor dashboard, a year, worked out afresh', await firstAndMedian(() => freshDistributorDashboard(year, clock, fmt), forgetAnswers)],
+  ['distributor dashboard, a year, no day kept (every day summed)', await firstAndMedian(() => freshDistributorDashboard(year, clock, fmt), async () => { forgetAnswers(); forgetParsedDays(); await forgetDays() })],
+  ['distributor dashboard, a year, after an order placed today', await firstAndMedian(() => distributorDashboard(year, clock, fmt), placeOrder)],
+  ['distributor dashboard, a year, after a line of 90 days ago changed', await firstAndMedian(() => distributorDashboard(year, clock, fmt), changeOldLine)],
+  ['distributor dashboard, a year, kept days read by a new process', await firstAndMedian(() => distributorDashboard(year, clock, fmt), () => { forgetAnswers(); forgetParsedDays() })],
   ['distributor dashboard, a year, kept answer', await firstAndMedian(() => distributorDashboard(year, clock, fmt))],
+  ['the dashboard-days job, nothing written since its last run', await firstAndMedian(() => keepRecentDays(clock.now, clock.timeZone))],
   ['distributor bare SQL, a year', await firstAndMedian(baselineDistributor)],
   ['garage dashboard, a year', await firstAndMedian(() => garageDashboard(garage!.id, year, fmt))],
   ['garage bare SQL, a year', await firstAndMedian(baselineGarage)],

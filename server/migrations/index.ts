@@ -25,6 +25,7 @@ import * as m0019 from './0019-several-processes'
 import * as m0020 from './0020-steering-side'
 import * as m0021 from './0021-dashboard-figures'
 import * as m0023 from './0023-part-search-changes'
+import * as m0024 from './0024-trade-day-figures'
 
 export interface Migration { name: string; up: (qi: QueryInterface) => Promise<void>; down: (qi: QueryInterface) => Promise<void> }
 
@@ -51,4 +52,5 @@ export const migrations: Migration[] = [
   { name: '0020-steering-side', ...m0020 },
   { name: '0021-dashboard-figures', ...m0021 },
   { name: '0023-part-search-changes', ...m0023 },
+  { name: '0024-trade-day-figures', ...m0024 },
 ]

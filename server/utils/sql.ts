@@ -114,12 +114,63 @@ export async function organisationMarkTriggers(qi: QueryInterface, table: string
 }
 
 /** Drops what `organisationMarkTriggers` made. */
-export async function dropOrganisationMarkTriggers(qi: QueryInterface, table: string): Promise<void> {
+export function dropOrganisationMarkTriggers(qi: QueryInterface, table: string): Promise<void> {
+  return dropMarkTriggers(qi, table, `${table}_mark`)
+}
+
+/** Drops the mark triggers named `<name>_<op>` per row on SQLite, `<name>` deferred on PostgreSQL. */
+async function dropMarkTriggers(qi: QueryInterface, table: string, name: string): Promise<void> {
   if (!pgOf(qi.sequelize)) {
-    for (const op of ['insert', 'update', 'delete']) await dropTrigger(qi, table, `${table}_mark_${op}`)
+    for (const op of ['insert', 'update', 'delete']) await dropTrigger(qi, table, `${name}_${op}`)
     return
   }
-  await dropTrigger(qi, table, `${table}_mark`)
+  await dropTrigger(qi, table, name)
+}
+
+/**
+ * Triggers that add one to `trade_day_marks.revision` of the UTC hour (`YYYY-MM-DD HH`) of an instant belonging to
+ * every row written to `table` (old and new): `instant(row)` is an SQL expression of `NEW`/`OLD` naming it, e.g. the
+ * row's own `created_at` or its order's. Work summed per local day (day-figures.ts) adds up the hours of a day and so
+ * knows which days changed since it was summed, whoever wrote. On PostgreSQL the marks are made as the transaction
+ * commits (deferred), once per hour and transaction, so a marks row is locked for the commit only.
+ */
+export async function hourMarkTriggers(qi: QueryInterface, table: string, instant: (row: 'NEW' | 'OLD') => string): Promise<void> {
+  const q = (sql: string) => qi.sequelize.query(sql)
+  if (!pgOf(qi.sequelize)) {
+    // stored as text, 'YYYY-MM-DD HH:MM:SS.SSS +00:00' (or with a T): the date and the hour
+    const mark = (row: 'NEW' | 'OLD') => `INSERT INTO trade_day_marks (hour, revision)
+      SELECT substr(x.at, 1, 10) || ' ' || substr(x.at, 12, 2), 1 FROM (SELECT ${instant(row)} AS at) x WHERE x.at IS NOT NULL
+      ON CONFLICT (hour) DO UPDATE SET revision = revision + 1;`
+    await q(`CREATE TRIGGER ${table}_day_mark_insert AFTER INSERT ON ${table} BEGIN ${mark('NEW')} END`)
+    await q(`CREATE TRIGGER ${table}_day_mark_update AFTER UPDATE ON ${table} BEGIN ${mark('OLD')} ${mark('NEW')} END`)
+    await q(`CREATE TRIGGER ${table}_day_mark_delete AFTER DELETE ON ${table} BEGIN ${mark('OLD')} END`)
+    return
+  }
+  const fn = `day_mark_${table}`
+  // the hours marked so far in this transaction are remembered (up to ~140 of them; a bulk load past that marks
+  // every row) so that an order's lines move their hour once
+  const mark = (row: 'NEW' | 'OLD') => `
+    h := to_char((${instant(row)}) AT TIME ZONE 'UTC', 'YYYY-MM-DD HH24');
+    done := coalesce(current_setting('boreline.day_marks', true), '|');
+    IF h IS NOT NULL AND (length(done) > 2000 OR position('|' || h || '|' IN done) = 0) THEN
+      IF length(done) <= 2000 THEN PERFORM set_config('boreline.day_marks', done || h || '|', true); END IF;
+      INSERT INTO trade_day_marks (hour, revision) VALUES (h, 1) ON CONFLICT (hour) DO UPDATE SET revision = trade_day_marks.revision + 1;
+    END IF;`
+  await q(`CREATE OR REPLACE FUNCTION ${fn}() RETURNS trigger LANGUAGE plpgsql AS $$
+    DECLARE h TEXT; done TEXT;
+    BEGIN
+      IF TG_OP <> 'INSERT' THEN ${mark('OLD')} END IF;
+      IF TG_OP <> 'DELETE' THEN ${mark('NEW')} END IF;
+      RETURN NULL;
+    END $$`)
+  await q(`CREATE CONSTRAINT TRIGGER ${table}_day_mark AFTER INSERT OR UPDATE OR DELETE ON ${table}
+    DEFERRABLE INITIALLY DEFERRED FOR EACH ROW EXECUTE FUNCTION ${fn}()`)
+}
+
+/** Drops what `hourMarkTriggers` made. */
+export async function dropHourMarkTriggers(qi: QueryInterface, table: string): Promise<void> {
+  await dropMarkTriggers(qi, table, `${table}_day_mark`)
+  if (pgOf(qi.sequelize)) await qi.sequelize.query(`DROP FUNCTION IF EXISTS day_mark_${table}()`)
 }
 
 /** A trigger that refuses every update (`op` UPDATE) or delete (`op` DELETE) of `table`'s rows with `message`. */

@@ -76,6 +76,21 @@ describe('the distributor dashboard', () => {
     expect(csv.text).toContain('Gross margin,Margin rate,37.5,%')
   })
 
+  it('follows a change to a day already summed: a line of 1 March cancelled afterwards', async () => {
+    // the days of 1-3 March are summed and kept by the looks above; cancelling B's line (10.00, no trade cost) on
+    // the 1st must show at the next look, whoever wrote it (here straight in the database, as a script would)
+    await exec("UPDATE order_lines SET state = 'cancelled' WHERE part_id = :id AND order_id IN (SELECT id FROM orders WHERE organisation_id = :org)", { id: b.id, org: g1.id })
+    const d = (await admin.get(`/api/dashboard/distributor${RANGE}`)).body
+    // 1 March: 80.00 left of 90.00; 2 March unchanged: 40.00
+    expect(d.sales.byDay.map((x: any) => x.netMinor)).toEqual([8_000, 4_000, 0])
+    expect(d.sales).toMatchObject({ netMinor: 12_000, orders: 2 })
+    // only the costed lines are left: 120.00 - 75.00 = 45.00, none without a cost
+    expect(d.margin).toEqual({ netMinor: 12_000, costMinor: 7_500, marginMinor: 4_500, marginBp: 3_750, linesWithoutCost: 0 })
+    // the cancelled requested line was never sent, so it is no longer counted: A's line, sent complete, is
+    expect(d.fillRate).toEqual({ lines: 1, filled: 1, rateBp: 10_000 })
+    expect(d.topParts.map((p: any) => [p.sku, p.units, p.netMinor])).toEqual([[a.sku, 3, 12_000]])
+  })
+
   it('is for distributor staff only; bad ranges name the field', async () => {
     const tech = await as(people.technician)
     const [anon, m, t] = await Promise.all([new Client().get('/api/dashboard/distributor'), m1.get('/api/dashboard/distributor'), tech.get('/api/dashboard/distributor')])

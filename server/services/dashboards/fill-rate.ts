@@ -4,8 +4,7 @@
  * again (`splitFromLineId`). A requested line counts once all its pieces are finished (sent or cancelled, at least
  * one sent); it was filled first time when every piece came from the home branch's shelf (or its counter), was sent,
  * and none was split at picking. Rate = filled / counted (common practice: "lines shipped complete from the first
- * location / lines shipped"). Pure; the dashboard sums the same rule in SQL (`salesAndFillByGarageBranch`,
- * sold-figures.ts), so a change here goes there too.
+ * location / lines shipped"). Pure; the dashboard sums the same rule in SQL (`sumDays` in day-figures.ts), so a change here goes there too.
  */
 import type { LineState, SupplySource } from '../../../shared/types/orders'
 
