@@ -5,8 +5,9 @@
  * version before it: the writes below put the file's values on the parts that are new or whose prices move (the
  * check's `prices` list, which also holds the values they replace) and record the part statuses they change, so a
  * roll back (rollback.ts) can write those replaced values back and undo the statuses. Bulk work is a handful of
- * set-based statements reading the findings inside SQLite (`json_each`), so even 200,000 rows hold the write lock
- * briefly.
+ * set-based statements reading the findings inside the database (`findingsOf`: JSONB on SQLite), so even 200,000
+ * rows hold the write lock briefly; on SQLite the per-row revision and part-search triggers are off for those
+ * statements and what they would have written is written once (`withoutRowTriggers`, `BULK_TRIGGERS`).
  */
 import { QueryTypes, type Transaction } from 'sequelize'
 import { getDb } from '../../utils/db'
