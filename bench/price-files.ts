@@ -17,6 +17,7 @@
  * Targets: preview + apply within 6x the `.import` time; peak memory under 500 MB; health p99 under 200 ms.
  */
 import { spawn, spawnSync } from 'node:child_process'
+import { createHmac } from 'node:crypto'
 import { appendFileSync, mkdtempSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs'
 import { createServer } from 'node:net'
 import { cpus, tmpdir } from 'node:os'
@@ -82,6 +83,49 @@ function newPartsFile(): string {
   const path = join(dir, 'new-parts.csv')
   writeFileSync(path, lines.join('\n') + '\n')
   return path
+}
+
+/** RFC 6238 time-based code (HMAC-SHA1 over floor(unix time / 30), RFC 4226 truncation) for a base32 secret (RFC 4648). */
+function totp(secret: string, at = Date.now()): string {
+  let bits = 0
+  let value = 0
+  const key: number[] = []
+  for (const ch of secret.toUpperCase().replace(/=+$/, '')) {
+    value = (value << 5) | 'ABCDEFGHIJKLMNOPQRSTUVWXYZ234567'.indexOf(ch)
+    bits += 5
+    if (bits >= 8) { key.push((value >>> (bits - 8)) & 0xff); bits -= 8 }
+  }
+  const counter = Buffer.alloc(8)
+  counter.writeBigUInt64BE(BigInt(Math.floor(at / 30_000)))
+  const mac = createHmac('sha1', Buffer.from(key)).update(counter).digest()
+  const o = mac[mac.length - 1]! & 0x0f
+  return String((((mac[o]! & 0x7f) << 24) | (mac[o + 1]! << 16) | (mac[o + 2]! << 8) | mac[o + 3]!) % 1_000_000).padStart(6, '0')
+}
+
+/**
+ * Signs a member of the distributor's staff in, with the second step staff always take: the code from the secret the
+ * server offers for enrolment (a database without the demo secrets) or from the demo person's own. Returns the cookie.
+ */
+async function signInStaff(base: string, email: string): Promise<string> {
+  const jar = new Map<string, string>()
+  const keep = (r: Response) => { for (const c of r.headers.getSetCookie()) { const [pair] = c.split(';'); const at = pair!.indexOf('='); jar.set(pair!.slice(0, at), pair!.slice(at + 1)) } }
+  const cookie = () => [...jar].map(([k, v]) => `${k}=${v}`).join('; ')
+  const first = await fetch(`${base}/api/auth/sign-in`, {
+    method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email, password: 'brake-demo-2026' }),
+  })
+  if (!first.ok) throw new Error(`sign-in failed: ${first.status} ${await first.text()}`)
+  keep(first)
+  const body = await first.json() as { mfaRequired?: boolean; enrolment?: { secret: string } }
+  if (!body.mfaRequired) return cookie()
+  // the demo secrets only when the server offers none (the seed set them up): the seed's module is loaded for them alone
+  const secret = body.enrolment?.secret ?? (await import('../server/seed/accounts')).DEMO_TOTP_SECRETS[email]
+  if (!secret) throw new Error(`no authenticator secret for ${email}`)
+  const second = await fetch(`${base}/api/auth/mfa`, {
+    method: 'POST', headers: { 'content-type': 'application/json', cookie: cookie() }, body: JSON.stringify({ code: totp(secret) }),
+  })
+  if (!second.ok) throw new Error(`second sign-in step failed: ${second.status} ${await second.text()}`)
+  keep(second)
+  return cookie()
 }
 
 function sqliteImportMs(csvPath: string): number {
@@ -157,12 +201,7 @@ async function main() {
       try { if ((await fetch(`${base}/api/health`)).ok) break } catch { /* starting */ }
       await new Promise((r) => setTimeout(r, 250))
     }
-    const signIn = await fetch(`${base}/api/auth/sign-in`, {
-      method: 'POST', headers: { 'content-type': 'application/json' },
-      body: JSON.stringify({ email: 'ines.okafor@kestrel-friction.test', password: 'brake-demo-2026' }),
-    })
-    if (!signIn.ok) throw new Error(`sign-in failed: ${signIn.status} ${await signIn.text()}`)
-    const cookie = signIn.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ')
+    const cookie = await signInStaff(base, 'ines.okafor@kestrel-friction.test')
     const api = async (path: string, init: RequestInit = {}) => {
       const r = await fetch(`${base}${path}`, { ...init, headers: { ...(init.headers ?? {}), cookie } })
       const body = await r.json().catch(() => null)

@@ -102,6 +102,20 @@ export async function receiveUpload(req: IncomingMessage, spec: UploadSpec): Pro
   }
 }
 
+/**
+ * Runs what must hold before an upload is read (who may send it). A refusal drains the body first, as the intake's own
+ * do: answered while a large file is still coming, the client would get a broken pipe (EPIPE) instead of the answer.
+ */
+export async function beforeUpload<T>(req: IncomingMessage, check: () => T): Promise<T> {
+  try {
+    return check()
+  } catch (err) {
+    req.resume()
+    await endOrTimeout(req, 2000)
+    throw err
+  }
+}
+
 function endOrTimeout(req: IncomingMessage, ms: number): Promise<void> {
   if (req.complete || req.readableEnded) return Promise.resolve()
   return new Promise((resolve) => {

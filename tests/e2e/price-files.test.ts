@@ -83,6 +83,10 @@ async function changes(c: Client, id: number, kind: string, extra = '') {
 }
 
 const rollback = (c: Client, id: number) => c.post(`/api/price-files/${id}/rollback`)
+/** Every trigger with its definition (a bulk apply turns some off for its own writes and must leave them as they were). */
+const triggers = () => all(onPostgres()
+  ? 'SELECT tgname AS name, pg_get_triggerdef(oid) AS sql FROM pg_trigger WHERE NOT tgisinternal ORDER BY tgname'
+  : `SELECT name, sql FROM sqlite_master WHERE type = 'trigger' ORDER BY name`)
 
 /**
  * The garage's net price worked independently of the server: list price x (1 - tier %), in exact decimal
@@ -130,6 +134,18 @@ describe('who may use the price-file routes', () => {
   it('refuses anonymous callers with 401', async () => {
     const anon = new Client()
     for (const r of routes) expect((await send(anon, r)).status, r.join(' ')).toBe(401)
+  })
+
+  it('answers a refused upload of a large file with the refusal, not a broken connection', async () => {
+    // refused before the body is read: the 20 MB still coming are drained first, so the client reads the 401/403
+    // instead of a broken pipe (EPIPE)
+    const big = () => {
+      const fd = new FormData()
+      fd.append('file', new Blob([Buffer.alloc(20 * 1024 * 1024, 'a')]), 'big.csv')
+      return fd
+    }
+    expect((await new Client().request('/api/price-files', { method: 'POST', body: big() })).status).toBe(401)
+    expect((await (await as(people.manager)).request('/api/price-files', { method: 'POST', body: big() })).status).toBe(403)
   })
 
   it('refuses garage managers and technicians with 403 on every route', async () => {
@@ -521,6 +537,9 @@ describe('apply and roll back', () => {
     const stockBefore = await all('SELECT * FROM stock_levels ORDER BY part_id, branch_id')
     const statusBefore = await all('SELECT id, status FROM parts ORDER BY id')
     const listsBefore = await all('SELECT id, version, status FROM price_versions ORDER BY id')
+    const triggersBefore = await triggers()
+    const revisionsBefore = await all('SELECT catalogue, prices, stock FROM catalogue_revisions')
+    const searchLogBefore = await all('SELECT part_id, revision FROM part_search_changes ORDER BY part_id')
     const parts = await demoParts(10)
     const content = csv([[...HEAD, 'stock_RVS'], ...parts.map((p) => [p.sku, '', '', money(p.list * 2), '', '', '', '999']), ['PLT-KILL-1', 'Killed apply disc', 'disc', '20.00', '', '', '', '5']])
     const d = await uploadAndCheck(counter, content, 'killed.csv')
@@ -535,6 +554,10 @@ describe('apply and roll back', () => {
     expect(await all('SELECT * FROM stock_levels ORDER BY part_id, branch_id')).toEqual(stockBefore)
     expect(await all('SELECT id, status FROM parts ORDER BY id')).toEqual(statusBefore)
     expect(await all('SELECT id, version, status FROM price_versions ORDER BY id')).toEqual(listsBefore)
+    // the apply stopped while SQLite's per-row triggers were off: the rollback brought them back, with the counts
+    expect(await triggers()).toEqual(triggersBefore)
+    expect(await all('SELECT catalogue, prices, stock FROM catalogue_revisions')).toEqual(revisionsBefore)
+    expect(await all('SELECT part_id, revision FROM part_search_changes ORDER BY part_id')).toEqual(searchLogBefore)
     const detail = (await counter.get(`/api/price-files/${d.id}`)).body
     expect(detail).toMatchObject({ status: 'ready', canApply: true })
     expect(detail.errorMessage).toMatch(/undone/)
@@ -543,6 +566,73 @@ describe('apply and roll back', () => {
     expect(ok.status).toBe(200)
     expect((await rollback(counter, d.id)).status).toBe(200)
     expect(await pricesOf((await activeVersion()).id)).toEqual(before)
+  })
+
+  it('writes the revisions and the part-search log exactly as the per-row triggers would, and keeps the triggers', async () => {
+    const triggersBefore = await triggers()
+    const ngt = await one<{ id: number }>(`SELECT id FROM branches WHERE code = 'NGT'`)
+    const [p, q] = await all<{ id: number; sku: string; list: number; stock: number }>(
+      `SELECT p.id, p.sku, pr.list_price_minor AS list, s.quantity AS stock FROM parts p JOIN part_prices pr ON pr.part_id = p.id
+         JOIN stock_levels s ON s.part_id = p.id AND s.branch_id = ?
+        WHERE p.status = 'active' AND p.sku NOT LIKE 'PLT-%' ORDER BY p.id LIMIT 2 OFFSET 20`, [ngt.id])
+    const content = csv([[...HEAD, 'stock_NGT'],
+      [p!.sku, '', '', money(p!.list + 7), '', '', '', String(p!.stock + 5)], // price and count move
+      [q!.sku, '', '', money(q!.list + 9), '', '', '', String(q!.stock)], // price moves, count as it is
+      ...[1, 2, 3].map((i) => [`PLT-REV-${i}`, `Revision test pad set ${i}`, 'pad_set', '30.00', '', '', '', String(i)])])
+    const d = await uploadAndCheck(counter, content, 'revisions.csv')
+    expect(d.counts).toMatchObject({ new: 3, changed: 2, rejected: 0 })
+    const revBefore = await one<{ catalogue: number; prices: number; stock: number }>('SELECT catalogue, prices, stock FROM catalogue_revisions WHERE id = 1')
+    const applied = await counter.post(`/api/price-files/${d.id}/apply`, {})
+    expect(applied.status, applied.text).toBe(200)
+    try {
+      const revAfter = await one<{ catalogue: number; prices: number; stock: number }>('SELECT catalogue, prices, stock FROM catalogue_revisions WHERE id = 1')
+      const noted = await all<{ part_id: number; revision: number }>(
+        `SELECT c.part_id, c.revision FROM part_search_changes c JOIN parts p ON p.id = c.part_id WHERE p.sku LIKE 'PLT-REV-%' ORDER BY c.part_id`)
+      const r0 = revBefore.catalogue
+      if (!onPostgres()) {
+        // SQLite's triggers run once per row (migrations 0004, 0009, 0023). Worked by hand from their text: each new
+        // part bumps the catalogue once (3 parts: +3), and parts_search_insert, made after parts_rev_insert so run
+        // before it, notes each part at the count as it stood before that part's own bump: r0, r0 + 1, r0 + 2 in
+        // the order written. Each price row written bumps prices (3 new + 2 moved: +5); each stock row written bumps
+        // stock (3 new parts x 1 branch in the file + p's moved count: +4; q's count is not written)
+        expect(revAfter).toEqual({ catalogue: r0 + 3, prices: revBefore.prices + 5, stock: revBefore.stock + 4 })
+        expect(noted.map((n) => n.revision)).toEqual([r0, r0 + 1, r0 + 2])
+      } else {
+        // PostgreSQL's run once per statement (its triggers stay on): each count moved, every new part noted once
+        expect(revAfter.catalogue).toBeGreaterThan(r0)
+        expect(revAfter.prices).toBeGreaterThan(revBefore.prices)
+        expect(revAfter.stock).toBeGreaterThan(revBefore.stock)
+        expect(noted).toHaveLength(3)
+        for (const n of noted) expect(n.revision).toBeGreaterThanOrEqual(r0)
+      }
+      expect(await triggers()).toEqual(triggersBefore)
+    } finally {
+      expect((await rollback(counter, d.id)).status).toBe(200)
+    }
+    expect(await triggers()).toEqual(triggersBefore)
+  })
+
+  it('refuses an apply whose new SKU was added by hand after the check, and changes nothing', async () => {
+    const start = await activeVersion()
+    const d = await uploadAndCheck(counter, csv([HEAD, ['PLT-CLASH-1', 'Clash test pad set', 'pad_set', '20.00', '', '', ''],
+      ['PLT-CLASH-2', 'Clash test disc', 'disc', '50.00', '', '', '']]), 'clash.csv')
+    expect(d.counts).toMatchObject({ new: 2, rejected: 0 })
+    const made = await counter.post('/api/parts', {
+      sku: 'PLT-CLASH-2', type: 'disc', productLine: 'Test Line', description: 'Front brake disc added by hand',
+      specs: { axle: 'front', diameterMm: 300, thicknessMm: 25, minThicknessMm: 23, heightMm: 40.5, centreBoreMm: 57.1, boltHoles: 5, pcdMm: 112, vented: true },
+    })
+    expect(made.status, made.text).toBe(201)
+    const parts = await all('SELECT id, sku, status FROM parts ORDER BY id')
+    const revisions = await all('SELECT catalogue, prices, stock FROM catalogue_revisions')
+    const triggersBefore = await triggers()
+    const r = await counter.post(`/api/price-files/${d.id}/apply`, {})
+    expect(r.status).toBe(409)
+    expect(r.body.message).toMatch(/SKU PLT-CLASH-2 was added to the catalogue after this file was checked/)
+    expect(await activeVersion()).toEqual(start)
+    expect(await all('SELECT id, sku, status FROM parts ORDER BY id')).toEqual(parts) // PLT-CLASH-1 was not made either
+    expect(await all('SELECT catalogue, prices, stock FROM catalogue_revisions')).toEqual(revisions)
+    expect(await triggers()).toEqual(triggersBefore)
+    expect((await counter.get(`/api/price-files/${d.id}`)).body).toMatchObject({ status: 'ready' })
   })
 
   it('never mixes two files: a file checked against an older version must be checked again', async () => {

@@ -7,9 +7,10 @@
  * Errors: 401, 403, 413 (over 50 MB, on `file`), 415 (not multipart), 422 (no file, wrong kind of file, bad fields).
  */
 import { receivePriceFile } from '../../services/price-files/intake'
+import { beforeUpload } from '../../services/upload-intake'
 
 export default defineEventHandler(async (event) => {
-  const { user } = requireAbility(event, 'priceFiles.manage')
+  const { user } = await beforeUpload(event.node.req, () => requireAbility(event, 'priceFiles.manage'))
   const accepted = await receivePriceFile(event.node.req, user.id)
   setResponseStatus(event, 202)
   return accepted

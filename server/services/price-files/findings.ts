@@ -16,7 +16,7 @@
  */
 import { QueryTypes, type Transaction } from 'sequelize'
 import { getDb } from '../../utils/db'
-import { jsonAt, jsonElements, joinedInOrder } from '../../utils/sql'
+import { jsonAt, jsonElementsForReading, joinedInOrder } from '../../utils/sql'
 import type { ChangeKind } from '../../../shared/types/price-files'
 
 export type PriceCheckFinding = [
@@ -70,11 +70,12 @@ const TEXT_FIELDS = new Set<keyof typeof F>(['sku', 'type', 'description', 'stoc
 
 /**
  * A subquery of the findings of the given kinds of the price file bound as `$1`, one row per finding (column `v`,
- * the tuple as JSON): `FROM ${findingsOf(['new'])} f JOIN parts p ON p.sku = ${col('sku')}`.
+ * the tuple as JSON, binary on SQLite where it can be: read it only through `col`, `jsonAt` and `jsonPart`):
+ * `FROM ${findingsOf(['new'])} f JOIN parts p ON p.sku = ${col('sku')}`.
  */
 export function findingsOf(kinds: string[]): string {
   const list = kinds.map((k) => `'${k.replace(/[^a-z_]/g, '')}'`).join(', ')
-  return `(SELECT j.value AS v FROM price_file_findings c, ${jsonElements('c.rows', 'j')} WHERE c.price_file_id = $1 AND c.kind IN (${list}))`
+  return `(SELECT j.value AS v FROM price_file_findings c, ${jsonElementsForReading('c.rows', 'j')} WHERE c.price_file_id = $1 AND c.kind IN (${list}))`
 }
 
 const CHUNK = 5_000
