@@ -77,14 +77,60 @@ interface TypeIndex {
   common: Map<number, number[]>
 }
 
+/**
+ * Part id -> slot. Part ids are handed out in sequence, so a typed array indexed by id (4 bytes a part) holds them,
+ * against ~40 bytes an entry in a Map of a million; an id far beyond the count of parts goes to a Map.
+ */
+class PartSlots {
+  private byId = new Int32Array(0)
+  private far = new Map<number, number>()
+  size = 0
+
+  get(id: number): number | undefined {
+    const s = id >= 0 && id < this.byId.length ? this.byId[id]! : -1
+    return s >= 0 ? s : this.far.get(id)
+  }
+
+  has(id: number): boolean { return this.get(id) !== undefined }
+
+  set(id: number, slot: number): void {
+    if (this.byId.length <= id && !this.far.has(id) && Number.isInteger(id) && id >= 0 && id < 2 * this.size + 1_000_000) {
+      const b = new Int32Array(Math.max(id + 1, Math.ceil(this.byId.length * 1.5) + 1024)).fill(-1)
+      b.set(this.byId)
+      this.byId = b
+    }
+    if (id >= 0 && id < this.byId.length && !this.far.has(id)) {
+      if (this.byId[id]! < 0) this.size++
+      this.byId[id] = slot
+    } else {
+      if (!this.far.has(id)) this.size++
+      this.far.set(id, slot)
+    }
+  }
+
+  delete(id: number): void {
+    if (id >= 0 && id < this.byId.length && this.byId[id]! >= 0) { this.byId[id] = -1; this.size-- } else if (this.far.delete(id)) this.size--
+  }
+
+  /** The highest id held (0 when none). */
+  maxId(): number {
+    let hi = 0
+    for (let id = this.byId.length - 1; id > 0; id--) if (this.byId[id]! >= 0) { hi = id; break }
+    for (const id of this.far.keys()) if (id > hi) hi = id
+    return hi
+  }
+}
+
 export class PartSearchIndex {
   // columns per slot
-  private partId: number[] = []
+  // typed arrays with room to grow (`grow`); `slots` of them are used
+  private slots = 0
+  private partId: Int32Array = new Int32Array(0)
   private skuOf: string[] = []
-  private typeOf: number[] = []
-  private axleOf: number[] = []
-  private statusOf: number[] = [] // 0 active, 1 discontinued, 2 removed
-  private attrsOf: number[] = []
+  private typeOf: Uint8Array = new Uint8Array(0)
+  private axleOf: Uint8Array = new Uint8Array(0)
+  private statusOf: Uint8Array = new Uint8Array(0) // 0 active, 1 discontinued, 2 removed
+  private attrsOf: Int32Array = new Int32Array(0)
   private dimsOf: Record<Dimension, Float64Array> = Object.fromEntries(DIMS.map((d) => [d, new Float64Array(0)])) as Record<Dimension, Float64Array>
   private dims2Of: Float64Array = new Float64Array(0) // second piston diameter
   /** each listed slot's place in its type's list (active first, then by SKU): matches are ordered by it, not by SKU text */
@@ -96,7 +142,7 @@ export class PartSearchIndex {
   private termAt: Int32Array = new Int32Array(1)
   private termsOf: (Int32Array | null)[] = []
   private fitKeyOf: string[] = []
-  private slotOf = new Map<number, number>()
+  private slotOf = new PartSlots()
   private ids = new IdentifierTable()
   private oldNotes = new Map<string, { oldSku: string; note: string }>()
   // words
@@ -115,10 +161,10 @@ export class PartSearchIndex {
    * arrays, the identifiers, the words, and per part type its text index (minisearch's own JSON), list and counts.
    */
   toSections(): Sections {
-    const n = this.partId.length
+    const n = this.slots
     const out: Sections = new Map<string, Section>([
-      ['partId', Int32Array.from(this.partId)], ['sku', this.skuOf], ['type', Uint8Array.from(this.typeOf)],
-      ['axle', Uint8Array.from(this.axleOf)], ['status', Uint8Array.from(this.statusOf)], ['attrs', Int32Array.from(this.attrsOf)],
+      ['partId', this.partId.slice(0, n)], ['sku', this.skuOf], ['type', this.typeOf.slice(0, n)],
+      ['axle', this.axleOf.slice(0, n)], ['status', this.statusOf.slice(0, n)], ['attrs', this.attrsOf.slice(0, n)],
       ['dims2', this.dims2Of.slice(0, n)], ['fitKey', this.fitKeyOf], ['vocab', this.vocabList],
       ...DIMS.map((d): [string, Section] => [`dim.${d}`, this.dimsOf[d].slice(0, n)]),
     ])
@@ -160,12 +206,13 @@ export class PartSearchIndex {
       return v as T
     }
     const ix = new PartSearchIndex(fittingRules)
-    ix.partId = Array.from(await get<Int32Array>('partId'))
+    ix.partId = await get<Int32Array>('partId')
+    ix.slots = ix.partId.length
     ix.skuOf = await get<string[]>('sku')
-    ix.typeOf = Array.from(await get<Uint8Array>('type'))
-    ix.axleOf = Array.from(await get<Uint8Array>('axle'))
-    ix.statusOf = Array.from(await get<Uint8Array>('status'))
-    ix.attrsOf = Array.from(await get<Int32Array>('attrs'))
+    ix.typeOf = await get<Uint8Array>('type')
+    ix.axleOf = await get<Uint8Array>('axle')
+    ix.statusOf = await get<Uint8Array>('status')
+    ix.attrsOf = await get<Int32Array>('attrs')
     ix.dims2Of = await get<Float64Array>('dims2')
     ix.rankOf = new Int32Array(ix.dims2Of.length)
     for (const d of DIMS) ix.dimsOf[d] = await get<Float64Array>(`dim.${d}`)
@@ -180,7 +227,7 @@ export class PartSearchIndex {
     ix.termAt = new Int32Array(counts.length + 1)
     for (let i = 0; i < counts.length; i++) ix.termAt[i + 1] = ix.termAt[i]! + Math.max(0, counts[i]!)
     await pause()
-    for (let slot = 0; slot < ix.partId.length; slot++) if (ix.statusOf[slot] !== 2) ix.slotOf.set(ix.partId[slot]!, slot)
+    for (let slot = 0; slot < ix.slots; slot++) if (ix.statusOf[slot] !== 2) ix.slotOf.set(ix.partId[slot]!, slot)
     await pause()
     ix.ids = IdentifierTable.fromImage({ bytes: await get('id.bytes'), starts: await get('id.starts'), slots: await get('id.slots'), kinds: await get('id.kinds') })
     const nk = await get<string[]>('notes.keys'), no = await get<string[]>('notes.old'), nt = await get<string[]>('notes.text')
@@ -206,9 +253,7 @@ export class PartSearchIndex {
 
   /** The highest part id indexed (0 when empty). */
   maxPartId(): number {
-    let hi = 0
-    for (const id of this.slotOf.keys()) if (id > hi) hi = id
-    return hi
+    return this.slotOf.maxId()
   }
 
   /** SKU, type, axle and status of an indexed part. */
@@ -238,23 +283,27 @@ export class PartSearchIndex {
     const g = (a: Float64Array) => { const b = new Float64Array(next).fill(Number.NaN); b.set(a); return b }
     for (const d of DIMS) this.dimsOf[d] = g(this.dimsOf[d])
     this.dims2Of = g(this.dims2Of)
-    const r = new Int32Array(next)
-    r.set(this.rankOf)
-    this.rankOf = r
+    const gi = <T extends Int32Array | Uint8Array>(a: T, b: T): T => { b.set(a); return b }
+    this.rankOf = gi(this.rankOf, new Int32Array(next))
+    this.partId = gi(this.partId, new Int32Array(next))
+    this.attrsOf = gi(this.attrsOf, new Int32Array(next))
+    this.typeOf = gi(this.typeOf, new Uint8Array(next))
+    this.axleOf = gi(this.axleOf, new Uint8Array(next))
+    this.statusOf = gi(this.statusOf, new Uint8Array(next))
   }
 
   /** Fills columns for a new slot; returns the slot and its words. */
   private place(input: IndexInput): { slot: number; words: number[] } {
-    const slot = this.partId.length
+    const slot = this.slots++
     this.grow(slot + 1)
     const type = input.type
-    this.partId.push(input.id)
+    this.partId[slot] = input.id
     this.skuOf.push(input.sku)
-    this.typeOf.push(TYPE_CODE.get(type)!)
+    this.typeOf[slot] = TYPE_CODE.get(type)!
     const axle = axleOfSpecs(type, input.specs)
-    this.axleOf.push(axle ? AXLE_CODE[axle] : 0)
-    this.statusOf.push(input.status === 'active' ? 0 : 1)
-    this.attrsOf.push(attributesOf(input.specs))
+    this.axleOf[slot] = axle ? AXLE_CODE[axle] : 0
+    this.statusOf[slot] = input.status === 'active' ? 0 : 1
+    this.attrsOf[slot] = attributesOf(input.specs)
     const dims = dimensionsOf(type, input.specs)
     for (const d of DIMS) {
       const v = dims[d]
@@ -308,7 +357,7 @@ export class PartSearchIndex {
   finish(): void {
     for (const ti of this.types.values()) for (const [w, n] of ti.df) if (n > COMMON_DF && !ti.common.has(w)) ti.common.set(w, [])
     const docs = new Map<PartType, { id: number; text: string }[]>()
-    for (let slot = 0; slot < this.partId.length; slot++) {
+    for (let slot = 0; slot < this.slots; slot++) {
       const terms = this.wordsOf(slot)
       if (!terms) continue
       const type = PART_TYPES[this.typeOf[slot]!]!
