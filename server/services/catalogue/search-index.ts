@@ -64,6 +64,20 @@ const MS_OPTIONS = {
   searchOptions: { tokenize: (s: string) => [s], processTerm: (t: string) => t },
 }
 
+/**
+ * The part slots of a broad word, in slot order: as loaded, a view of the saved section (no heap; ~5M slots at 1M
+ * parts); an array once a part is added to it.
+ */
+type Posting = number[] | Int32Array
+
+/** Adds a slot to a word's posting list (a loaded view becomes an array first). */
+function postTo(common: Map<number, Posting>, word: number, slot: number): void {
+  let list = common.get(word)
+  if (!list) return
+  if (!Array.isArray(list)) common.set(word, (list = Array.from(list)))
+  list.push(slot)
+}
+
 interface TypeIndex {
   ms: MiniSearch<{ id: number; text: string }>
   /** part slots of this type, active first then by SKU (re-sorted lazily after changes) */
@@ -74,7 +88,7 @@ interface TypeIndex {
   live: number
   df: Map<number, number>
   /** word ids kept out of `ms` because they were on too many parts when first seen, with their part slots */
-  common: Map<number, number[]>
+  common: Map<number, Posting>
 }
 
 /**
@@ -185,7 +199,7 @@ export class PartSearchIndex {
         .set(`${type}.df`, Int32Array.from([...ti.df].flat()))
         .set(`${type}.commonWords`, Int32Array.from(common.map(([w]) => w)))
         .set(`${type}.commonCounts`, Int32Array.from(common.map(([, slots]) => slots.length)))
-        .set(`${type}.commonSlots`, Int32Array.from(common.flatMap(([, slots]) => slots)))
+        .set(`${type}.commonSlots`, Int32Array.from(common.flatMap(([, slots]) => Array.from(slots))))
     }
     return out
   }
@@ -242,7 +256,7 @@ export class PartSearchIndex {
       const df = await get<Int32Array>(`${type}.df`)
       for (let i = 0; i < df.length; i += 2) ti.df.set(df[i]!, df[i + 1]!)
       const cw = await get<Int32Array>(`${type}.commonWords`), cc = await get<Int32Array>(`${type}.commonCounts`), cs = await get<Int32Array>(`${type}.commonSlots`)
-      for (let i = 0, at = 0; i < cw.length; i++) { ti.common.set(cw[i]!, Array.from(cs.subarray(at, at + cc[i]!))); at += cc[i]! }
+      for (let i = 0, at = 0; i < cw.length; i++) { ti.common.set(cw[i]!, cs.subarray(at, at + cc[i]!)); at += cc[i]! }
     }
     return ix
   }
@@ -362,7 +376,7 @@ export class PartSearchIndex {
       if (!terms) continue
       const type = PART_TYPES[this.typeOf[slot]!]!
       const ti = this.types.get(type)!
-      for (const w of terms) ti.common.get(w)?.push(slot)
+      for (const w of terms) postTo(ti.common, w, slot)
       if (ti.ms.has(slot)) continue
       let arr = docs.get(type)
       if (!arr) docs.set(type, (arr = []))
@@ -418,7 +432,7 @@ export class PartSearchIndex {
     for (const input of inputs) {
       const { slot, words } = this.place(input)
       const ti = this.types.get(input.type)!
-      for (const w of words) ti.common.get(w)?.push(slot)
+      for (const w of words) postTo(ti.common, w, slot)
       ti.ms.add({ id: slot, text: this.msText(input.type, words) })
       for (const e of this.identifierEntries(input, slot)) entries.push(e)
     }
@@ -593,11 +607,11 @@ export class PartSearchIndex {
         continue
       }
       // every word is broad here: walk the shortest posting list (of the word that narrows most) and check the rest
-      let best: number[] | null = null
+      let best: Posting | null = null
       for (const w of present) {
-        const lists = w.ids.map((id) => ti.common.get(id)).filter((l): l is number[] => !!l)
+        const lists = w.ids.map((id) => ti.common.get(id)).filter((l): l is Posting => !!l)
         const size = lists.reduce((n, l) => n + l.length, 0)
-        if (lists.length === w.ids.length && (best === null || size < best.length)) best = lists.length === 1 ? lists[0]! : lists.flat()
+        if (lists.length === w.ids.length && (best === null || size < best.length)) best = lists.length === 1 ? lists[0]! : lists.flatMap((l) => Array.from(l))
       }
       const list = this.listOf(type) // sorted and ranked: matches are put in its order
       const matched: number[] = []
