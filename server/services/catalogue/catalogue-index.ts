@@ -56,10 +56,7 @@ function indexWorkerPath(): string | null {
 async function buildInWorker(): Promise<boolean> {
   const file = indexWorkerPath(), path = savedIndexPath()
   if (!file || !path) return false
-  // the build needs more heap than the loaded index (~1.5 GB at a million parts against ~0.5 GB): the worker has a
-  // limit of its own, so the server's (`--max-old-space-size`, BORELINE_HEAP_MB) may be set lower than the build needs
-  const heapMb = Number(process.env.BORELINE_INDEX_WORKER_HEAP_MB) || 1536
-  const worker = new Worker(file, { workerData: { databaseUrl: databaseUrl(), path } satisfies IndexJob, resourceLimits: { maxOldGenerationSizeMb: heapMb } })
+  const worker = new Worker(file, { workerData: { databaseUrl: databaseUrl(), path } satisfies IndexJob })
   const ended = once(worker, 'exit')
   // the worker answers once its database connection is closed, and then ends by itself: not terminated, which
   // could tear it down while the sqlite3 driver still has work in flight
