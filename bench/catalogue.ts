@@ -244,14 +244,16 @@ async function main() {
   const peakRss = rssMb(server.proc.pid!, 'VmHWM')
   await server.stop()
 
-  // in-process: the same plan + index the server runs, without HTTP, session and page hydration
+  // in-process: the same plan + index the server runs, without HTTP, session and page hydration: the index loaded
+  // from the file the server saved (what a server runs after its first start; only read here), else built here
   process.env.DATABASE_URL = `sqlite:${dbPath}`
-  process.env.BORELINE_SEARCH_INDEX_FILE = '0' // built here, so the server's saved file stays as it wrote it
+  process.env.BORELINE_SEARCH_INDEX_FILE = saved
   const { getDb, closeDb } = await import('../server/utils/db')
-  const { getPartIndex } = await import('../server/services/catalogue/catalogue-index')
+  const { readSavedIndex } = await import('../server/services/catalogue/saved-index')
+  const { buildFromDatabase } = await import('../server/services/catalogue/index-source')
   const { planQuery } = await import('../server/services/catalogue/search-plan')
   void getDb()
-  const index = await getPartIndex()
+  const index = (await readSavedIndex())?.index ?? await buildFromDatabase()
   const inproc: number[] = [], inprocFound: boolean[] = []
   for (let pass = 0; pass < 2; pass++) { // the first pass warms the JIT
     inproc.length = 0

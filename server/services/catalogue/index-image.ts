@@ -5,14 +5,15 @@
  * sections, each starting on a multiple of 8 bytes. Numbers are stored little-endian, as the machines it runs on
  * hold them (a file written elsewhere is refused). Pure apart from the two file functions at the end.
  */
-import { closeSync, fsyncSync, openSync, readFileSync, renameSync, writeSync } from 'node:fs'
+import { closeSync, fsyncSync, openSync, renameSync, writeSync } from 'node:fs'
+import { open } from 'node:fs/promises'
 import os from 'node:os'
 
 export type Section = Int32Array | Uint8Array | Float64Array | string[] | string
 /** The named sections of an index, in any order. */
 export type Sections = Map<string, Section>
-/** Sections as read back: each decoded when asked for, and not kept. */
-export interface SectionSource { names(): string[]; get(name: string): Section | undefined }
+/** Sections as read back: each decoded when asked for (from the file: read then), and not kept. */
+export interface SectionSource { names(): string[]; get(name: string): Section | undefined | Promise<Section | undefined> }
 
 const MAGIC = 'BLSI'
 const FORMAT = 1
@@ -79,16 +80,68 @@ export function decodeImage<M>(buf: Buffer): { meta: M; sections: SectionSource 
   const refs = new Map(h.header.sections.map((r) => [r.name, r]))
   const decode = (r: SectionRef): Section => {
     const at = h.start + r.offset
-    const copy = () => { const b = new ArrayBuffer(r.bytes); new Uint8Array(b).set(buf.subarray(at, at + r.bytes)); return b }
-    if (r.kind === 'str') return buf.toString('utf8', at, at + r.bytes)
-    if (r.kind === 'strs') return r.count === 0 ? [] : buf.toString('utf8', at, at + r.bytes).split(SEP)
-    if (r.kind === 'i32') return new Int32Array(copy())
-    if (r.kind === 'f64') return new Float64Array(copy())
-    return new Uint8Array(copy())
+    const b = new ArrayBuffer(r.bytes)
+    new Uint8Array(b).set(buf.subarray(at, at + r.bytes))
+    return sectionOf(r, b)
   }
   return {
     meta: h.header.meta,
     sections: { names: () => [...refs.keys()], get: (name) => { const r = refs.get(name); return r ? decode(r) : undefined } },
+  }
+}
+
+/** A section's value from its own bytes (typed arrays keep `bytes` as their buffer: no copy). */
+function sectionOf(r: SectionRef, bytes: ArrayBuffer): Section {
+  if (r.kind === 'str') return Buffer.from(bytes).toString('utf8')
+  if (r.kind === 'strs') return r.count === 0 ? [] : Buffer.from(bytes).toString('utf8').split(SEP)
+  if (r.kind === 'i32') return new Int32Array(bytes)
+  if (r.kind === 'f64') return new Float64Array(bytes)
+  return new Uint8Array(bytes)
+}
+
+/** A saved index file opened for reading section by section; `close` when done. */
+export interface OpenImage<M> { meta: M; sections: SectionSource; close(): Promise<void> }
+
+/**
+ * Opens a saved index file and reads its header only; each section is read from its place in the file when asked
+ * for (into a buffer of its own, which typed arrays keep), so the whole file is never in memory at once and the
+ * reads wait on the disk without holding the event loop. Null when there is no file or it is not of this format.
+ */
+export async function openImageFile<M>(path: string): Promise<OpenImage<M> | null> {
+  let file
+  try { file = await open(path, 'r') } catch (err) {
+    if ((err as NodeJS.ErrnoException).code === 'ENOENT') return null
+    throw err
+  }
+  try {
+    const read = async (position: number, length: number) => {
+      const b = new ArrayBuffer(length)
+      const view = new Uint8Array(b)
+      for (let done = 0; done < length;) {
+        const { bytesRead } = await file.read(view, done, length - done, position + done)
+        if (!bytesRead) throw new Error('part search index file: shorter than its header says')
+        done += bytesRead
+      }
+      return b
+    }
+    const size = (await file.stat()).size
+    const lead = Buffer.alloc(12)
+    await file.read(lead, 0, 12, 0)
+    const len = lead.toString('latin1', 0, 4) === MAGIC && lead.readUInt32LE(4) === FORMAT ? lead.readUInt32LE(8) : -1
+    const h = len >= 0 && 12 + len <= size ? headerOf<M>(Buffer.concat([lead, Buffer.from(await read(12, len))])) : null
+    if (!h || h.header.sections.some((r) => h.start + r.offset + r.bytes > size)) { await file.close(); return null }
+    const refs = new Map(h.header.sections.map((r) => [r.name, r]))
+    return {
+      meta: h.header.meta,
+      sections: {
+        names: () => [...refs.keys()],
+        get: async (name) => { const r = refs.get(name); return r ? sectionOf(r, await read(h.start + r.offset, r.bytes)) : undefined },
+      },
+      close: () => file.close(),
+    }
+  } catch (err) {
+    await file.close()
+    throw err
   }
 }
 
@@ -103,10 +156,3 @@ export function writeImageFile(path: string, buffers: Buffer[]): void {
   renameSync(tmp, path)
 }
 
-/** The file's bytes, or null when there is none. */
-export function readImageFile(path: string): Buffer | null {
-  try { return readFileSync(path) } catch (err) {
-    if ((err as NodeJS.ErrnoException).code === 'ENOENT') return null
-    throw err
-  }
-}

@@ -13,7 +13,7 @@ import os from 'node:os'
 import { join } from 'node:path'
 import { FITTING_RULES } from '../../../shared/utils/catalogue/fitting-rules'
 import { databaseUrl, dialectOfUrl, storageFromUrl } from '../../utils/db'
-import { decodeImage, encodeImage, readImageFile, writeImageFile } from './index-image'
+import { encodeImage, openImageFile, writeImageFile } from './index-image'
 import { COMMON_DF, PartSearchIndex, type IndexInput } from './search-index'
 
 export interface SavedMeta { fingerprint: string; revision: number; parts: number; maxPartId: number; savedAt: string }
@@ -64,12 +64,14 @@ export function indexFingerprint(): string {
 /** The saved index and what it was saved from, or null when there is none that this code can use. */
 export async function readSavedIndex(): Promise<{ index: PartSearchIndex; meta: SavedMeta } | null> {
   const path = savedIndexPath()
-  const buf = path ? readImageFile(path) : null
-  if (!buf) return null
-  const image = decodeImage<SavedMeta>(buf)
-  if (!image || image.meta.fingerprint !== indexFingerprint()) return null
-  const index = await PartSearchIndex.fromSections(image.sections, FITTING_RULES)
-  return index.size === image.meta.parts ? { index, meta: image.meta } : null
+  // read section by section (the header first: a file of other code is not read further)
+  const image = path ? await openImageFile<SavedMeta>(path) : null
+  if (!image) return null
+  try {
+    if (image.meta.fingerprint !== indexFingerprint()) return null
+    const index = await PartSearchIndex.fromSections(image.sections, FITTING_RULES)
+    return index.size === image.meta.parts ? { index, meta: image.meta } : null
+  } finally { await image.close() }
 }
 
 /** Saves the index as of `revision` (written whole or not at all). */

@@ -64,30 +64,99 @@ const MS_OPTIONS = {
   searchOptions: { tokenize: (s: string) => [s], processTerm: (t: string) => t },
 }
 
+/**
+ * The part slots of a broad word, in slot order: as loaded, a view of the saved section (no heap; ~5M slots at 1M
+ * parts); an array once a part is added to it.
+ */
+type Posting = number[] | Int32Array
+
+/** Adds a slot to a word's posting list (a loaded view becomes an array first). */
+function postTo(common: Map<number, Posting>, word: number, slot: number): void {
+  let list = common.get(word)
+  if (!list) return
+  if (!Array.isArray(list)) common.set(word, (list = Array.from(list)))
+  list.push(slot)
+}
+
 interface TypeIndex {
   ms: MiniSearch<{ id: number; text: string }>
   /** part slots of this type, active first then by SKU (re-sorted lazily after changes) */
   list: number[]
   sorted: boolean
+  /** whether `rankOf` holds each listed slot's place in `list` (dropped when the list is re-sorted) */
+  ranked: boolean
   live: number
   df: Map<number, number>
   /** word ids kept out of `ms` because they were on too many parts when first seen, with their part slots */
-  common: Map<number, number[]>
+  common: Map<number, Posting>
+}
+
+/**
+ * Part id -> slot. Part ids are handed out in sequence, so a typed array indexed by id (4 bytes a part) holds them,
+ * against ~40 bytes an entry in a Map of a million; an id far beyond the count of parts goes to a Map.
+ */
+class PartSlots {
+  private byId = new Int32Array(0)
+  private far = new Map<number, number>()
+  size = 0
+
+  get(id: number): number | undefined {
+    const s = id >= 0 && id < this.byId.length ? this.byId[id]! : -1
+    return s >= 0 ? s : this.far.get(id)
+  }
+
+  has(id: number): boolean { return this.get(id) !== undefined }
+
+  set(id: number, slot: number): void {
+    if (this.byId.length <= id && !this.far.has(id) && Number.isInteger(id) && id >= 0 && id < 2 * this.size + 1_000_000) {
+      const b = new Int32Array(Math.max(id + 1, Math.ceil(this.byId.length * 1.5) + 1024)).fill(-1)
+      b.set(this.byId)
+      this.byId = b
+    }
+    if (id >= 0 && id < this.byId.length && !this.far.has(id)) {
+      if (this.byId[id]! < 0) this.size++
+      this.byId[id] = slot
+    } else {
+      if (!this.far.has(id)) this.size++
+      this.far.set(id, slot)
+    }
+  }
+
+  delete(id: number): void {
+    if (id >= 0 && id < this.byId.length && this.byId[id]! >= 0) { this.byId[id] = -1; this.size-- } else if (this.far.delete(id)) this.size--
+  }
+
+  /** The highest id held (0 when none). */
+  maxId(): number {
+    let hi = 0
+    for (let id = this.byId.length - 1; id > 0; id--) if (this.byId[id]! >= 0) { hi = id; break }
+    for (const id of this.far.keys()) if (id > hi) hi = id
+    return hi
+  }
 }
 
 export class PartSearchIndex {
   // columns per slot
-  private partId: number[] = []
+  // typed arrays with room to grow (`grow`); `slots` of them are used
+  private slots = 0
+  private partId: Int32Array = new Int32Array(0)
   private skuOf: string[] = []
-  private typeOf: number[] = []
-  private axleOf: number[] = []
-  private statusOf: number[] = [] // 0 active, 1 discontinued, 2 removed
-  private attrsOf: number[] = []
+  private typeOf: Uint8Array = new Uint8Array(0)
+  private axleOf: Uint8Array = new Uint8Array(0)
+  private statusOf: Uint8Array = new Uint8Array(0) // 0 active, 1 discontinued, 2 removed
+  private attrsOf: Int32Array = new Int32Array(0)
   private dimsOf: Record<Dimension, Float64Array> = Object.fromEntries(DIMS.map((d) => [d, new Float64Array(0)])) as Record<Dimension, Float64Array>
   private dims2Of: Float64Array = new Float64Array(0) // second piston diameter
+  /** each listed slot's place in its type's list (active first, then by SKU): matches are ordered by it, not by SKU text */
+  private rankOf: Int32Array = new Int32Array(0)
+  // the word ids of each slot: those loaded from a saved file in one buffer (`termBuf` from `termAt[slot]` to
+  // `termAt[slot + 1]`; a million views of it would cost ~80 MB), later slots one array each in `termsOf` (at
+  // slot - the loaded count); a removed slot (status 2) has none
+  private termBuf: Int32Array = new Int32Array(0)
+  private termAt: Int32Array = new Int32Array(1)
   private termsOf: (Int32Array | null)[] = []
   private fitKeyOf: string[] = []
-  private slotOf = new Map<number, number>()
+  private slotOf = new PartSlots()
   private ids = new IdentifierTable()
   private oldNotes = new Map<string, { oldSku: string; note: string }>()
   // words
@@ -98,7 +167,7 @@ export class PartSearchIndex {
 
   constructor(fittingRules?: Record<PartType, FittingRule[]>) {
     this.fittingRules = fittingRules ?? null
-    for (const t of PART_TYPES) this.types.set(t, { ms: new MiniSearch(MS_OPTIONS), list: [], sorted: true, live: 0, df: new Map(), common: new Map() })
+    for (const t of PART_TYPES) this.types.set(t, { ms: new MiniSearch(MS_OPTIONS), list: [], sorted: true, ranked: false, live: 0, df: new Map(), common: new Map() })
   }
 
   /**
@@ -106,18 +175,18 @@ export class PartSearchIndex {
    * arrays, the identifiers, the words, and per part type its text index (minisearch's own JSON), list and counts.
    */
   toSections(): Sections {
-    const n = this.partId.length
+    const n = this.slots
     const out: Sections = new Map<string, Section>([
-      ['partId', Int32Array.from(this.partId)], ['sku', this.skuOf], ['type', Uint8Array.from(this.typeOf)],
-      ['axle', Uint8Array.from(this.axleOf)], ['status', Uint8Array.from(this.statusOf)], ['attrs', Int32Array.from(this.attrsOf)],
+      ['partId', this.partId.slice(0, n)], ['sku', this.skuOf], ['type', this.typeOf.slice(0, n)],
+      ['axle', this.axleOf.slice(0, n)], ['status', this.statusOf.slice(0, n)], ['attrs', this.attrsOf.slice(0, n)],
       ['dims2', this.dims2Of.slice(0, n)], ['fitKey', this.fitKeyOf], ['vocab', this.vocabList],
       ...DIMS.map((d): [string, Section] => [`dim.${d}`, this.dimsOf[d].slice(0, n)]),
     ])
     const counts = new Int32Array(n)
     let total = 0
-    for (let i = 0; i < n; i++) { const t = this.termsOf[i]; counts[i] = t ? t.length : -1; total += t ? t.length : 0 }
+    for (let i = 0; i < n; i++) { const t = this.wordsOf(i); counts[i] = t ? t.length : -1; total += t ? t.length : 0 }
     const terms = new Int32Array(total)
-    for (let i = 0, at = 0; i < n; i++) { const t = this.termsOf[i]; if (t) { terms.set(t, at); at += t.length } }
+    for (let i = 0, at = 0; i < n; i++) { const t = this.wordsOf(i); if (t) { terms.set(t, at); at += t.length } }
     out.set('termCounts', counts).set('terms', terms)
     const ids = this.ids.image()
     out.set('id.bytes', ids.bytes).set('id.starts', ids.starts).set('id.slots', ids.slots).set('id.kinds', ids.kinds)
@@ -130,7 +199,7 @@ export class PartSearchIndex {
         .set(`${type}.df`, Int32Array.from([...ti.df].flat()))
         .set(`${type}.commonWords`, Int32Array.from(common.map(([w]) => w)))
         .set(`${type}.commonCounts`, Int32Array.from(common.map(([, slots]) => slots.length)))
-        .set(`${type}.commonSlots`, Int32Array.from(common.flatMap(([, slots]) => slots)))
+        .set(`${type}.commonSlots`, Int32Array.from(common.flatMap(([, slots]) => Array.from(slots))))
     }
     return out
   }
@@ -140,48 +209,54 @@ export class PartSearchIndex {
    * part type's text index, so a server loading a large one at start still answers other requests meanwhile.
    */
   static async fromSections(sec: SectionSource, fittingRules?: Record<PartType, FittingRule[]>): Promise<PartSearchIndex> {
+    // each section is read (from the file: waiting on the disk, not the event loop) and turned into the index's
+    // own shape before the next is read, with a pause after each step, so a server loading a million parts at
+    // start keeps answering meanwhile and never holds more than one section's raw bytes beside the index
     const pause = () => new Promise<void>((res) => setImmediate(res))
-    const get = <T extends Section>(name: string): T => {
-      const v = sec.get(name)
+    const get = async <T extends Section>(name: string): Promise<T> => {
+      const v = await sec.get(name)
       if (v === undefined) throw new Error(`part search index file: no section ${name}`)
+      await pause()
       return v as T
     }
     const ix = new PartSearchIndex(fittingRules)
-    ix.partId = Array.from(get<Int32Array>('partId'))
-    ix.skuOf = get<string[]>('sku')
-    ix.typeOf = Array.from(get<Uint8Array>('type'))
-    ix.axleOf = Array.from(get<Uint8Array>('axle'))
-    ix.statusOf = Array.from(get<Uint8Array>('status'))
-    ix.attrsOf = Array.from(get<Int32Array>('attrs'))
-    ix.dims2Of = get<Float64Array>('dims2')
-    for (const d of DIMS) ix.dimsOf[d] = get<Float64Array>(`dim.${d}`)
+    ix.partId = await get<Int32Array>('partId')
+    ix.slots = ix.partId.length
+    ix.skuOf = await get<string[]>('sku')
+    ix.typeOf = await get<Uint8Array>('type')
+    ix.axleOf = await get<Uint8Array>('axle')
+    ix.statusOf = await get<Uint8Array>('status')
+    ix.attrsOf = await get<Int32Array>('attrs')
+    ix.dims2Of = await get<Float64Array>('dims2')
+    ix.rankOf = new Int32Array(ix.dims2Of.length)
+    for (const d of DIMS) ix.dimsOf[d] = await get<Float64Array>(`dim.${d}`)
     // fitting keys repeat across parts: one string each
     const keys = new Map<string, string>()
-    ix.fitKeyOf = get<string[]>('fitKey').map((k) => { const s = keys.get(k); if (s !== undefined) return s; keys.set(k, k); return k })
-    ix.vocabList = get<string[]>('vocab')
+    ix.fitKeyOf = (await get<string[]>('fitKey')).map((k) => { const s = keys.get(k); if (s !== undefined) return s; keys.set(k, k); return k })
+    await pause()
+    ix.vocabList = await get<string[]>('vocab')
     ix.vocab = new Map(ix.vocabList.map((w, i) => [w, i]))
-    const counts = get<Int32Array>('termCounts'), terms = get<Int32Array>('terms')
-    ix.termsOf = new Array(counts.length)
-    for (let i = 0, at = 0; i < counts.length; i++) {
-      const c = counts[i]!
-      ix.termsOf[i] = c < 0 ? null : terms.subarray(at, at + c) // views of one buffer: no copy per part
-      if (c > 0) at += c
-    }
-    for (let slot = 0; slot < ix.partId.length; slot++) if (ix.statusOf[slot] !== 2) ix.slotOf.set(ix.partId[slot]!, slot)
-    ix.ids = IdentifierTable.fromImage({ bytes: get('id.bytes'), starts: get('id.starts'), slots: get('id.slots'), kinds: get('id.kinds') })
-    const nk = get<string[]>('notes.keys'), no = get<string[]>('notes.old'), nt = get<string[]>('notes.text')
+    const counts = await get<Int32Array>('termCounts'), terms = await get<Int32Array>('terms')
+    ix.termBuf = terms
+    ix.termAt = new Int32Array(counts.length + 1)
+    for (let i = 0; i < counts.length; i++) ix.termAt[i + 1] = ix.termAt[i]! + Math.max(0, counts[i]!)
+    await pause()
+    for (let slot = 0; slot < ix.slots; slot++) if (ix.statusOf[slot] !== 2) ix.slotOf.set(ix.partId[slot]!, slot)
+    await pause()
+    ix.ids = IdentifierTable.fromImage({ bytes: await get('id.bytes'), starts: await get('id.starts'), slots: await get('id.slots'), kinds: await get('id.kinds') })
+    const nk = await get<string[]>('notes.keys'), no = await get<string[]>('notes.old'), nt = await get<string[]>('notes.text')
     nk.forEach((k, i) => ix.oldNotes.set(k, { oldSku: no[i]!, note: nt[i]! }))
     for (const [type, ti] of ix.types) {
+      ti.ms = MiniSearch.loadJSON(await get<string>(`${type}.ms`), MS_OPTIONS)
       await pause()
-      ti.ms = MiniSearch.loadJSON(get<string>(`${type}.ms`), MS_OPTIONS)
-      ti.list = Array.from(get<Int32Array>(`${type}.list`))
-      const state = get<Int32Array>(`${type}.state`)
+      ti.list = Array.from(await get<Int32Array>(`${type}.list`))
+      const state = await get<Int32Array>(`${type}.state`)
       ti.sorted = state[0] === 1
       ti.live = state[1]!
-      const df = get<Int32Array>(`${type}.df`)
+      const df = await get<Int32Array>(`${type}.df`)
       for (let i = 0; i < df.length; i += 2) ti.df.set(df[i]!, df[i + 1]!)
-      const cw = get<Int32Array>(`${type}.commonWords`), cc = get<Int32Array>(`${type}.commonCounts`), cs = get<Int32Array>(`${type}.commonSlots`)
-      for (let i = 0, at = 0; i < cw.length; i++) { ti.common.set(cw[i]!, Array.from(cs.subarray(at, at + cc[i]!))); at += cc[i]! }
+      const cw = await get<Int32Array>(`${type}.commonWords`), cc = await get<Int32Array>(`${type}.commonCounts`), cs = await get<Int32Array>(`${type}.commonSlots`)
+      for (let i = 0, at = 0; i < cw.length; i++) { ti.common.set(cw[i]!, cs.subarray(at, at + cc[i]!)); at += cc[i]! }
     }
     return ix
   }
@@ -192,9 +267,7 @@ export class PartSearchIndex {
 
   /** The highest part id indexed (0 when empty). */
   maxPartId(): number {
-    let hi = 0
-    for (const id of this.slotOf.keys()) if (id > hi) hi = id
-    return hi
+    return this.slotOf.maxId()
   }
 
   /** SKU, type, axle and status of an indexed part. */
@@ -202,6 +275,13 @@ export class PartSearchIndex {
     const s = this.slotOf.get(partId)
     if (s === undefined) return null
     return { sku: this.skuOf[s]!, type: PART_TYPES[this.typeOf[s]!]!, axle: this.axleOf[s] === 1 ? 'front' : this.axleOf[s] === 2 ? 'rear' : null, status: this.statusOf[s] === 0 ? 'active' : 'discontinued' }
+  }
+
+  /** The word ids of a slot's description and product line (null once removed). */
+  private wordsOf(slot: number): Int32Array | null {
+    if (this.statusOf[slot] === 2) return null
+    const loaded = this.termAt.length - 1
+    return slot < loaded ? this.termBuf.subarray(this.termAt[slot]!, this.termAt[slot + 1]!) : this.termsOf[slot - loaded]!
   }
 
   private wordId(term: string): number {
@@ -217,20 +297,27 @@ export class PartSearchIndex {
     const g = (a: Float64Array) => { const b = new Float64Array(next).fill(Number.NaN); b.set(a); return b }
     for (const d of DIMS) this.dimsOf[d] = g(this.dimsOf[d])
     this.dims2Of = g(this.dims2Of)
+    const gi = <T extends Int32Array | Uint8Array>(a: T, b: T): T => { b.set(a); return b }
+    this.rankOf = gi(this.rankOf, new Int32Array(next))
+    this.partId = gi(this.partId, new Int32Array(next))
+    this.attrsOf = gi(this.attrsOf, new Int32Array(next))
+    this.typeOf = gi(this.typeOf, new Uint8Array(next))
+    this.axleOf = gi(this.axleOf, new Uint8Array(next))
+    this.statusOf = gi(this.statusOf, new Uint8Array(next))
   }
 
   /** Fills columns for a new slot; returns the slot and its words. */
   private place(input: IndexInput): { slot: number; words: number[] } {
-    const slot = this.partId.length
+    const slot = this.slots++
     this.grow(slot + 1)
     const type = input.type
-    this.partId.push(input.id)
+    this.partId[slot] = input.id
     this.skuOf.push(input.sku)
-    this.typeOf.push(TYPE_CODE.get(type)!)
+    this.typeOf[slot] = TYPE_CODE.get(type)!
     const axle = axleOfSpecs(type, input.specs)
-    this.axleOf.push(axle ? AXLE_CODE[axle] : 0)
-    this.statusOf.push(input.status === 'active' ? 0 : 1)
-    this.attrsOf.push(attributesOf(input.specs))
+    this.axleOf[slot] = axle ? AXLE_CODE[axle] : 0
+    this.statusOf[slot] = input.status === 'active' ? 0 : 1
+    this.attrsOf[slot] = attributesOf(input.specs)
     const dims = dimensionsOf(type, input.specs)
     for (const d of DIMS) {
       const v = dims[d]
@@ -284,12 +371,12 @@ export class PartSearchIndex {
   finish(): void {
     for (const ti of this.types.values()) for (const [w, n] of ti.df) if (n > COMMON_DF && !ti.common.has(w)) ti.common.set(w, [])
     const docs = new Map<PartType, { id: number; text: string }[]>()
-    for (let slot = 0; slot < this.partId.length; slot++) {
-      const terms = this.termsOf[slot]
-      if (!terms || this.statusOf[slot] === 2) continue
+    for (let slot = 0; slot < this.slots; slot++) {
+      const terms = this.wordsOf(slot)
+      if (!terms) continue
       const type = PART_TYPES[this.typeOf[slot]!]!
       const ti = this.types.get(type)!
-      for (const w of terms) ti.common.get(w)?.push(slot)
+      for (const w of terms) postTo(ti.common, w, slot)
       if (ti.ms.has(slot)) continue
       let arr = docs.get(type)
       if (!arr) docs.set(type, (arr = []))
@@ -329,13 +416,13 @@ export class PartSearchIndex {
       const ti = this.types.get(type)!
       ti.ms.discard(slot)
       ti.live--
-      for (const w of this.termsOf[slot] ?? []) {
+      for (const w of this.wordsOf(slot) ?? []) {
         const n = (ti.df.get(w) ?? 1) - 1
         if (n <= 0) ti.df.delete(w)
         else ti.df.set(w, n)
       }
       this.statusOf[slot] = 2
-      this.termsOf[slot] = null
+      if (slot >= this.termAt.length - 1) this.termsOf[slot - (this.termAt.length - 1)] = null
       this.slotOf.delete(partId)
       gone.add(slot)
       touched.add(type)
@@ -345,7 +432,7 @@ export class PartSearchIndex {
     for (const input of inputs) {
       const { slot, words } = this.place(input)
       const ti = this.types.get(input.type)!
-      for (const w of words) ti.common.get(w)?.push(slot)
+      for (const w of words) postTo(ti.common, w, slot)
       ti.ms.add({ id: slot, text: this.msText(input.type, words) })
       for (const e of this.identifierEntries(input, slot)) entries.push(e)
     }
@@ -357,6 +444,12 @@ export class PartSearchIndex {
     if (!ti.sorted) {
       ti.list.sort((a, b) => this.statusOf[a]! - this.statusOf[b]! || (this.skuOf[a]! < this.skuOf[b]! ? -1 : this.skuOf[a]! > this.skuOf[b]! ? 1 : 0))
       ti.sorted = true
+      ti.ranked = false
+    }
+    if (!ti.ranked) {
+      const list = ti.list, rank = this.rankOf
+      for (let i = 0; i < list.length; i++) rank[list[i]!] = i
+      ti.ranked = true
     }
     return ti.list
   }
@@ -404,34 +497,45 @@ export class PartSearchIndex {
     const axleCode = axle ? AXLE_CODE[axle] : 0
     let attrMask = 0
     for (const a of plan.attributes) attrMask |= ATTR_BITS[a]
-    const typeCodes = new Set([...types].map((t) => TYPE_CODE.get(t)!))
-
-    const dimMatch = (slot: number, d: Dimension, test: (v: number) => boolean) => {
-      const v = this.dimsOf[d][slot]!
-      if (!Number.isNaN(v) && test(v)) return true
-      if (d === 'piston') { const w = this.dims2Of[slot]!; return !Number.isNaN(w) && test(w) }
-      return false
-    }
-    const numbers = plan.numbers.map((n) => ({ dims: n.dims ?? DIMS, lo: n.value - n.tolerance - 1e-9, hi: n.value + n.tolerance + 1e-9 }))
-    const rangeTests = ranges.map(([d, r]) => ({ d, lo: (r.min ?? -Infinity) - 1e-9, hi: (r.max ?? Infinity) + 1e-9 }))
+    // the filters as flat data, checked per candidate without building anything (a type + size query checks
+    // every part of its type: 200k discs at a million parts)
+    const typeOk = new Uint8Array(PART_TYPES.length)
+    for (const t of types) typeOk[TYPE_CODE.get(t)!] = 1
+    // each test passes when any of its columns holds a value within [lo, hi] (a second piston diameter counts;
+    // no value is NaN, which fails both comparisons)
+    const columnsOf = (dims: readonly Dimension[]) => dims.flatMap((d) => (d === 'piston' ? [this.dimsOf[d], this.dims2Of] : [this.dimsOf[d]]))
+    const tests = [
+      ...ranges.map(([d, r]) => ({ cols: columnsOf([d]), lo: (r.min ?? -Infinity) - 1e-9, hi: (r.max ?? Infinity) + 1e-9 })),
+      ...plan.numbers.map((n) => ({ cols: columnsOf(n.dims ?? DIMS), lo: n.value - n.tolerance - 1e-9, hi: n.value + n.tolerance + 1e-9 })),
+    ]
+    const statusOf = this.statusOf, typeOf = this.typeOf, axleOf = this.axleOf, attrsOf = this.attrsOf
     const accept = (slot: number): boolean => {
-      if (this.statusOf[slot] === 2 || !typeCodes.has(this.typeOf[slot]!)) return false
-      if (axleCode && this.axleOf[slot] !== axleCode) return false
-      if (attrMask && (this.attrsOf[slot]! & attrMask) !== attrMask) return false
-      for (const r of rangeTests) if (!dimMatch(slot, r.d, (v) => v >= r.lo && v <= r.hi)) return false
-      for (const n of numbers) if (!n.dims.some((d) => dimMatch(slot, d, (v) => v >= n.lo && v <= n.hi))) return false
+      if (statusOf[slot] === 2 || typeOk[typeOf[slot]!] === 0) return false
+      if (axleCode && axleOf[slot] !== axleCode) return false
+      if (attrMask && (attrsOf[slot]! & attrMask) !== attrMask) return false
+      for (let k = 0; k < tests.length; k++) {
+        const { cols, lo, hi } = tests[k]!
+        let ok = false
+        for (let c = 0; c < cols.length && !ok; c++) { const v = cols[c]![slot]!; ok = v >= lo && v <= hi }
+        if (!ok) return false
+      }
       return true
     }
 
     const words = plan.terms.filter((t) => t.kind === 'word').map((t) => ({ t, ids: this.resolveWord(t) }))
-    const wordSets = words.map((w) => new Set(w.ids))
+    // per query word, a flag per word id (the vocabulary is small: a few hundred to a few thousand words)
+    const wordMasks = words.map((w) => { const m = new Uint8Array(this.vocabList.length); for (const id of w.ids) m[id] = 1; return m })
+    const termsOf = this.termsOf, termBuf = this.termBuf, termAt = this.termAt, loaded = termAt.length - 1
     const hasWords = (slot: number, mode: 'AND' | 'OR') => {
-      if (!wordSets.length) return true
-      const terms = this.termsOf[slot]
-      if (!terms) return false
-      for (const set of wordSets) {
+      if (!wordMasks.length) return true
+      if (statusOf[slot] === 2) return false
+      // the slot's words as [from, to) of one array, without a view per call
+      const terms = slot < loaded ? termBuf : termsOf[slot - loaded]!
+      const from = slot < loaded ? termAt[slot]! : 0, to = slot < loaded ? termAt[slot + 1]! : terms.length
+      for (let k = 0; k < wordMasks.length; k++) {
+        const mask = wordMasks[k]!
         let found = false
-        for (let i = 0; i < terms.length; i++) if (set.has(terms[i]!)) { found = true; break }
+        for (let i = from; i < to; i++) if (mask[terms[i]!] === 1) { found = true; break }
         if (mode === 'AND' && !found) return false
         if (mode === 'OR' && found) return true
       }
@@ -503,20 +607,22 @@ export class PartSearchIndex {
         continue
       }
       // every word is broad here: walk the shortest posting list (of the word that narrows most) and check the rest
-      let best: number[] | null = null
+      let best: Posting | null = null
       for (const w of present) {
-        const lists = w.ids.map((id) => ti.common.get(id)).filter((l): l is number[] => !!l)
+        const lists = w.ids.map((id) => ti.common.get(id)).filter((l): l is Posting => !!l)
         const size = lists.reduce((n, l) => n + l.length, 0)
-        if (lists.length === w.ids.length && (best === null || size < best.length)) best = lists.length === 1 ? lists[0]! : lists.flat()
+        if (lists.length === w.ids.length && (best === null || size < best.length)) best = lists.length === 1 ? lists[0]! : lists.flatMap((l) => Array.from(l))
       }
+      const list = this.listOf(type) // sorted and ranked: matches are put in its order
       const matched: number[] = []
-      const seen = new Set<number>()
-      for (const slot of best ?? this.listOf(type)) {
-        if (seen.has(slot)) continue
-        seen.add(slot)
+      // a single posting list holds each slot once; several (a word standing for several) may repeat one
+      const seen = best && best !== list && words.some((w) => w.ids.length > 1) ? new Set<number>() : null
+      for (const slot of best ?? list) {
+        if (seen) { if (seen.has(slot)) continue; seen.add(slot) }
         if (accept(slot) && hasWords(slot, 'AND')) matched.push(slot)
       }
-      matched.sort((a, b) => this.statusOf[a]! - this.statusOf[b]! || (this.skuOf[a]! < this.skuOf[b]! ? -1 : this.skuOf[a]! > this.skuOf[b]! ? 1 : 0))
+      const rank = this.rankOf
+      matched.sort((a, b) => rank[a]! - rank[b]!)
       for (const slot of matched) out.push({ id: this.partId[slot]!, score: 0, by: 'text' })
     }
     if (scored) out.sort((a, b) => b.score - a.score)
