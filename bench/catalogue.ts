@@ -307,6 +307,7 @@ ${row(`constant JSON, ${size} B, signed in (session checks)`, constantSession)}
 cached / constant (no session): ${(cached.rps / constant.rps).toFixed(2)}; cached / constant (signed in): ${(cached.rps / constantSession.rps).toFixed(2)}; cached / caches off: ${(cached.rps / uncached.rps).toFixed(2)}
 target >= 2000 req/s: ${(cached.rps / 2000).toFixed(2)} x; target p99 < 40 ms: ${(cached.p99 / 40).toFixed(2)} of it (the signed-in ceiling's p99: ${(constantSession.p99 / 40).toFixed(2)} of it)
 cached run, second by second: ${drift(cached.seconds)}
+each second of the cached run (answers / p99 ms / RSS MB): ${cached.seconds.map((x) => `${x.n}/${x.p99.toFixed(0)}/${x.rssMb.toFixed(0)}`).join(' ')}
 
 | search, 1,000 queries | p50 | p95 | expected part in first 20 |
 |---|---|---|---|

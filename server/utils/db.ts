@@ -192,22 +192,46 @@ export async function closeDb(): Promise<void> {
 
 const writeMutex = new Mutex()
 const currentTx = new AsyncLocalStorage<Transaction>()
+let transactionsRunning = 0
+
+/**
+ * Runs `fn` with `t` as the current transaction (nested `withWrite` calls join it). The storage is turned off again
+ * once no transaction runs: while it is on, Node follows every promise the process makes (async hooks), which
+ * under the vehicle-parts load cost ~5 % of the server's CPU for requests that never write (bench/catalogue.ts).
+ */
+async function inTransaction<T>(t: Transaction, fn: (t: Transaction) => Promise<T>): Promise<T> {
+  transactionsRunning++
+  try {
+    return await currentTx.run(t, () => fn(t))
+  } finally {
+    if (--transactionsRunning === 0) currentTx.disable()
+  }
+}
+
+export interface WriteOptions {
+  /**
+   * The write changes nothing that an in-memory cache holds (a session's last-seen time): the after-write listeners
+   * are not run, so the session rows and pricing context every request reads stay remembered, and on PostgreSQL
+   * the other processes are not told. Otherwise each such write made every request in flight wait for fresh reads.
+   */
+  cachesUnaffected?: boolean
+}
 
 /**
  * Runs `fn` in one IMMEDIATE write transaction, serialised with every other write in this process.
  * Nested calls join the outer transaction (so helpers can call each other without deadlocking).
  * Anything thrown rolls the whole transaction back.
  */
-export async function withWrite<T>(fn: (t: Transaction) => Promise<T>): Promise<T> {
+export async function withWrite<T>(fn: (t: Transaction) => Promise<T>, options: WriteOptions = {}): Promise<T> {
   const outer = currentTx.getStore()
   if (outer) return fn(outer)
-  if (isPostgres()) return withPgWrite(fn)
+  if (isPostgres()) return withPgWrite(fn, options)
   return writeMutex.runExclusive(async () => {
     try {
-      return await getDb().transaction({ type: Transaction.TYPES.IMMEDIATE }, (t) => currentTx.run(t, () => fn(t)))
+      return await getDb().transaction({ type: Transaction.TYPES.IMMEDIATE }, (t) => inTransaction(t, fn))
     } finally {
       scheduleCheckpoint()
-      for (const listener of afterWriteListeners) listener()
+      if (!options.cachesUnaffected) for (const listener of afterWriteListeners) listener()
     }
   })
 }
@@ -223,14 +247,14 @@ function sqlState(err: unknown): string | undefined {
   return e?.parent?.code ?? e?.original?.code ?? (typeof e?.code === 'string' ? e.code : undefined)
 }
 
-async function withPgWrite<T>(fn: (t: Transaction) => Promise<T>): Promise<T> {
+async function withPgWrite<T>(fn: (t: Transaction) => Promise<T>, options: WriteOptions): Promise<T> {
   for (let attempt = 1; ; attempt++) {
     pgWritesRunning++
     try {
-      return await getDb().transaction((t) => currentTx.run(t, async () => {
+      return await getDb().transaction((t) => inTransaction(t, async () => {
         const out = await fn(t)
         // delivered to the other processes only if this commits (see listenForWrites)
-        await getDb().query('SELECT pg_notify(:channel, :me)', { replacements: { channel: WRITES_CHANNEL, me: INSTANCE }, transaction: t })
+        if (!options.cachesUnaffected) await getDb().query('SELECT pg_notify(:channel, :me)', { replacements: { channel: WRITES_CHANNEL, me: INSTANCE }, transaction: t })
         return out
       }))
     } catch (err) {
@@ -243,7 +267,7 @@ async function withPgWrite<T>(fn: (t: Transaction) => Promise<T>): Promise<T> {
       await new Promise((r) => setTimeout(r, Math.random() * 20 * attempt))
     } finally {
       pgWritesRunning--
-      for (const listener of afterWriteListeners) listener()
+      if (!options.cachesUnaffected) for (const listener of afterWriteListeners) listener()
     }
   }
 }

@@ -101,6 +101,12 @@ export function cachedSessionRows(sid: string, now = Date.now()): SessionRows | 
   return hit.rows
 }
 
+/** Whether remembered rows are past half their time, so a read in the background should bring them up to date. */
+export function sessionRowsRefreshDue(sid: string, now = Date.now()): boolean {
+  const hit = rows.get(sid)
+  return hit !== undefined && now - hit.at >= ROWS_TTL_MS / 2
+}
+
 export function rememberSessionRows(sid: string, value: SessionRows, readAtGeneration: number, now = Date.now()): void {
   if (!sessionCacheOn() || readAtGeneration !== generation) return
   rows.set(sid, { at: now, rows: value })

@@ -9,7 +9,7 @@ import { getRequestIP, getRequestHeader } from 'h3'
 import type { Model } from 'sequelize'
 import { Organisation, SessionRecord, User } from '../models/accounts'
 import { withWrite } from './db'
-import { cachedSessionRows, rememberSessionRows, rowsGeneration, type SessionRows } from './session-cache'
+import { cachedSessionRows, rememberSessionRows, rowsGeneration, sessionRowsRefreshDue, type SessionRows } from './session-cache'
 import type { SessionUser } from '../../shared/types/accounts'
 
 export interface SessionLimits { idleMinutes: number; absoluteHours: number }
@@ -50,7 +50,7 @@ export async function checkSessionRecord(sid: string, userId: number, limits: Se
   if (record.userId !== userId) return { ok: false, reason: 'unknown session' }
   if (record.revokedAt) return { ok: false, reason: 'signed out' }
   if (record.expiresAt.getTime() <= now.getTime()) return { ok: false, reason: 'session lifetime over' }
-  if (record.lastSeenAt.getTime() + limits.idleMinutes * 60_000 <= now.getTime()) return { ok: false, reason: 'idle too long' }
+  if (lastSeenOf(record) + limits.idleMinutes * 60_000 <= now.getTime()) return { ok: false, reason: 'idle too long' }
   if (user.status !== 'active') return { ok: false, reason: 'user not active' }
   if (record.sessionVersion !== user.sessionVersion) return { ok: false, reason: 'session ended' }
   return { ok: true, record, user, org }
@@ -62,12 +62,25 @@ export async function checkSessionRecord(sid: string, userId: number, limits: Se
  * instead of quietly altering what later requests see): to change a user or an organisation, load its row.
  */
 async function sessionRows(sid: string, fresh: boolean): Promise<SessionRows | null> {
-  const cached = fresh ? undefined : cachedSessionRows(sid)
-  if (cached) return cached
   if (fresh) return readSessionRows(sid)
-  // when the remembered rows lapse, every request of the session in flight misses at once: they share one read
-  // (50 parallel reads queued on the one connection stalled the session for ~100-400 ms, bench/catalogue.ts),
-  // but only requests that saw no write since it started, so a change still counts from the next request
+  const cached = cachedSessionRows(sid)
+  if (cached) {
+    // read again in the background once past half their time, so under steady use they never lapse and no request
+    // waits for them (when they lapsed, every request of the session in flight waited for the one read: a stall
+    // every ROWS_TTL_MS under load, bench/catalogue.ts); rows older than ROWS_TTL_MS are still never answered
+    if (sessionRowsRefreshDue(sid)) void sharedRead(sid).catch(() => {})
+    return cached
+  }
+  return sharedRead(sid)
+}
+
+/**
+ * One read of a session's rows at a time: when the remembered rows lapse, every request of the session in flight
+ * misses at once (50 parallel reads queued on the one connection stalled the session for ~100-400 ms,
+ * bench/catalogue.ts). Shared only among requests that saw no write since it started, so a change still counts from
+ * the next request.
+ */
+function sharedRead(sid: string): Promise<SessionRows | null> {
   const generation = rowsGeneration()
   const shared = reading.get(sid)
   if (shared && shared.generation === generation) return shared.rows
@@ -91,10 +104,32 @@ async function readSessionRows(sid: string): Promise<SessionRows | null> {
   return rows
 }
 
-/** Keeps the idle clock running; written at most once a minute per session to spare the single writer. */
+/**
+ * When this process last moved each session's last-seen time. The remembered rows keep the time they were read
+ * with (a touch does not drop them, see below), so the idle check and the next touch look here too.
+ */
+const touchedAt = new Map<string, number>()
+const MAX_TOUCHED = 20_000
+const lastSeenOf = (record: SessionRecord) => Math.max(record.lastSeenAt.getTime(), touchedAt.get(record.id) ?? 0)
+
+/**
+ * Keeps the idle clock running; written at most once a minute per session to spare the single writer. The first
+ * request past the minute claims the write, so the session's other requests in flight do not queue one each
+ * (under 50 connections that was ~50 write transactions at once). The write changes only the last-seen time, which
+ * no cache relies on beyond {@link lastSeenOf}: it skips the model hooks and after-write listeners, so every
+ * request in flight does not then wait for fresh session rows and pricing context.
+ */
 export async function touchSessionRecord(record: SessionRecord, now = new Date()): Promise<void> {
-  if (now.getTime() - record.lastSeenAt.getTime() < 60_000) return
-  await withWrite((t) => SessionRecord.update({ lastSeenAt: now }, { where: { id: record.id }, transaction: t }))
+  if (now.getTime() - lastSeenOf(record) < 60_000) return
+  touchedAt.delete(record.id)
+  touchedAt.set(record.id, now.getTime())
+  while (touchedAt.size > MAX_TOUCHED) touchedAt.delete(touchedAt.keys().next().value as string)
+  try {
+    await withWrite((t) => SessionRecord.update({ lastSeenAt: now }, { where: { id: record.id }, transaction: t, hooks: false }), { cachesUnaffected: true })
+  } catch (err) {
+    if (touchedAt.get(record.id) === now.getTime()) touchedAt.delete(record.id) // the next request tries again
+    throw err
+  }
 }
 
 export async function revokeSessionRecord(sid: string): Promise<void> {

@@ -70,6 +70,24 @@ describe('headers', () => {
     expect(refused.headers.get('content-security-policy')).toMatch(/(default|script)-src 'none'/)
   })
 
+  it('stay the same on API answers after the first, and an unknown API path a browser asks for is a page of its own', async () => {
+    // the API answers' route rules are worked out once and shared (server/plugins/02.api-route-rules.ts): the
+    // tenth answer carries what the first did, and a page rendered for an API path gets its own nonce
+    const first = await new Client().get('/api/health')
+    const headersOf = (h: Headers) => [...h.entries()].filter(([k]) => k !== 'date').sort()
+    for (let i = 0; i < 9; i++) await new Client().get('/api/health')
+    const tenth = await new Client().get('/api/health')
+    expect(headersOf(tenth.headers)).toEqual(headersOf(first.headers))
+    const asPage = { headers: { accept: 'text/html', 'user-agent': 'Mozilla/5.0' } }
+    const a = await new Client().request('/api/no-such-route', asPage)
+    const b = await new Client().request('/api/no-such-route', asPage)
+    expect(a.status).toBe(404)
+    expectPageCsp(a.headers, a.text, 'page for an API path')
+    expect(a.headers.get('content-security-policy')).not.toBe(b.headers.get('content-security-policy'))
+    const after = await new Client().get('/api/health')
+    expect(headersOf(after.headers)).toEqual(headersOf(first.headers))
+  })
+
   it('are on the owner\'s quote page, which renders under its policy', async () => {
     const manager = await as(people.manager)
     const s = await startQuote(manager)

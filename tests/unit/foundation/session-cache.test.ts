@@ -15,7 +15,7 @@ process.env.DATABASE_URL = `sqlite:${join(dir, 'unit.sqlite')}`
 const { getDb, closeDb, withWrite } = await import('../../../server/utils/db')
 const { migrateUp } = await import('../../../server/utils/migrate')
 const { initModels, Organisation, User, SessionRecord } = await import('../../../server/models/index')
-const { checkSessionRecord, revokeSessionRecord } = await import('../../../server/utils/sessions')
+const { checkSessionRecord, revokeSessionRecord, touchSessionRecord } = await import('../../../server/utils/sessions')
 const cache = await import('../../../server/utils/session-cache')
 
 const limits = { idleMinutes: 60, absoluteHours: 12 }
@@ -76,6 +76,43 @@ describe('session check memory', () => {
     expect(await checkSessionRecord('s-suspend', userId, limits)).toEqual({ ok: false, reason: 'user not active' })
     await withWrite((t) => getDb().query(`UPDATE users SET status = 'active' WHERE id = ${userId}`, { transaction: t }))
     await Organisation.update({ status: 'approved' }, { where: { id: orgId } })
+  })
+
+  it('reads the rows again in the background once past half their time, answering the remembered ones meanwhile', async () => {
+    await newSession('s-ahead')
+    expect((await checkSessionRecord('s-ahead', userId, limits)).ok).toBe(true)
+    // remembered 1.1 s ago: past half of ROWS_TTL_MS (2 s), not past it
+    cache.rememberSessionRows('s-ahead', cache.cachedSessionRows('s-ahead')!, cache.rowsGeneration(), Date.now() - 1100)
+    await behindTheBack(`UPDATE organisations SET name = 'Renamed Garage' WHERE id = ${orgId}`)
+    const first = await checkSessionRecord('s-ahead', userId, limits)
+    expect(first.ok && first.org.name).toBe('Test Garage') // answered at once from memory...
+    let seen = ''
+    for (let i = 0; i < 40 && seen !== 'Renamed Garage'; i++) { // ...while one read brings it up to date
+      await new Promise((r) => setTimeout(r, 10))
+      const again = await checkSessionRecord('s-ahead', userId, limits)
+      seen = again.ok ? again.org.name : ''
+    }
+    expect(seen).toBe('Renamed Garage')
+    await behindTheBack(`UPDATE organisations SET name = 'Test Garage' WHERE id = ${orgId}`)
+  })
+
+  it('moves the last-seen time with one write per minute, and keeps the remembered rows', async () => {
+    const t0 = Date.now()
+    await withWrite((t) => SessionRecord.create({ id: 's-touch', userId, sessionVersion: 1, ip: '', userAgent: '', lastSeenAt: new Date(t0 - 61_000), expiresAt: new Date(t0 + 3600_000) }, { transaction: t }))
+    const check = await checkSessionRecord('s-touch', userId, limits)
+    if (!check.ok) throw new Error('expected ok')
+    const generation = cache.sessionCacheStats().generation
+    // five requests of the session in flight at once, each a millisecond later: the first one writes, the rest skip
+    await Promise.all([0, 1, 2, 3, 4].map((i) => touchSessionRecord(check.record, new Date(t0 + i))))
+    const stored = await SessionRecord.findByPk('s-touch')
+    expect(stored!.lastSeenAt.getTime()).toBe(t0)
+    expect(cache.sessionCacheStats().generation).toBe(generation) // nothing dropped...
+    expect(cache.cachedSessionRows('s-touch')).toBeDefined()
+    // ...and the idle clock counts from the touch, not from the time in the remembered row: with a one-minute idle
+    // limit, 30 s after the touch (91 s after the row's own time) the session is alive
+    const oneMinute = { idleMinutes: 1, absoluteHours: 12 }
+    expect((await checkSessionRecord('s-touch', userId, oneMinute, new Date(t0 + 30_000))).ok).toBe(true)
+    expect(await checkSessionRecord('s-touch', userId, oneMinute, new Date(t0 + 61_000))).toEqual({ ok: false, reason: 'idle too long' })
   })
 
   it('refuses to remember rows read across a change', () => {
