@@ -172,7 +172,9 @@ async function keep(timeZone: string, periods: readonly Period[], figures: reado
         ON CONFLICT (time_zone, day) DO UPDATE SET stamp = ${excluded}.stamp, context = ${excluded}.context, figures = ${excluded}.figures`,
       { replacements, transaction: t })
     }
-  })
+  // no cache holds these rows (the parsed ones are checked against the stamps): the catalogue's and the sessions'
+  // kept reads stay, so a background run never makes the requests in flight wait for fresh ones
+  }, { cachesUnaffected: true })
 }
 
 /**
