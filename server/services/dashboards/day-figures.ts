@@ -18,40 +18,11 @@ import { createHash } from 'node:crypto'
 import { getDb, withWrite } from '../../utils/db'
 import { typed } from '../../utils/sql'
 import { addDays, localDate, localInstant } from '../orders/zoned-time'
-import { daysOf, num, rows, type Span } from './range'
+import { dateText, daysOf, instantOf, num, parts, rows, spanOf, type Span } from './range'
+import { merged, rangeOf, totalOf, type DayFigures, type RangeFigures, type SkuSums } from './day-sums'
 import { SOLD_STATUSES } from './sold-figures'
 
-/** One garage and branch's sums: [organisation, branch, orders, net, requested lines counted, of them filled]. */
-type GarageBranchSums = [number, number, number, number, number, number]
-/** One SKU's sums: [sku, part, units, net] (the part is the first sold under the SKU that day, for its description). */
-type SkuSums = [string, number, number, number]
-
-export interface DayFigures {
-  g: GarageBranchSums[]
-  p: SkuSums[]
-  /** [net of lines with a known cost, their cost, lines without a cost] */
-  m: [number, number, number]
-  /** returns by reason: [reason, returns, units] */
-  r: [string, number, number][]
-  /** a month's: each of its days' [net, orders], in order */
-  d?: [number, number][]
-}
-
-export interface RangeFigures {
-  byGarageBranch: Map<number, { organisationId: number; branchId: number; orders: number; net: number; counted: number; filled: number }>
-  /** per day of the span (index into `daysOf`) */
-  byDay: { net: number; orders: number }[]
-  bySku: Map<string, { sku: string; partId: number; units: number; net: number }>
-  margin: { netMinor: number; costMinor: number; linesWithoutCost: number }
-  returns: Map<string, { count: number; units: number }>
-  /** how many days were summed again from the order lines (the rest were kept) */
-  summed: number
-}
-
-const parts = (d: string) => {
-  const [year, month, day] = d.split('-').map(Number) as [number, number, number]
-  return { year, month, day }
-}
+export type { DayFigures, RangeFigures } from './day-sums'
 
 /** The UTC hour of an instant as the triggers write it: `YYYY-MM-DD HH`. */
 export const hourOf = (t: number): string => new Date(t).toISOString().slice(0, 13).replace('T', ' ')
@@ -293,73 +264,17 @@ function remember(timeZone: string, period: Period, context: string, figures: Da
  */
 export async function keepRecentDays(now: Date, timeZone: string, days = 400): Promise<number> {
   const to = localDate(now, timeZone)
-  const from = addDays(parts(to), 1 - days)
-  const fromText = `${from.year}-${String(from.month).padStart(2, '0')}-${String(from.day).padStart(2, '0')}`
-  const span: Span = {
-    from: fromText, to, days, timeZone,
-    start: localInstant(from, 0, timeZone), end: localInstant(addDays(parts(to), 1), 0, timeZone),
-  }
+  const span = spanOf({ from: dateText(addDays(parts(to), 1 - days)), to }, { now, timeZone })
   return (await rangeFigures(span, await priceActivations())).summed
 }
 
 /** Price versions by activation (oldest first): the one active when an order was placed prices its cost. */
 export async function priceActivations(): Promise<{ id: number; at: Date }[]> {
   return (await rows<{ id: number; activated_at: string | Date }>('SELECT id, activated_at FROM price_versions WHERE activated_at IS NOT NULL ORDER BY activated_at, id', {}))
-    .map((v) => ({ id: num(v.id), at: new Date(typeof v.activated_at === 'string' ? v.activated_at.replace(' ', 'T').replace(' +', '+') : v.activated_at) }))
+    .map((v) => ({ id: num(v.id), at: new Date(instantOf(v.activated_at)) }))
 }
 
 /** Forgets the days parsed in this process (the benchmark's runs that read the kept rows). */
 export function forgetParsedDays(): void {
   parsed.clear()
-}
-
-/** A day's net sales and orders (every order falls in one garage and branch). */
-function totalOf(f: DayFigures): { net: number; orders: number } {
-  let net = 0, orders = 0
-  for (const g of f.g) { orders += g[2]; net += g[3] }
-  return { net, orders }
-}
-
-/** Periods' figures added together, in order; the days' totals carried along (`d`) for a month made of days. */
-function merged(list: readonly DayFigures[]): DayFigures {
-  const g = new Map<number, GarageBranchSums>()
-  const p = new Map<string, SkuSums>()
-  const r = new Map<string, [string, number, number]>()
-  const out: DayFigures = { g: [], p: [], m: [0, 0, 0], r: [], d: [] }
-  for (const f of list) {
-    for (const x of f.g) {
-      const key = x[0] * 1_000_000 + x[1]
-      const had = g.get(key)
-      if (!had) g.set(key, [...x])
-      else { had[2] += x[2]; had[3] += x[3]; had[4] += x[4]; had[5] += x[5] }
-    }
-    for (const x of f.p) {
-      const had = p.get(x[0])
-      if (!had) p.set(x[0], [...x])
-      else { had[2] += x[2]; had[3] += x[3] }
-    }
-    for (let k = 0; k < 3; k++) out.m[k]! += f.m[k]!
-    for (const x of f.r) {
-      const had = r.get(x[0])
-      if (!had) r.set(x[0], [...x])
-      else { had[1] += x[1]; had[2] += x[2] }
-    }
-    if (f.d) out.d!.push(...f.d)
-    else { const t = totalOf(f); out.d!.push([t.net, t.orders]) }
-  }
-  out.g = [...g.values()]
-  out.p = [...p.values()]
-  out.r = [...r.values()]
-  return out
-}
-
-/** Added figures in the shape the dashboard reads. */
-function rangeOf(f: DayFigures): Omit<RangeFigures, 'byDay' | 'summed'> {
-  return {
-    byGarageBranch: new Map(f.g.map(([organisationId, branchId, orders, net, counted, filled]) =>
-      [organisationId * 1_000_000 + branchId, { organisationId, branchId, orders, net, counted, filled }])),
-    bySku: new Map(f.p.map(([sku, partId, units, net]) => [sku, { sku, partId, units, net }])),
-    margin: { netMinor: f.m[0], costMinor: f.m[1], linesWithoutCost: f.m[2] },
-    returns: new Map(f.r.map(([reason, count, units]) => [reason, { count, units }])),
-  }
 }

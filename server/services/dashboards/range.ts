@@ -11,15 +11,17 @@ import { addDays, localDate, localInstant } from '../orders/zoned-time'
 
 export interface Span extends DashboardRange { start: Date; end: Date }
 
-const parts = (d: string) => {
+/** A `YYYY-MM-DD` date as its parts. */
+export const parts = (d: string) => {
   const [year, month, day] = d.split('-').map(Number) as [number, number, number]
   return { year, month, day }
 }
-const text = (p: { year: number; month: number; day: number }) => `${p.year}-${String(p.month).padStart(2, '0')}-${String(p.day).padStart(2, '0')}`
+/** A date's parts as `YYYY-MM-DD`. */
+export const dateText = (p: { year: number; month: number; day: number }) => `${p.year}-${String(p.month).padStart(2, '0')}-${String(p.day).padStart(2, '0')}`
 
 export function spanOf(q: DashboardQuery, clock: ViewClock): Span {
-  const to = q.to ?? (q.from ? text(addDays(parts(q.from), 29)) : localDate(clock.now, clock.timeZone))
-  const from = q.from ?? text(addDays(parts(to), -29))
+  const to = q.to ?? (q.from ? dateText(addDays(parts(q.from), 29)) : localDate(clock.now, clock.timeZone))
+  const from = q.from ?? dateText(addDays(parts(to), -29))
   const days = Math.round((Date.parse(`${to}T00:00:00Z`) - Date.parse(`${from}T00:00:00Z`)) / 86_400_000) + 1
   return {
     from, to, days, timeZone: clock.timeZone,
@@ -29,7 +31,7 @@ export function spanOf(q: DashboardQuery, clock: ViewClock): Span {
 
 /** Every local day of the span, in order. */
 export function daysOf(span: Span): string[] {
-  return Array.from({ length: span.days }, (_, i) => text(addDays(parts(span.from), i)))
+  return Array.from({ length: span.days }, (_, i) => dateText(addDays(parts(span.from), i)))
 }
 
 /**
@@ -39,7 +41,7 @@ export function daysOf(span: Span): string[] {
 export function dayIndexer(span: Span): (at: Date | string) => number {
   const starts = Array.from({ length: span.days + 1 }, (_, i) => localInstant(addDays(parts(span.from), i), 0, span.timeZone).getTime())
   return (at) => {
-    const t = typeof at === 'string' ? Date.parse(at.replace(' ', 'T').replace(' +', '+')) : at.getTime()
+    const t = instantOf(at)
     if (!(t >= starts[0]! && t < starts[span.days]!)) return -1
     let lo = 0, hi = span.days - 1
     while (lo < hi) {
@@ -60,3 +62,6 @@ export const num = (v: unknown): number => Number(v ?? 0) || 0
 
 /** a / b in basis points, rounded half up; null when b is 0. */
 export const rateBp = (a: number, b: number): number | null => (b > 0 ? Math.round((a * 10_000) / b) : null)
+
+/** An instant as the database driver hands it back: a Date, or SQLite's text `YYYY-MM-DD HH:MM:SS.sss +00:00`. */
+export const instantOf = (at: Date | string): number => (typeof at === 'string' ? Date.parse(at.replace(' ', 'T').replace(' +', '+')) : at.getTime())

@@ -13,7 +13,7 @@ export async function dayFiguresScenario(cleanUp: () => Promise<void>): Promise<
   const { getDb, closeDb, withWrite } = await import('../../../server/utils/db')
   const { migrateUp } = await import('../../../server/utils/migrate')
   const { initModels } = await import('../../../server/models/index')
-  const { rangeFigures, forgetParsedDays, hourOf } = await import('../../../server/services/dashboards/day-figures')
+  const { rangeFigures, forgetParsedDays, hourOf, keepRecentDays, priceActivations } = await import('../../../server/services/dashboards/day-figures')
   const { spanOf } = await import('../../../server/services/dashboards/range')
 
   const clock = { now: new Date('2031-06-20T12:00:00Z'), timeZone: 'Europe/London' }
@@ -129,11 +129,26 @@ export async function dayFiguresScenario(cleanUp: () => Promise<void>): Promise<
       expect([...after.bySku.values()].map((x) => [x.sku, x.units, x.net]).sort()).toEqual([['DF-A', 1, 3_000], ['DF-B', 4, 6_000]])
     })
 
+    it('keep the recent days in the background, summing only what was written since', async () => {
+      // the versions as the job reads them from the database: the one activated 1 January 2031 00:00 UTC, read back
+      // to the same instant (a shifted time would change the context and sum every day again)
+      expect((await priceActivations()).map((v) => [v.id, v.at.toISOString()])).toEqual([[versions[0]!.id, '2031-01-01T00:00:00.000Z']])
+      // 10 days to 20 June: 11 to 20 June, every one kept above (June was made from its days) at this context
+      expect(await keepRecentDays(clock.now, clock.timeZone, 10)).toBe(0)
+      // an order on 19 June 09:00 BST (08:00 UTC): that day only
+      await order('2031-06-19T08:00:00Z', [[ids.partA, 1, 3_000, 'waiting']])
+      expect(await keepRecentDays(clock.now, clock.timeZone, 10)).toBe(1)
+      expect(await keepRecentDays(clock.now, clock.timeZone, 10)).toBe(0)
+      forgetParsedDays() // the dashboard in a new process then finds 19 June kept: 30.00, one order
+      const f = await rangeFigures(spanOf({ from: '2031-06-11', to: '2031-06-20' }, clock), versions)
+      expect([f.summed, f.byDay[8]]).toEqual([0, { net: 3_000, orders: 1 }])
+    })
+
     it('names the UTC hour as the triggers do', async () => {
       expect(hourOf(Date.parse('2031-06-14T23:30:00Z'))).toBe('2031-06-14 23')
       const marks = await getDb().query('SELECT hour FROM trade_day_marks ORDER BY hour', { raw: true, plain: false }) as unknown as [{ hour: string }[]]
-      // every hour written above: 13 June 09, 14 June 23 (the order before it moved), 16 June 07
-      expect(marks[0].map((m) => m.hour)).toEqual(['2031-06-13 09', '2031-06-14 23', '2031-06-16 07'])
+      // every hour written above: 13 June 09, 14 June 23 (the order before it moved), 16 June 07, 19 June 08
+      expect(marks[0].map((m) => m.hour)).toEqual(['2031-06-13 09', '2031-06-14 23', '2031-06-16 07', '2031-06-19 08'])
     })
   })
 }
