@@ -233,6 +233,9 @@ async function main() {
 
   // ---- search
   const mix = await queryMix(db)
+  // slipped SKUs that are themselves another part's number: reported apart beside the share of all of them
+  const typos = mix.filter((m) => m.kind === 'SKU typo').map((m) => m.q)
+  const realTypos = new Set((await all<{ sku: string }>(db, `SELECT sku FROM parts WHERE sku IN (${typos.map(() => '?').join(', ')})`, typos)).map((r) => r.sku))
   const http: number[] = [], httpFound: boolean[] = []
   for (const m of mix) {
     const t = performance.now()
@@ -318,6 +321,7 @@ each second of the cached run (answers / p99 ms / RSS MB): ${cached.seconds.map(
 minisearch p95 / target 25 ms: ${(pct(inproc, 95) / 25).toFixed(2)}; end to end p95 / 50 ms: ${(pct(http, 95) / 50).toFixed(2)}; minisearch / FTS5 p95: ${(pct(inproc, 95) / pct(fts, 95)).toFixed(2)}
 by kind (in process): ${byKind(inproc)}
 SKU with one slip in the first 20 (target >= 95 %): ${share(inprocFound.filter((_, i) => mix.filter((m) => m.expect)[i]!.kind === 'SKU typo'))}
+  of them, slips that make another part's number (${realTypos.size} of ${typos.length}): ${share(inprocFound.filter((_, i) => { const m = mix.filter((x) => x.expect)[i]!; return m.kind === 'SKU typo' && realTypos.has(m.q) }))}; slips that make no part's number: ${share(inprocFound.filter((_, i) => { const m = mix.filter((x) => x.expect)[i]!; return m.kind === 'SKU typo' && !realTypos.has(m.q) }))}
 found by kind: minisearch ${foundByKind(inprocFound)}; FTS5 ${foundByKind(ftsFound)}${ftsBuildMs ? `\nFTS5 table built in ${(ftsBuildMs / 1000).toFixed(1)} s` : ''}
 
 | start-up with ${counts!.parts} parts | figure | target | ratio |
