@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { create, all as mathAll } from 'mathjs'
+import { z } from 'zod'
 import { emptyMapping, columnIndex } from '../../../server/services/price-files/mapping'
 import { classify, priceChange, rowValidator, type CurrentPart } from '../../../server/services/price-files/rows'
 import type { ColumnMapping } from '#shared/types/price-files'
@@ -75,6 +76,22 @@ describe('row validation', () => {
   it('accepts the part types of the catalogue in people\'s spelling', () => {
     expect(point.validate(row({ ...base, type: 'Pad set' }))).toMatchObject({ ok: true, values: { type: 'pad_set' } })
     expect(issues(point.validate(row({ ...base, type: 'spoiler' })))[0]!.reason).toMatch(/not one of pad_set/)
+  })
+
+  it('decides each cell as the zod schema it is declared with does (zod as the reference), at the limits too', () => {
+    // descriptions: zod's max(300) counts an emoji (a UTF-16 surrogate pair) as one character once the text is
+    // longer than 300 UTF-16 units; the formula rule (OWASP) as above
+    const descriptions = ['x'.repeat(300), 'x'.repeat(301), '😀'.repeat(150), '😀'.repeat(151), '😀'.repeat(301), `${'😀'.repeat(149)}xx`, '-brake', '-12 mm', '=1+1']
+    const description = z.string().max(300).regex(/^(?![=+@\t\r]|-[^\d\s])/)
+    for (const d of descriptions) expect(point.validate(row({ ...base, description: d })).ok, d).toBe(description.safeParse(d).success)
+    // money: at most 12 digits and two decimals, zero refused for the list price; minor units worked by hand
+    const money = z.string().regex(/^(?!0+(?:[.,]0*)?$)\d{1,12}(?:\.\d{1,2})?$/)
+    const prices: [string, number | null][] = [['999999999999.99', 99_999_999_999_999], ['1000000000000', null], ['0.5', 50], ['0.05', 5], ['7', 700], ['00.10', 10], ['0.00', null], ['1.', null], ['.5', null]]
+    for (const [p, minor] of prices) {
+      const v = point.validate(row({ ...base, list_price: p }))
+      expect(v.ok, p).toBe(money.safeParse(p).success)
+      expect(v.ok ? v.values.listMinor : null, p).toBe(minor)
+    }
   })
 })
 
