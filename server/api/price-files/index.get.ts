@@ -5,8 +5,10 @@
  */
 import { PageQuerySchema } from '#shared/schemas/page'
 import { priceFilesPage } from '../../services/price-files/present'
+import { warmSnapshotIfCold } from '../../services/price-files/snapshot'
 
 export default defineEventHandler(async (event) => {
   requireAbility(event, 'priceFiles.manage')
+  warmSnapshotIfCold() // a file is likely to follow: its check then finds the compared catalogue built
   return priceFilesPage(queryWith(event, PageQuerySchema))
 })

@@ -17,7 +17,7 @@ import { buildVersion, countsFor, reserveVersion, versionNumberOf } from './vers
 import { afterApply } from './admin-notices'
 import { armTimer } from './schedule'
 import { rememberMapping } from './supplier-mappings'
-import { warmSnapshot } from './snapshot'
+import { refreshSnapshot } from './snapshot'
 
 export interface ApplyRequest {
   priceFileId: number
@@ -154,7 +154,7 @@ async function applyNow(req: ApplyRequest): Promise<ApplyOutcome> {
     })
     // the stored file goes and the admins' summary is sent after the answer: neither can undo the apply
     afterApply(req.priceFileId).catch((e) => console.error('[boreline] after-apply work failed:', e))
-    void warmSnapshot()
+    refreshSnapshot()
     return outcome
   } catch (err) {
     const message = isDomainError(err)

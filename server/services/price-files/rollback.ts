@@ -14,7 +14,7 @@ import { findingsOf } from './findings'
 import { recorded, sqlDate, versionNumberOf } from './versions'
 import { noticeRollback } from './admin-notices'
 import { cancelSchedule } from './schedule'
-import { warmSnapshot } from './snapshot'
+import { refreshSnapshot } from './snapshot'
 
 export interface RollbackOutcome { status: 'rolled_back'; version: number; activeVersion: number }
 
@@ -62,7 +62,7 @@ export async function rollbackPriceFile(priceFileId: number, userId: number, opt
     })
     return { priceFile, version: made.version, activeVersion: prev.version }
   })
-  void warmSnapshot()
+  refreshSnapshot()
   await noticeRollback({ ...result, userId })
   return { status: 'rolled_back', version: result.version, activeVersion: result.activeVersion }
 }

@@ -11,7 +11,7 @@ import { activePriceVersionId } from '../price-versions'
 import { conflict, notFound } from '../errors'
 import { buildVersion, countsFor, dropReservedVersion, versionNumberOf } from './versions'
 import { afterApply } from './admin-notices'
-import { warmSnapshot } from './snapshot'
+import { refreshSnapshot } from './snapshot'
 
 /** Cancels a scheduled apply: the reserved version disappears and the file can be applied again. */
 export async function cancelSchedule(priceFileId: number, userId: number): Promise<void> {
@@ -46,7 +46,7 @@ export async function activateDue(now = new Date()): Promise<number> {
     }
     if (applied) {
       done++
-      void warmSnapshot()
+      refreshSnapshot()
       await afterApply(priceFile.id).catch((e) => console.error('[boreline] after-apply work failed:', e))
     }
   }
