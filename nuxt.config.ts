@@ -12,6 +12,9 @@ export default defineNuxtConfig({
   telemetry: false,
   modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', 'nuxt-auth-utils', '@vueuse/nuxt', '@nuxt/eslint', 'nuxt-security'],
   css: ['~/assets/css/main.css'],
+  // font files are never inlined as data: URLs (Vite inlines assets under 4 KB, such as the small subsets of the
+  // shipped fonts): the content security policy allows fonts from this server only ('self')
+  vite: { build: { assetsInlineLimit: (file: string) => (/\.(woff2?|ttf|otf)$/i.test(file) ? false : undefined) } },
   // components are named by file (app/components/quotes/QuoteCard.vue -> <QuoteCard>), folders show the domain
   components: [{ path: '~/components', pathPrefix: false }],
   ...(buildDir ? { buildDir: `${buildDir}/.nuxt` } : {}),

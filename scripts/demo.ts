@@ -18,7 +18,9 @@ function newest(p: string): number {
   return st.isDirectory() ? Math.max(0, ...readdirSync(p).map((n) => newest(join(p, n)))) : st.mtimeMs
 }
 
-const marker = join(root, '.output/nitro.json')
+// the build the project's other commands use: $BORELINE_BUILD_DIR/.output when set, else ./.output
+const output = process.env.BORELINE_BUILD_DIR ? join(resolve(process.env.BORELINE_BUILD_DIR), '.output') : join(root, '.output')
+const marker = join(output, 'nitro.json')
 const stale = !existsSync(marker) || statSync(marker).mtimeMs < Math.max(...['app', 'server', 'shared', 'public', 'nuxt.config.ts', 'package-lock.json'].map((s) => newest(join(root, s))))
 if (stale) {
   console.log('Building Boreline (first run or sources changed)…')
@@ -48,7 +50,7 @@ const together = {
   NUXT_SMTP_PORT: process.env.NUXT_SMTP_PORT ?? process.env.MAIL_FAKE_SMTP_PORT ?? '1025',
 }
 children.push(spawn('npx', ['tsx', 'fakes/start.ts'], { cwd: root, stdio: 'inherit', env: together }))
-const server = spawn(process.execPath, [...serverNodeArgs(), '.output/server/index.mjs'], {
+const server = spawn(process.execPath, [...serverNodeArgs(), join(output, 'server/index.mjs')], {
   cwd: root, stdio: 'inherit', env: serverEnv({ ...together, NODE_ENV: 'production' }),
 })
 children.push(server)

@@ -19,10 +19,15 @@ describe('home page in Chromium', () => {
         text: document.fonts.check('16px Inter'),
         mono: document.fonts.check('16px "JetBrains Mono"'),
         loaded: [...document.fonts].filter((f) => f.status === 'loaded').map((f) => f.family),
+        // every face's source a file: the content security policy allows fonts from this server only
+        inlined: [...document.styleSheets].flatMap((s) => [...s.cssRules])
+          .filter((r): r is CSSFontFaceRule => r instanceof CSSFontFaceRule && r.style.getPropertyValue('src').includes('data:'))
+          .map((r) => r.style.getPropertyValue('font-family')),
       }
     })
     expect(fonts.loaded.some((f) => f.includes('Inter'))).toBe(true)
     expect(fonts.text).toBe(true)
+    expect(fonts.inlined).toEqual([])
     // font files came from our own server
     expect(requests.some((u) => /\/_nuxt\/.*inter.*\.woff2/i.test(u))).toBe(true)
     expect(foreignRequests(requests)).toEqual([])
