@@ -49,6 +49,10 @@ export const PRICE_FILE_PART_TYPES = [
   'pad_set', 'disc', 'drum', 'shoe_set', 'caliper', 'wheel_cylinder', 'master_cylinder', 'hose', 'fluid', 'fitting_kit', 'wear_sensor',
 ] as const
 
+/** The part types as a file may spell them for people ("Pad set", "Wheel cylinder"; any case, spaces or dashes). */
+export const PRICE_FILE_PART_TYPE_NAMES: string = PRICE_FILE_PART_TYPES
+  .map((t) => t.charAt(0).toUpperCase() + t.slice(1).replace(/_/g, ' ')).join(', ')
+
 export interface PriceFileCounts {
   rows: number
   new: number

@@ -7,7 +7,7 @@
  */
 import { z } from 'zod'
 import { parseMoneyToMinor } from '../../../shared/utils/money'
-import { LARGE_CHANGE_PERCENT, MAPPING_LABELS, PRICE_FILE_PART_TYPES, type ColumnMapping, type MappingField } from '../../../shared/types/price-files'
+import { LARGE_CHANGE_PERCENT, MAPPING_LABELS, PRICE_FILE_PART_TYPE_NAMES, PRICE_FILE_PART_TYPES, type ColumnMapping, type MappingField } from '../../../shared/types/price-files'
 import { headerKey, type ColumnIndex } from './mapping'
 
 export const SKU_PATTERN = /^[A-Za-z0-9][A-Za-z0-9._/-]{1,39}$/
@@ -83,7 +83,7 @@ function typeOf(raw: string): string {
 const MULTI_SPACE = /\s\s|[\t\n\r\f\v]/
 function explainType(v: string): string {
   if (formulaLike(v, true)) return `Part type “${v.slice(0, 40)}” ${FORMULA_MESSAGE}`
-  return `Part type “${v.slice(0, 40)}” is not one of ${PRICE_FILE_PART_TYPES.join(', ')}.`
+  return `Part type “${v.slice(0, 40)}” is not one of: ${PRICE_FILE_PART_TYPE_NAMES}.`
 }
 
 /** `pattern.test` as a function (a pattern without the g or y flag keeps no state between calls). */

@@ -75,7 +75,13 @@ describe('row validation', () => {
 
   it('accepts the part types of the catalogue in people\'s spelling', () => {
     expect(point.validate(row({ ...base, type: 'Pad set' }))).toMatchObject({ ok: true, values: { type: 'pad_set' } })
-    expect(issues(point.validate(row({ ...base, type: 'spoiler' })))[0]!.reason).toMatch(/not one of pad_set/)
+    // the message names the types as people write them, never the catalogue's internal keys (pad_set)
+    expect(issues(point.validate(row({ ...base, type: 'spoiler' })))[0]!.reason).toBe('Part type “spoiler” is not one of: Pad set, Disc, Drum, '
+      + 'Shoe set, Caliper, Wheel cylinder, Master cylinder, Hose, Fluid, Fitting kit, Wear sensor.')
+    // and each of those names is accepted as written there
+    for (const [name, type] of [['Wheel cylinder', 'wheel_cylinder'], ['Fitting kit', 'fitting_kit'], ['Wear sensor', 'wear_sensor']]) {
+      expect(point.validate(row({ ...base, type: name! }))).toMatchObject({ ok: true, values: { type } })
+    }
   })
 
   it('decides each cell as the zod schema it is declared with does (zod as the reference), at the limits too', () => {
