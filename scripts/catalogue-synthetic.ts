@@ -2,17 +2,19 @@
  * npm run catalogue:synthetic -- --parts 200000 --vehicles 20000 --fitments 1000000 [--database <sqlite url, path or postgres url>] [--seed 7]
  *
  * Writes a large invented catalogue into a database for benchmarks: vehicles with OE brakes and option questions,
- * parts of every type with valid specs, OE numbers, supersessions, fitment (some with qualifiers), stock in every
- * branch and prices in the active price version. The database is migrated first; when it has no people yet the demo
- * seed runs too (so the benchmark can sign in). Rows go in with raw multi-row INSERTs in a few big transactions,
- * with the revision triggers off during the load (on PostgreSQL they stay on: they fire once per statement, not per
- * row). Deterministic for a given --seed. Refuses a database that already holds synthetic rows (SKUs starting "SY-").
+ * parts of every type with valid specs (numbered in sequence: seven digits and a check digit), OE numbers,
+ * supersessions, fitment (some with qualifiers), stock in every branch and prices in the active price version. The
+ * database is migrated first; when it has no people yet the demo seed runs too (so the benchmark can sign in). Rows
+ * go in with raw multi-row INSERTs in a few big transactions, with the revision triggers off during the load (on
+ * PostgreSQL they stay on: they fire once per statement, not per row). Deterministic for a given --seed. Refuses a
+ * database that already holds synthetic rows (SKUs starting "SY-").
  * PostgreSQL (`--database postgres://…`): the same rows, booleans as true/false, the identity counters of vehicles
  * and parts moved past the ids written here.
  */
 import { resolve } from 'node:path'
 import { MC_BORES, WC_BORES, prng } from '../server/seed/catalogue-data'
 import { openBulk } from './lib/bulk'
+import { checkDigit } from './lib/check-digit'
 import { esc } from './lib/sqlite-bulk'
 
 interface Args { parts: number; vehicles: number; fitments: number; database: string; seed: number }
@@ -176,7 +178,9 @@ async function main() {
         case 'shoe_set': { const d = pick([180, 203, 228.6, 254, 280]); specs = { axle: 'rear', diameterMm: d, widthMm: pick([38, 42, 57]), frictionCode: pick(['EE', 'FF']), parkingLever: true }; desc = `Rear brake shoe set ${d} mm, ${line}, for ${mk} ${md}`; break }
         default: { const ml = pick([500, 1000, 5000]), g = pick(['DOT 3', 'DOT 4', 'DOT 5.1']); specs = { grade: g, volumeMl: ml }; desc = `Brake fluid ${g}, ${ml} ml, ${line}` }
       }
-      const sku = `${SKU_PREFIX[type]}${String(id).padStart(7, '0')}`
+      // the national range's numbers: in sequence, with a check digit, so a slip never makes another part's number
+      const body = String(id).padStart(7, '0')
+      const sku = `${SKU_PREFIX[type]}${body}${checkDigit(body)}`
       partAxle.set(id, type === 'master_cylinder' || type === 'fluid' ? 'all' : String((specs.axle as string | undefined) ?? (specs.position as string).split('-')[0]))
       partRows.push([id, sku, type, line, desc, JSON.stringify(specs), r() < 0.02 ? 'discontinued' : 'active', now, now])
       pools[type]!.push(id)
