@@ -16,10 +16,11 @@
  * - search latency over a fixed mix of 1,000 queries (SKUs, OE numbers, typos, superseded SKUs, two words, type +
  *   size): in-process (plan + index), end to end over HTTP, and SQLite FTS5 on the same rows; with the share of
  *   queries whose expected part is in the first 20 results.
+ * With BENCH_SUMMARY=<file> the figures are also written there as JSON ({@link CatalogueSummary}).
  * Keep the machine otherwise quiet; the whole run takes 4-7 minutes on 2 cores.
  */
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process'
-import { existsSync, mkdirSync, readFileSync, rmSync, statSync } from 'node:fs'
+import { existsSync, mkdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs'
 import { createServer } from 'node:net'
 import os from 'node:os'
 import { dirname, join, resolve } from 'node:path'
@@ -287,7 +288,7 @@ async function main() {
   const uncached = load(await cannon(uncachedServer.url, paths, cookie2))
   await uncachedServer.stop()
 
-  const share = (xs: boolean[]) => `${((100 * xs.filter(Boolean).length) / Math.max(1, xs.length)).toFixed(1)} %`
+  const share = (xs: boolean[]) => (xs.length ? `${((100 * xs.filter(Boolean).length) / xs.length).toFixed(1)} %` : '-')
   const byKind = (lat: number[]) => [...new Set(mix.map((m) => m.kind))].map((k) => {
     const xs = mix.map((m, i) => (m.kind === k ? lat[i]! : -1)).filter((x) => x >= 0)
     return `${k} p95 ${ms(pct(xs, 95))}`
@@ -335,6 +336,39 @@ found by kind: minisearch ${foundByKind(inprocFound)}; FTS5 ${foundByKind(ftsFou
 Each server process holds its own index (one process per core on PostgreSQL): N processes need about N x ${peakRss.toFixed(0)} MB.
 Load average (1, 5, 15 min): ${loadAtStart} at the start, ${load1()} at the end.
 `)
+  // the same figures for another script to read (bench/national.ts), when BENCH_SUMMARY names a file
+  if (process.env.BENCH_SUMMARY) {
+    const typoFound = (real: boolean | null) => share(inprocFound.filter((_, i) => { const m = mix.filter((x) => x.expect)[i]!; return m.kind === 'SKU typo' && (real === null || realTypos.has(m.q) === real) }))
+    const summary: CatalogueSummary = {
+      parts: counts!.parts,
+      vehicleParts: { rps: cached.rps, p99Ms: cached.p99 },
+      ceilingSignedIn: { rps: constantSession.rps, p99Ms: constantSession.p99 },
+      drift: drift(cached.seconds),
+      searchP95Ms: { inProcess: pct(inproc, 95), endToEnd: pct(http, 95) },
+      slips: { found: typoFound(null), real: realTypos.size, of: typos.length, realFound: typoFound(true), otherFound: typoFound(false) },
+      foundByKind: foundByKind(inprocFound),
+      indexReadyS: indexReadyMs / 1000,
+      rssMb: { ready: rssReady, afterLoads: rssAfterLoad, peak: peakRss },
+      builtWithoutFile: { indexReadyS: built.indexReadyMs / 1000, rssReadyMb: built.rssReady, peakMb: builtPeak },
+      load: { start: loadAtStart, end: load1() },
+    }
+    writeFileSync(process.env.BENCH_SUMMARY, JSON.stringify(summary, null, 2))
+  }
+}
+
+/** What BENCH_SUMMARY receives: the run's figures, times in ms or s as named, memory in MB, shares as text ("97.0 %"). */
+export interface CatalogueSummary {
+  parts: number
+  vehicleParts: { rps: number; p99Ms: number }
+  ceilingSignedIn: { rps: number; p99Ms: number }
+  drift: string
+  searchP95Ms: { inProcess: number; endToEnd: number }
+  slips: { found: string; real: number; of: number; realFound: string; otherFound: string }
+  foundByKind: string
+  indexReadyS: number
+  rssMb: { ready: number; afterLoads: number; peak: number }
+  builtWithoutFile: { indexReadyS: number; rssReadyMb: number; peakMb: number }
+  load: { start: string; end: string }
 }
 
 main().then(() => process.exit(0), (err) => { console.error(err); process.exit(1) })

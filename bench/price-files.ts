@@ -15,6 +15,7 @@
  * Measured: wall times, the server's peak resident memory (VmHWM), and GET /api/health latency sampled
  * continuously (one request in flight, every 25 ms) while each file is uploaded, checked and applied.
  * Targets: preview + apply within 6x the `.import` time; peak memory under 500 MB; health p99 under 200 ms.
+ * With BENCH_SUMMARY=<file> the figures are also written there as JSON ({@link PriceFilesSummary}).
  */
 import { spawn, spawnSync } from 'node:child_process'
 import { createHmac } from 'node:crypto'
@@ -324,6 +325,12 @@ async function main() {
     console.log(`server memory: ${mb(baseline.rss)} RSS signed in, before the price files; peak (VmHWM) over the whole run **${mb(hwm)}** (highest sampled RSS ${mb(peakRss)})`)
     for (const r of rows) console.log(`slowest health answers, ${r.label}: ${r.health.slowest}`)
     console.log(`targets: ratio <= 6x -> ${rows.map((r) => (r.ratio <= 6 ? 'met' : 'NOT met')).join(' / ')}; memory < 500 MB -> ${hwm < 500 * 1024 * 1024 ? 'met' : 'NOT met'}; health p99 < 200 ms -> ${rows.map((r) => (r.health.p99 < 200 ? 'met' : 'NOT met')).join(' / ')}`)
+    // the same figures for another script to read (bench/national.ts), when BENCH_SUMMARY names a file
+    if (process.env.BENCH_SUMMARY) {
+      const file = (r: (typeof rows)[number]) => ({ previewPlusApplyS: (r.previewMs + r.applyMs) / 1000, importS: r.importMs / 1000, ratio: r.ratio, healthP99Ms: r.health.p99 })
+      const summary: PriceFilesSummary = { a: file(rows[1]!), b: { ...file(rows[0]!), runs: REPEAT }, peakMb: hwm / 1024 / 1024 }
+      writeFileSync(process.env.BENCH_SUMMARY, JSON.stringify(summary, null, 2))
+    }
   } catch (err) {
     console.error(err)
     console.error(log)
@@ -335,5 +342,9 @@ async function main() {
     if (!process.env.BENCH_KEEP) rmSync(dir, { recursive: true, force: true })
   }
 }
+
+/** What BENCH_SUMMARY receives: each file's preview + apply and `.import` in seconds, their ratio, the health tail. */
+export interface PriceFileFigures { previewPlusApplyS: number; importS: number; ratio: number; healthP99Ms: number }
+export interface PriceFilesSummary { a: PriceFileFigures; b: PriceFileFigures & { runs: number }; peakMb: number }
 
 await main()
