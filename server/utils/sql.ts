@@ -299,6 +299,12 @@ export function jsonAtKey(expr: string, index: number, key: string): string {
   return `json_extract(${expr}, '$[${index}]."' || ${key} || '"')`
 }
 
+/** The length of the array at `index` of the JSON array text `expr` (NULL when there is none). */
+export function jsonArrayLengthAt(expr: string, index: number): string {
+  if (getDb().getDialect() === 'postgres') return `json_array_length((${expr})::json->${index})`
+  return `json_array_length(${expr}, '$[${index}]')`
+}
+
 /** The element `index` of the JSON array `expr` kept as JSON (an object or array inside it). */
 export function jsonPart(expr: string, index: number): string {
   return getDb().getDialect() === 'postgres' ? `(${expr}->${index})` : `${expr}->'$[${index}]'`

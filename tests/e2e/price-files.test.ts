@@ -612,6 +612,39 @@ describe('apply and roll back', () => {
     expect(await triggers()).toEqual(triggersBefore)
   })
 
+  it('gives each new part its own prices and counts, branch by branch, a repeated new SKU left out', async () => {
+    const branches = new Map((await all<{ id: number; code: string }>('SELECT id, code FROM branches')).map((b) => [b.code, b.id]))
+    // the stock columns in the other order than the branches', a blank count, and a repeated SKU between new rows
+    const d = await uploadAndCheck(counter, csv([[...HEAD, 'stock_RVS', 'stock_NGT'],
+      ['PLT-NS-1', 'Count test pad set 1', 'pad_set', '11.00', '7.00', '', '', '3', '4'],
+      ['PLT-NS-2', 'Count test disc 2', 'disc', '22.00', '', '', '2', '5', ''],
+      ['PLT-NS-3', 'Count test drum 3', 'drum', '33.00', '', '1.50', '', '', '6'],
+      ['PLT-NS-2', 'Count test disc 2 again', 'disc', '23.00', '', '', '', '1', '1'],
+      ['PLT-NS-4', 'Count test hose 4', 'hose', '44.00', '', '', '', '0', '8']]), 'new-counts.csv')
+    expect(d.counts).toMatchObject({ new: 3, rejected: 2 })
+    const applied = await counter.post(`/api/price-files/${d.id}/apply`, { excludeRejected: true })
+    expect(applied.status, applied.text).toBe(200)
+    try {
+      const made = await all<{ sku: string; type: string; list: number; trade: number | null; core: number; pack: number }>(
+        `SELECT p.sku, p.type, pr.list_price_minor AS list, pr.trade_cost_minor AS trade, pr.core_deposit_minor AS core, pr.pack_quantity AS pack
+           FROM parts p JOIN part_prices pr ON pr.part_id = p.id WHERE p.sku LIKE 'PLT-NS-%' ORDER BY p.sku`)
+      // worked by hand from the file: amounts in pence; no core deposit is 0 and no pack quantity is 1
+      expect(made).toEqual([
+        { sku: 'PLT-NS-1', type: 'pad_set', list: 1100, trade: 700, core: 0, pack: 1 },
+        { sku: 'PLT-NS-3', type: 'drum', list: 3300, trade: null, core: 150, pack: 1 },
+        { sku: 'PLT-NS-4', type: 'hose', list: 4400, trade: null, core: 0, pack: 1 },
+      ])
+      const counts = await all<{ sku: string; branch_id: number; quantity: number }>(
+        `SELECT p.sku, s.branch_id, s.quantity FROM stock_levels s JOIN parts p ON p.id = s.part_id WHERE p.sku LIKE 'PLT-NS-%' ORDER BY p.sku, s.branch_id`)
+      const expected = [['PLT-NS-1', 'RVS', 3], ['PLT-NS-1', 'NGT', 4], ['PLT-NS-3', 'NGT', 6], ['PLT-NS-4', 'RVS', 0], ['PLT-NS-4', 'NGT', 8]]
+        .map(([sku, code, quantity]) => ({ sku, branch_id: branches.get(code as string)!, quantity }))
+        .sort((a, b) => (a.sku === b.sku ? a.branch_id - b.branch_id : a.sku < b.sku ? -1 : 1))
+      expect(counts).toEqual(expected)
+    } finally {
+      expect((await rollback(counter, d.id)).status).toBe(200)
+    }
+  })
+
   it('refuses an apply whose new SKU was added by hand after the check, and changes nothing', async () => {
     const start = await activeVersion()
     const d = await uploadAndCheck(counter, csv([HEAD, ['PLT-CLASH-1', 'Clash test pad set', 'pad_set', '20.00', '', '', ''],

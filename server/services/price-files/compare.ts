@@ -7,10 +7,10 @@
  */
 import { setImmediate as yieldToLoop } from 'node:timers/promises'
 import type { ColumnMapping } from '../../../shared/types/price-files'
-import { BatchReader, type RowBatch } from './row-batches'
+import { BatchReader, FIXED_NUMS, type RowBatch } from './row-batches'
 import { classify } from './rows'
 import type { CatalogueSnapshot } from './snapshot'
-import { ChunkedList, F, expandFinding, serialise, storedFinding, type PriceCheckFinding } from './findings'
+import { ChunkedList, F, NEW_STOCK, expandFinding, serialise, storedFinding, type PriceCheckFinding } from './findings'
 
 const CHECK_KINDS = ['new', 'changed', 'unchanged', 'missing', 'rejected'] as const
 type CheckKind = typeof CHECK_KINDS[number]
@@ -42,13 +42,24 @@ export class Comparison {
   private indexOfSlot = new Int32Array(0)
   /** named by any row, refused ones too (so not "missing") */
   private mentioned = new Uint8Array(0)
-  private readonly firstOfNew = new Map<string, { row: number; index: number }>()
+  /** new SKUs: where each one's finding is in `found.new` (its row in `newRows`; no object per SKU to collect) */
+  private readonly firstOfNew = new Map<string, number>()
+  private newRows = new Int32Array(1024)
   private readonly repeats = new Map<string, number[]>()
   /** for the apply: stock counts that move ([partId, counts]) and discontinued parts the file prices again */
   private readonly stockMoves: unknown[] = []
   private readonly revive: number[] = []
   /** parts whose findings were withdrawn as repeats: their stock and revival are not applied */
   private readonly removedIds = new Set<number>()
+  /**
+   * for the apply: each new finding's stock counts, one per code of `newStockCodes` (the branches in the order the
+   * snapshot holds them), in `found.new` order (-1 = none); positions withdrawn as repeats in `removedNew`
+   */
+  private newStock = new Int32Array(0)
+  private newStockCodes: string[] | null = null
+  /** where each of `newStockCodes` is in a batch's numbers */
+  private newStockFrom: number[] = []
+  private readonly removedNew: number[] = []
 
   constructor(private readonly mapping: ColumnMapping) {}
 
@@ -70,7 +81,8 @@ export class Comparison {
       }
       const v = rd.values(i)
       const slot = snap.slot(v.sku)
-      const earlier = slot === undefined ? this.firstOfNew.get(v.sku)?.row : (snap.firstRow[slot] || undefined)
+      const newAt = slot === undefined ? this.firstOfNew.get(v.sku) : undefined
+      const earlier = slot === undefined ? (newAt === undefined ? undefined : this.newRows[newAt]) : (snap.firstRow[slot] || undefined)
       if (earlier !== undefined) {
         this.repeats.set(v.sku, [...(this.repeats.get(v.sku) ?? [earlier]), rowNumber])
         this.rejected.push(refusedFinding(rowNumber, v.sku, slot === undefined ? null : snap.id(slot), this.mapping.sku,
@@ -88,7 +100,10 @@ export class Comparison {
       }
       const list = this.found[c.kind]
       if (slot === undefined) {
-        this.firstOfNew.set(v.sku, { row: rowNumber, index: list.length })
+        this.firstOfNew.set(v.sku, list.length)
+        if (list.length >= this.newRows.length) { const g = new Int32Array(2 * this.newRows.length); g.set(this.newRows); this.newRows = g }
+        this.newRows[list.length] = rowNumber
+        if (c.kind === 'new') this.noteNewStock(list.length, batch, i, snap)
       } else {
         snap.firstRow[slot] = rowNumber
         this.mentioned[slot] = 1
@@ -111,6 +126,50 @@ export class Comparison {
         if (c.large) this.large++
       }
     }
+  }
+
+  /** Keeps the counts of valid row `i` of `batch`, the new finding at `index`. */
+  private noteNewStock(index: number, batch: RowBatch, i: number, snap: CatalogueSnapshot): void {
+    if (!this.newStockCodes) {
+      const order = snap.branchOrder
+      const rank = (code: string) => { const r = order.indexOf(code); return r < 0 ? order.length : r }
+      this.newStockCodes = [...batch.stockCodes].sort((a, b) => rank(a) - rank(b))
+      this.newStockFrom = this.newStockCodes.map((code) => FIXED_NUMS + batch.stockCodes.indexOf(code))
+    }
+    const w = this.newStockCodes.length
+    if ((index + 1) * w > this.newStock.length) {
+      const grown = new Int32Array(Math.max(1024, 2 * this.newStock.length, (index + 1) * w)).fill(-1)
+      grown.set(this.newStock)
+      this.newStock = grown
+    }
+    const o = i * batch.width
+    for (let k = 0; k < w; k++) {
+      const q = batch.nums[o + this.newStockFrom[k]!]!
+      this.newStock[index * w + k] = Number.isNaN(q) ? -1 : q
+    }
+  }
+
+  /**
+   * The `newstock` list (versions.ts): one chunk per chunk of new findings, same size, `{ codes, counts }` with
+   * the counts of each finding in turn (null: none).
+   */
+  private newStockChunks(sizes: number[]): { size: number; json: string }[] {
+    const codes = this.newStockCodes ?? []
+    const w = codes.length
+    const head = `{"codes":${JSON.stringify(codes)},"counts":[`
+    const removed = new Set(this.removedNew)
+    const out: { size: number; json: string }[] = []
+    let at = 0
+    for (const size of sizes) {
+      const parts: string[] = []
+      for (let taken = 0; taken < size && at * w <= this.newStock.length; at++) {
+        if (removed.has(at)) continue
+        for (let k = 0; k < w; k++) { const q = this.newStock[at * w + k]!; parts.push(q < 0 ? 'null' : String(q)) }
+        taken++
+      }
+      out.push({ size, json: `${head}${parts.join(',')}]}` })
+    }
+    return out
   }
 
   /**
@@ -137,7 +196,7 @@ export class Comparison {
       let index = -1
       if (slot === undefined) {
         const first = this.firstOfNew.get(sku)
-        if (first) { kind = 'new'; index = first.index }
+        if (first !== undefined) { kind = 'new'; index = first }
       } else {
         kind = CHECK_KINDS[this.kindOfSlot[slot]!]
         index = this.indexOfSlot[slot]!
@@ -147,6 +206,7 @@ export class Comparison {
       if (!stored) continue
       const first = expandFinding(kind, stored)
       removed[kind].push(index)
+      if (kind === 'new') this.removedNew.push(index)
       if (first[F.partId] != null) this.removedIds.add(first[F.partId]!)
       if (kind === 'changed' && first[F.large]) this.large--
       this.rejected.push(refusedFinding(first[F.row]!, sku, first[F.partId], this.mapping.sku,
@@ -178,6 +238,7 @@ export class Comparison {
       ['prices', prices.chunks],
       ['stock', await serialise(removedIds.size ? this.stockMoves.filter((x) => !removedIds.has((x as [number])[0])) : this.stockMoves)],
       ['revive', await serialise(removedIds.size ? this.revive.filter((x) => !removedIds.has(x)) : this.revive)],
+      [NEW_STOCK, this.newStockChunks(found.new.chunks.map((c) => c.size))],
     ]
     return { counts, lists }
   }

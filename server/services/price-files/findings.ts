@@ -37,9 +37,23 @@ export const F = {
  * Findings are stored short: trailing nulls are left off (reading `v->>18` of a shorter array gives NULL in SQL,
  * and `expandFinding` pads it again), and an unchanged part, whose old and new values are the same, is
  * `[row, sku, partId, list, trade, core, oldPack, newPack, stock, note]`. A 200,000-row file's findings are then
- * about half the text to write and to parse.
+ * about half the text to write and to parse. A missing part, which has only its values in use, is
+ * `[null, sku, partId, list, trade, core, pack]` (the part id where the full tuple has it, so the apply's SQL reads
+ * both forms alike; a full missing finding is never shorter than 15). A new part is
+ * `[row, sku, type, description, list, trade, core, pack, stock]` (`NEW_SHORT`; a full one is never shorter than 15,
+ * so the apply tells the forms apart by the first one's length, `newCol`).
  */
 export function storedFinding(kind: string, f: PriceCheckFinding): unknown[] {
+  if (kind === 'new' && f[F.partId] === null && f[F.pct] === null && !f[F.large] && f[F.reason] === null && f[F.columns] === null && f[F.raw] === null) {
+    const short = [f[F.row], f[F.sku], f[F.type], f[F.description], f[F.newList], f[F.newTrade], f[F.newCore], f[F.newPack], f[F.stock]]
+    while (short.length > 5 && short[short.length - 1] === null) short.pop()
+    return short
+  }
+  if (kind === 'missing') {
+    const short = [null, f[F.sku], f[F.partId], f[F.oldList], f[F.oldTrade], f[F.oldCore], f[F.oldPack]]
+    while (short.length > 3 && short[short.length - 1] === null) short.pop()
+    return short
+  }
   if (kind === 'unchanged') {
     const short = [f[F.row], f[F.sku], f[F.partId], f[F.newList], f[F.newTrade], f[F.newCore], f[F.oldPack], f[F.newPack], f[F.stock], f[F.reason]]
     while (short.length && short[short.length - 1] === null) short.pop()
@@ -53,13 +67,30 @@ export function storedFinding(kind: string, f: PriceCheckFinding): unknown[] {
 
 /** A stored finding as the full tuple (see `storedFinding`; findings written before it are full already). */
 export function expandFinding(kind: string, v: unknown[]): PriceCheckFinding {
+  const at = (i: number) => (v[i] ?? null) as never
   if (kind === 'unchanged' && v.length <= 10) {
-    const at = (i: number) => (v[i] ?? null) as never
     return [at(0), at(1), at(2), null, null, at(3), at(3), at(4), at(4), at(5), at(5), at(6), at(7), at(3) ? 0 : null, 0, at(8), null, at(9), null]
+  }
+  if (kind === 'new' && v.length <= NEW_SHORT.stock + 1) {
+    return [at(0), at(1), null, at(2), at(3), null, at(4), null, at(5), null, at(6), null, at(7), null, 0, at(8), null, null, null]
+  }
+  if (kind === 'missing' && v.length <= 7) {
+    return [null, at(1), at(2), null, null, at(3), null, at(4), null, at(5), null, at(6), null, null, 0, null, null, null, null]
   }
   const f = v as PriceCheckFinding
   while (f.length < 19) (f as unknown[]).push(null)
   return f
+}
+
+/** Positions in the short form of a new finding (see `storedFinding`). */
+export const NEW_SHORT = { row: 0, sku: 1, type: 2, description: 3, newList: 4, newTrade: 5, newCore: 6, newPack: 7, stock: 8 } as const
+
+/**
+ * SQL for one position of a new finding held in `alias.v`, in the form the check stored (`short`: see
+ * `storedFinding`; findings of a check made before it are full tuples).
+ */
+export function newCol(name: keyof typeof NEW_SHORT, short: boolean, alias = 'f'): string {
+  return jsonAt(`${alias}.v`, short ? NEW_SHORT[name] : F[name], TEXT_FIELDS.has(name) ? 'text' : 'int')
 }
 
 /** SQL for one position of a finding held in `alias.v` (a row of `findingsOf`). */
@@ -77,6 +108,12 @@ export function findingsOf(kinds: string[]): string {
   const list = kinds.map((k) => `'${k.replace(/[^a-z_]/g, '')}'`).join(', ')
   return `(SELECT j.value AS v FROM price_file_findings c, ${jsonElementsForReading('c.rows', 'j')} WHERE c.price_file_id = $1 AND c.kind IN (${list}))`
 }
+
+/**
+ * The new parts' stock counts, written by the check beside the new findings for the apply (compare.ts,
+ * versions.ts): one chunk per chunk of new findings, `{ codes, counts }`, each finding's counts in turn.
+ */
+export const NEW_STOCK = 'newstock'
 
 const CHUNK = 5_000
 

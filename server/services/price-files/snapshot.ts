@@ -62,6 +62,8 @@ export class CatalogueSnapshot {
     this.flags = g(this.flags, n); this.firstRow = g(this.firstRow, n); this.setBy = g(this.setBy, n)
   }
 
+  /** the branch codes the stock counts were read for, in the order of their ids */
+  get branchOrder(): readonly string[] { return this.branchCodes }
   slot(sku: string): number | undefined { return this.skus.get(sku) }
   id(i: number): number { return this.ids[i]! }
   sku(i: number): string { return this.skus.sku(i) }

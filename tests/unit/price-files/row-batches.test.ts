@@ -104,6 +104,20 @@ describe('stored findings', () => {
     expect(roundTrip('new', fresh)).toEqual(fresh)
   })
 
+  it('keep every value of a new part and of a missing part in their short forms, and read the full forms as before', () => {
+    const fresh: PriceCheckFinding = [3, 'KF-NEW', null, 'disc', 'Front disc 280 mm', null, 5200, null, 3100, null, 0, null, 1, null, 0, { NGT: 4, RVS: 0 }, null, null, null]
+    // worked by hand: row, SKU, type, description, list, trade, core, pack, stock
+    expect(storedFinding('new', [...fresh] as PriceCheckFinding)).toEqual([3, 'KF-NEW', 'disc', 'Front disc 280 mm', 5200, 3100, 0, 1, { NGT: 4, RVS: 0 }])
+    expect(roundTrip('new', fresh)).toEqual(fresh)
+    const missing: PriceCheckFinding = [null, 'KF-GONE', 41, null, null, 2500, null, null, null, 0, null, 2, null, null, 0, null, null, null, null]
+    // worked by hand: the part id stays third (the apply reads it there in either form)
+    expect(storedFinding('missing', [...missing] as PriceCheckFinding)).toEqual([null, 'KF-GONE', 41, 2500, null, 0, 2])
+    expect(roundTrip('missing', missing)).toEqual(missing)
+    // findings stored before the short forms: the full tuple, trailing nulls left off (at least 15 long)
+    expect(expandFinding('new', JSON.parse(JSON.stringify(fresh.slice(0, 16))))).toEqual(fresh)
+    expect(expandFinding('missing', JSON.parse(JSON.stringify(missing.slice(0, 15))))).toEqual(missing)
+  })
+
   it('a chunked list gives back every item by index, and drops the ones asked for', () => {
     const list = new ChunkedList<number[]>(50, 7)
     for (let i = 0; i < 173; i++) list.push([i])
