@@ -31,9 +31,20 @@ class ConfiguredDatabase extends sqlite3.Database {
     this.run('PRAGMA foreign_keys=ON')
     // reads straight from the OS's page cache instead of copying pages into each connection's small cache: a
     // year-long dashboard's sums read most of the orders' indexes, and the copying cost almost as much as the sums
-    this.run('PRAGMA mmap_size=268435456')
+    this.run(`PRAGMA mmap_size=${memoryMapped ? 268435456 : 0}`)
     if (checkpointsInBackground) this.run('PRAGMA wal_autocheckpoint=0')
   }
+}
+
+let memoryMapped = true
+
+/**
+ * Connections opened from now on read through SQLite's own small page cache instead of mapping the file: for the
+ * part index worker, which reads every part once, where the mapped pages (up to 256 MB) would count in the process's
+ * resident memory beside the index it builds.
+ */
+export function readWithoutMemoryMapping(): void {
+  memoryMapped = false
 }
 
 // ------------------------------------------------------------------------------------------------ checkpoints

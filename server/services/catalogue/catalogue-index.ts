@@ -69,14 +69,17 @@ async function buildInWorker(): Promise<boolean> {
 
 /**
  * The saved index when it fits this database: loaded, then the parts changed since it was saved re-read. Null when
- * there is none, it is of another format or catalogue, or too much changed since.
+ * there is none, it is of another format or catalogue, or too much changed since. `fresh`: the file was just
+ * written by the worker from every part, so the count of parts needs no check (that scan maps up to 256 MB of the
+ * database into this process, at start-up's highest memory).
  */
-async function loadSaved(revision: number): Promise<PartSearchIndex | null> {
+async function loadSaved(revision: number, fresh = false): Promise<PartSearchIndex | null> {
   const saved = await readSavedIndex()
   if (!saved) return null
   const changed = await changedSince(saved.meta.revision, saved.index.size)
   if (!changed) return null
   await patch(saved.index, changed)
+  if (fresh) return saved.index
   // a load that bypassed the triggers (a bulk script with them off) shows as a count or a highest id that differ
   const [row] = await getDb().query<{ n: number; hi: number | null }>('SELECT COUNT(*) AS n, MAX(id) AS hi FROM parts', { type: QueryTypes.SELECT })
   if (Number(row?.n ?? 0) !== saved.index.size || Number(row?.hi ?? 0) !== saved.index.maxPartId()) return null
@@ -104,10 +107,10 @@ export function getPartIndex(revision?: number): Promise<PartSearchIndex> {
         return index
       }
     }
-    const fromFile = () => loadSaved(rev).catch((err) => { console.error('[boreline] saved part search index not used:', err?.message ?? err); return null })
+    const fromFile = (fresh = false) => loadSaved(rev, fresh).catch((err) => { console.error('[boreline] saved part search index not used:', err?.message ?? err); return null })
     let built = index ? null : await fromFile()
     // none that fits: built by the worker thread, which saves it, then loaded from its file; else in this thread
-    if (!built && await buildInWorker().catch((err) => { console.error('[boreline] part search index worker:', err?.message ?? err); return false })) built = await fromFile()
+    if (!built && await buildInWorker().catch((err) => { console.error('[boreline] part search index worker:', err?.message ?? err); return false })) built = await fromFile(true)
     if (!built) {
       built = await buildFromDatabase()
       saveInBackground(built, rev)

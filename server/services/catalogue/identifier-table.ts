@@ -81,7 +81,12 @@ export class IdentifierTable {
   private starts: Uint32Array = new Uint32Array(1)
   private slots: Int32Array = new Int32Array(0)
   private kinds: Uint8Array = new Uint8Array(0)
-  private pending: IdEntry[] | null = null
+  /**
+   * Entries staged for {@link commit}, in the table's own shape (keys' bytes one after another, where each starts,
+   * slots, kinds; `n` used, with room to grow) rather than a string and an array per entry: at a million parts 3.5
+   * million of those would cost ~300 MB more while the index is built.
+   */
+  private pending: { bytes: Uint8Array; starts: Uint32Array; slots: Int32Array; kinds: Uint8Array; n: number } | null = null
 
   get size(): number { return this.slots.length }
   key(entry: number): string { return Buffer.from(this.bytes.buffer, this.bytes.byteOffset, this.bytes.byteLength).toString('latin1', this.starts[entry]!, this.starts[entry + 1]!) }
@@ -103,17 +108,69 @@ export class IdentifierTable {
     return t
   }
 
-  /** Bulk load, step 1: entries wait unsorted until {@link commit}. */
+  /** Bulk load, step 1: entries wait unsorted until {@link commit}. Keys are letters and digits ({@link norm}). */
   stage(entries: IdEntry[]): void {
-    this.pending ??= []
-    for (const e of entries) this.pending.push(e)
+    let p = this.pending
+    let bytes = 0
+    for (const e of entries) bytes += e[0].length
+    if (!p || p.n + entries.length > p.slots.length || p.starts[p.n]! + bytes > p.bytes.length) {
+      const n = p?.n ?? 0, size = Math.ceil((n + entries.length) * 1.5) + 1024
+      const next = {
+        bytes: new Uint8Array(Math.ceil(((p?.starts[n] ?? 0) + bytes) * 1.5) + 16384), starts: new Uint32Array(size + 1),
+        slots: new Int32Array(size), kinds: new Uint8Array(size), n,
+      }
+      if (p) {
+        next.bytes.set(p.bytes.subarray(0, p.starts[n]!))
+        next.starts.set(p.starts.subarray(0, n + 1))
+        next.slots.set(p.slots.subarray(0, n))
+        next.kinds.set(p.kinds.subarray(0, n))
+      }
+      this.pending = p = next
+    }
+    for (const [key, slot, kind] of entries) {
+      let at = p.starts[p.n]!
+      for (let c = 0; c < key.length; c++) p.bytes[at++] = key.charCodeAt(c)
+      p.slots[p.n] = slot
+      p.kinds[p.n] = kind
+      p.starts[++p.n] = at
+    }
   }
 
   /** Bulk load, step 2: sorts the staged entries in with the others (by key, then kind). */
   commit(): void {
     const p = this.pending
     this.pending = null
-    if (p?.length) this.replace(new Set(), p)
+    if (!p?.n) return
+    // sorted as entry numbers (by key, then kind, then slot, as `replace` sorts), comparing the keys' bytes (byte
+    // order is string order for letters and digits)
+    const { bytes, starts, slots, kinds, n } = p
+    const order = new Uint32Array(n)
+    for (let i = 0; i < n; i++) order[i] = i
+    order.sort((a, b) => {
+      const ea = starts[a + 1]!, eb = starts[b + 1]!
+      for (let i = starts[a]!, j = starts[b]!; i < ea && j < eb; i++, j++) { const d = bytes[i]! - bytes[j]!; if (d) return d }
+      return ea - starts[a]! - (eb - starts[b]!) || kinds[a]! - kinds[b]! || slots[a]! - slots[b]!
+    })
+    if (this.size) {
+      const key = (j: number) => Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength).toString('latin1', starts[order[j]!]!, starts[order[j]! + 1]!)
+      this.merge(new Set(), n, key, (j) => slots[order[j]!]!, (j) => kinds[order[j]!]!)
+      return
+    }
+    // an empty table (a build): the staged entries, in their order, are the table
+    const out = new Uint8Array(starts[n]!), outStarts = new Uint32Array(n + 1), outSlots = new Int32Array(n), outKinds = new Uint8Array(n)
+    let pos = 0
+    for (let j = 0; j < n; j++) {
+      const e = order[j]!, end = starts[e + 1]!
+      outStarts[j] = pos
+      for (let i = starts[e]!; i < end; i++) out[pos++] = bytes[i]!
+      outSlots[j] = slots[e]!
+      outKinds[j] = kinds[e]!
+    }
+    outStarts[n] = pos
+    this.bytes = out
+    this.starts = outStarts
+    this.slots = outSlots
+    this.kinds = outKinds
   }
 
   /** Compares entry `i`'s key with `key` (negative: the entry sorts first). */
@@ -132,10 +189,17 @@ export class IdentifierTable {
    */
   replace(removedSlots: ReadonlySet<number>, entries: IdEntry[]): void {
     const add = [...entries].sort(byKeyThenKind)
-    if (!removedSlots.size && !add.length) return
+    this.merge(removedSlots, add.length, (j) => add[j]![0], (j) => add[j]![1], (j) => add[j]![2])
+  }
+
+  /** {@link replace} with the `count` entries to add given, sorted, by their key, slot and kind at 0..count-1. */
+  private merge(removedSlots: ReadonlySet<number>, count: number, keyAt: (j: number) => string, slotAt: (j: number) => number, kindAt: (j: number) => number): void {
+    if (!removedSlots.size && !count) return
     const n = this.size
-    const size = n + add.length
-    const out = Buffer.allocUnsafe(this.bytes.length + add.reduce((t, e) => t + e[0].length, 0))
+    const size = n + count
+    let addBytes = 0
+    for (let j = 0; j < count; j++) addBytes += keyAt(j).length
+    const out = Buffer.allocUnsafe(this.bytes.length + addBytes)
     const src = Buffer.from(this.bytes.buffer, this.bytes.byteOffset, this.bytes.byteLength)
     const starts = new Uint32Array(size + 1), slots = new Int32Array(size), kinds = new Uint8Array(size)
     let o = 0, pos = 0, j = 0
@@ -147,16 +211,15 @@ export class IdentifierTable {
       runFrom = -1
     }
     const putAdded = () => {
-      const [k, sl, kind] = add[j++]!
       starts[o] = pos
-      pos += out.write(k, pos, 'latin1')
-      slots[o] = sl
-      kinds[o++] = kind
+      pos += out.write(keyAt(j), pos, 'latin1')
+      slots[o] = slotAt(j)
+      kinds[o++] = kindAt(j++)
     }
     for (let i = 0; i < n; i++) {
-      while (j < add.length) {
-        const c = this.cmp(i, add[j]![0])
-        if (c < 0 || (c === 0 && add[j]![2] >= this.kinds[i]!)) break
+      while (j < count) {
+        const c = this.cmp(i, keyAt(j))
+        if (c < 0 || (c === 0 && kindAt(j) >= this.kinds[i]!)) break
         flush(this.starts[i]!)
         putAdded()
       }
@@ -167,12 +230,13 @@ export class IdentifierTable {
       kinds[o++] = this.kinds[i]!
     }
     flush(this.starts[n]!)
-    while (j < add.length) putAdded()
+    while (j < count) putAdded()
     starts[o] = pos
     this.bytes = new Uint8Array(out.buffer, out.byteOffset, pos)
-    this.starts = starts.slice(0, o + 1)
-    this.slots = slots.slice(0, o)
-    this.kinds = kinds.slice(0, o)
+    // cut to size only when entries were dropped (a copy of each, ~30 MB at a million parts)
+    this.starts = o === size ? starts : starts.slice(0, o + 1)
+    this.slots = o === size ? slots : slots.slice(0, o)
+    this.kinds = o === size ? kinds : kinds.slice(0, o)
   }
 
   private lowerBound(key: string): number {

@@ -1,22 +1,32 @@
 /**
  * Part search: the built index as a file of named sections (typed arrays, string lists, text), so a process can
- * load it instead of building it from the database. Layout: "BLSI", a format number and the header's length
- * (uint32 little-endian), the header (JSON: what the index was built from and where each section lies), then the
- * sections, each starting on a multiple of 8 bytes. Numbers are stored little-endian, as the machines it runs on
- * hold them (a file written elsewhere is refused). Pure apart from the two file functions at the end.
+ * load it instead of building it from the database. Layout: a lead of {@link LEAD} bytes ("BLSI", the format number,
+ * where the header starts and its length, little-endian), the sections, each starting on a multiple of 8 bytes, then
+ * the header (JSON: what the index was built from and where each section lies). The header comes last so the file
+ * is written as the sections are made, one at a time (the writer never holds them all), and the lead, which points
+ * at it, is written once it is known. Numbers are stored little-endian, as the machines it runs on hold them (a
+ * file written elsewhere is refused). Pure apart from the two file functions at the end.
  */
-import { closeSync, fsyncSync, openSync, renameSync, writeSync } from 'node:fs'
+import { closeSync, fsyncSync, openSync, renameSync, rmSync, writeSync } from 'node:fs'
 import { open } from 'node:fs/promises'
 import os from 'node:os'
 
 export type Section = Int32Array | Uint8Array | Float64Array | string[] | string
 /** The named sections of an index, in any order. */
 export type Sections = Map<string, Section>
+/** Sections as they are made, each produced when the writer asks for the next (so the previous one can go). */
+export type SectionStream = Iterable<[name: string, value: Section]>
 /** Sections as read back: each decoded when asked for (from the file: read then), and not kept. */
 export interface SectionSource { names(): string[]; get(name: string): Section | undefined | Promise<Section | undefined> }
 
 const MAGIC = 'BLSI'
-const FORMAT = 1
+/**
+ * 2: the header after the sections (1 had it first: a file of format 1 is refused, and the index built and saved
+ * again).
+ */
+const FORMAT = 2
+/** "BLSI", format (uint32), header offset (48-bit), 2 bytes unused, header length (uint32), 4 bytes unused: a multiple of 8. */
+const LEAD = 24
 /** Never in a key, word or fitting key (identifiers are letters and digits, JSON escapes control characters). */
 const SEP = '\u0000'
 
@@ -24,6 +34,7 @@ interface SectionRef { name: string; kind: 'i32' | 'u8' | 'f64' | 'strs' | 'str'
 interface Header<M> { format: number; meta: M; sections: SectionRef[] }
 
 const pad8 = (n: number) => (8 - (n % 8)) % 8
+const ZEROS = Buffer.alloc(8)
 
 function encodeSection(name: string, value: Section): { ref: Omit<SectionRef, 'offset'>; bytes: Buffer } {
   if (typeof value === 'string') {
@@ -39,53 +50,72 @@ function encodeSection(name: string, value: Section): { ref: Omit<SectionRef, 'o
   return { ref: { name, kind, bytes: bytes.length, count: value.length }, bytes }
 }
 
-/** The file's bytes as a list of buffers (written one after the other). */
-export function encodeImage<M>(meta: M, sections: Sections): Buffer[] {
+/**
+ * Writes the image through `put` (bytes at a position): the lead's place first (zeros), each section as it comes
+ * (encoded, written, dropped before the next is asked for), the header, then the lead over its place.
+ */
+function writeImage<M>(meta: M, sections: SectionStream, put: (bytes: Buffer, position: number) => void): void {
   if (os.endianness() !== 'LE') throw new Error('part search index files are written on little-endian machines only')
-  const parts = [...sections].map(([name, value]) => encodeSection(name, value))
-  let offset = 0
-  const refs: SectionRef[] = parts.map(({ ref, bytes }) => {
-    const r = { ...ref, offset }
-    offset += bytes.length + pad8(bytes.length)
-    return r
-  })
+  put(Buffer.alloc(LEAD), 0)
+  let at = LEAD
+  const refs: SectionRef[] = []
+  for (const [name, value] of sections) {
+    const { ref, bytes } = encodeSection(name, value)
+    refs.push({ ...ref, offset: at })
+    put(bytes, at)
+    put(ZEROS.subarray(0, pad8(bytes.length)), at + bytes.length)
+    at += bytes.length + pad8(bytes.length)
+  }
   const header = Buffer.from(JSON.stringify({ format: FORMAT, meta, sections: refs } satisfies Header<M>), 'utf8')
-  const lead = Buffer.alloc(12)
+  put(header, at)
+  const lead = Buffer.alloc(LEAD)
   lead.write(MAGIC, 0, 'latin1')
   lead.writeUInt32LE(FORMAT, 4)
-  lead.writeUInt32LE(header.length, 8)
-  const out: Buffer[] = [lead, header, Buffer.alloc(pad8(12 + header.length))]
-  for (const { bytes } of parts) out.push(bytes, Buffer.alloc(pad8(bytes.length)))
+  lead.writeUIntLE(at, 8, 6)
+  lead.writeUInt32LE(header.length, 16)
+  put(lead, 0)
+}
+
+/** The file's bytes as a list of buffers (written one after the other). */
+export function encodeImage<M>(meta: M, sections: Sections | SectionStream): Buffer[] {
+  const out: Buffer[] = []
+  writeImage(meta, sections, (bytes, position) => {
+    if (position === 0 && out.length) out[0] = bytes // the lead, once the header is placed
+    else out.push(bytes)
+  })
   return out
 }
 
-/** Reads the header only (what the index was built from), or null when the bytes are not an index file of this format. */
-function headerOf<M>(buf: Buffer): { header: Header<M>; start: number } | null {
-  if (buf.length < 12 || buf.toString('latin1', 0, 4) !== MAGIC || buf.readUInt32LE(4) !== FORMAT) return null
-  const len = buf.readUInt32LE(8)
-  if (12 + len > buf.length) return null
-  const header = JSON.parse(buf.toString('utf8', 12, 12 + len)) as Header<M>
-  return { header, start: 12 + len + pad8(12 + len) }
+/** Where the header lies, from the lead, or null when the bytes are not the lead of an index file of this format. */
+function leadOf(lead: Buffer, size: number): { at: number; length: number } | null {
+  if (lead.length < LEAD || lead.toString('latin1', 0, 4) !== MAGIC || lead.readUInt32LE(4) !== FORMAT) return null
+  const at = lead.readUIntLE(8, 6), length = lead.readUInt32LE(16)
+  return at >= LEAD && at + length <= size ? { at, length } : null
+}
+
+/** The header from its bytes, or null when its sections do not all lie within the file's `size` bytes. */
+function headerOf<M>(bytes: Buffer, at: number, size: number): Header<M> | null {
+  const header = JSON.parse(bytes.toString('utf8')) as Header<M>
+  return header.format === FORMAT && header.sections.every((r) => r.offset >= LEAD && r.offset + r.bytes <= at && at <= size) ? header : null
 }
 
 /**
  * The sections back from the file's bytes, each decoded when first asked for (typed arrays are copies, so the file's
  * buffer can go): a loader that takes them one at a time never holds every decoded section, or every text index's
- * JSON, at once.
+ * JSON, at once. Null when the bytes are not an index file of this format.
  */
 export function decodeImage<M>(buf: Buffer): { meta: M; sections: SectionSource } | null {
-  const h = headerOf<M>(buf)
-  if (!h) return null
-  if (h.header.sections.some((r) => h.start + r.offset + r.bytes > buf.length)) return null
-  const refs = new Map(h.header.sections.map((r) => [r.name, r]))
+  const l = leadOf(buf, buf.length)
+  const header = l ? headerOf<M>(buf.subarray(l.at, l.at + l.length), l.at, buf.length) : null
+  if (!header) return null
+  const refs = new Map(header.sections.map((r) => [r.name, r]))
   const decode = (r: SectionRef): Section => {
-    const at = h.start + r.offset
     const b = new ArrayBuffer(r.bytes)
-    new Uint8Array(b).set(buf.subarray(at, at + r.bytes))
+    new Uint8Array(b).set(buf.subarray(r.offset, r.offset + r.bytes))
     return sectionOf(r, b)
   }
   return {
-    meta: h.header.meta,
+    meta: header.meta,
     sections: { names: () => [...refs.keys()], get: (name) => { const r = refs.get(name); return r ? decode(r) : undefined } },
   }
 }
@@ -125,17 +155,17 @@ export async function openImageFile<M>(path: string): Promise<OpenImage<M> | nul
       return b
     }
     const size = (await file.stat()).size
-    const lead = Buffer.alloc(12)
-    await file.read(lead, 0, 12, 0)
-    const len = lead.toString('latin1', 0, 4) === MAGIC && lead.readUInt32LE(4) === FORMAT ? lead.readUInt32LE(8) : -1
-    const h = len >= 0 && 12 + len <= size ? headerOf<M>(Buffer.concat([lead, Buffer.from(await read(12, len))])) : null
-    if (!h || h.header.sections.some((r) => h.start + r.offset + r.bytes > size)) { await file.close(); return null }
-    const refs = new Map(h.header.sections.map((r) => [r.name, r]))
+    const lead = Buffer.alloc(LEAD)
+    const { bytesRead } = await file.read(lead, 0, LEAD, 0)
+    const l = bytesRead === LEAD ? leadOf(lead, size) : null
+    const header = l ? headerOf<M>(Buffer.from(await read(l.at, l.length)), l.at, size) : null
+    if (!header) { await file.close(); return null }
+    const refs = new Map(header.sections.map((r) => [r.name, r]))
     return {
-      meta: h.header.meta,
+      meta: header.meta,
       sections: {
         names: () => [...refs.keys()],
-        get: async (name) => { const r = refs.get(name); return r ? sectionOf(r, await read(h.start + r.offset, r.bytes)) : undefined },
+        get: async (name) => { const r = refs.get(name); return r ? sectionOf(r, await read(r.offset, r.bytes)) : undefined },
       },
       close: () => file.close(),
     }
@@ -145,14 +175,23 @@ export async function openImageFile<M>(path: string): Promise<OpenImage<M> | nul
   }
 }
 
-/** Writes the file whole or not at all: to a temporary name beside it, then renamed over the old one. */
-export function writeImageFile(path: string, buffers: Buffer[]): void {
+/**
+ * Writes the file whole or not at all: to a temporary name beside it, then renamed over the old one. Each section
+ * is asked for, encoded and written before the next, so only one is held at a time.
+ */
+export function writeImageFile<M>(path: string, meta: M, sections: Sections | SectionStream): void {
   const tmp = `${path}.${process.pid}.tmp`
   const fd = openSync(tmp, 'w')
   try {
-    for (const b of buffers) for (let done = 0; done < b.length;) done += writeSync(fd, b, done, b.length - done)
-    fsyncSync(fd)
-  } finally { closeSync(fd) }
-  renameSync(tmp, path)
+    try {
+      writeImage(meta, sections, (b, position) => {
+        for (let done = 0; done < b.length;) done += writeSync(fd, b, done, b.length - done, position + done)
+      })
+      fsyncSync(fd)
+    } finally { closeSync(fd) }
+    renameSync(tmp, path)
+  } catch (err) {
+    rmSync(tmp, { force: true })
+    throw err
+  }
 }
-

@@ -39,8 +39,11 @@ function safeJson(s: string): Record<string, unknown> {
   try { return JSON.parse(s) as Record<string, unknown> } catch { return {} }
 }
 
-/** Builds the index from every part in the database, in batches so the rows read never sit in memory all at once. */
-export async function buildFromDatabase(): Promise<PartSearchIndex> {
+/**
+ * Builds the index from every part in the database, in batches so the rows read never sit in memory all at once.
+ * `textLater`: the text indexes are left for the save to fill one part type at a time (see `PartSearchIndex.finish`).
+ */
+export async function buildFromDatabase({ textLater = false } = {}): Promise<PartSearchIndex> {
   const built = new PartSearchIndex(FITTING_RULES)
   for (let after = 0; ;) {
     const batch = await loadInputs(undefined, after)
@@ -48,7 +51,7 @@ export async function buildFromDatabase(): Promise<PartSearchIndex> {
     built.addBatch(batch)
     after = batch[batch.length - 1]!.id
   }
-  built.finish()
+  built.finish(textLater)
   return built
 }
 

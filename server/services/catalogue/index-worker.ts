@@ -12,14 +12,18 @@ export type IndexWorkerMessage = { type: 'saved'; revision: number; parts: numbe
 async function main(): Promise<IndexWorkerMessage> {
   const job = workerData as IndexJob
   process.env.DATABASE_URL = job.databaseUrl
-  const { closeDb } = await import('../../utils/db')
+  const { closeDb, readWithoutMemoryMapping } = await import('../../utils/db')
+  readWithoutMemoryMapping() // every part is read once: mapped pages would only add to the process's memory
   const { buildFromDatabase, catalogueRevision } = await import('./index-source')
   const { saveIndex } = await import('./saved-index')
   try {
     const revision = await catalogueRevision() // before the rows: a change while they are read is re-read later
-    const index = await buildFromDatabase()
-    saveIndex(index, revision, job.path)
-    return { type: 'saved', revision, parts: index.size }
+    // the index is only saved here: its text indexes are filled one part type at a time as the file is written,
+    // and each piece goes once written, so the thread never holds the whole index and its file's sections at once
+    const index = await buildFromDatabase({ textLater: true })
+    const parts = index.size
+    saveIndex(index, revision, job.path, true)
+    return { type: 'saved', revision, parts }
   } finally {
     // closed before the answer goes: the thread then ends on its own with nothing in flight (the sqlite3 driver
     // aborts the process when a thread is torn down while a close is pending)

@@ -56,7 +56,7 @@ export function indexFingerprint(): string {
   const sample = new PartSearchIndex(FITTING_RULES)
   sample.addAll(SAMPLES)
   const h = createHash('sha256').update(`${INDEX_FORMAT}|${COMMON_DF}`)
-  for (const b of encodeImage({}, sample.toSections())) h.update(b)
+  for (const b of encodeImage({}, sample.sections())) h.update(b)
   fingerprint = h.digest('hex').slice(0, 24)
   return fingerprint
 }
@@ -74,11 +74,14 @@ export async function readSavedIndex(): Promise<{ index: PartSearchIndex; meta: 
   } finally { await image.close() }
 }
 
-/** Saves the index as of `revision` (written whole or not at all). */
-export function saveIndex(index: PartSearchIndex, revision: number, path = savedIndexPath()): void {
+/**
+ * Saves the index as of `revision` (written whole or not at all), one section at a time. With `consume` the index
+ * lets go of each piece as it is written and is empty after: for a process that only builds it to save it.
+ */
+export function saveIndex(index: PartSearchIndex, revision: number, path = savedIndexPath(), consume = false): void {
   if (!path) return
   const meta: SavedMeta = { fingerprint: indexFingerprint(), revision, parts: index.size, maxPartId: index.maxPartId(), savedAt: new Date().toISOString() }
-  writeImageFile(path, encodeImage(meta, index.toSections()))
+  writeImageFile(path, meta, index.sections(consume))
 }
 
 /** Saves once the current request work is done; a failure is logged, never thrown (the next start builds again). */

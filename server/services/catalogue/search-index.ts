@@ -149,13 +149,17 @@ export class PartSearchIndex {
   private dims2Of: Float64Array = new Float64Array(0) // second piston diameter
   /** each listed slot's place in its type's list (active first, then by SKU): matches are ordered by it, not by SKU text */
   private rankOf: Int32Array = new Int32Array(0)
-  // the word ids of each slot: those loaded from a saved file in one buffer (`termBuf` from `termAt[slot]` to
-  // `termAt[slot + 1]`; a million views of it would cost ~80 MB), later slots one array each in `termsOf` (at
-  // slot - the loaded count); a removed slot (status 2) has none
+  // the word ids of each slot: the first `flat` slots (those loaded from a saved file, or added in bulk) in one
+  // buffer (`termBuf` from `termAt[slot]` to `termAt[slot + 1]`; a million arrays, or views of one, would cost
+  // ~80-150 MB), later slots one array each in `termsOf` (at slot - flat); a removed slot (status 2) has none.
+  // `termBuf` and `termAt` may have room beyond what is used
   private termBuf: Int32Array = new Int32Array(0)
   private termAt: Int32Array = new Int32Array(1)
+  private flat = 0
   private termsOf: (Int32Array | null)[] = []
   private fitKeyOf: string[] = []
+  /** one string per distinct fitting key (they repeat across parts) */
+  private fitKeys = new Map<string, string>()
   private slotOf = new PartSlots()
   private ids = new IdentifierTable()
   private oldNotes = new Map<string, { oldSku: string; note: string }>()
@@ -175,33 +179,80 @@ export class PartSearchIndex {
    * arrays, the identifiers, the words, and per part type its text index (minisearch's own JSON), list and counts.
    */
   toSections(): Sections {
+    return new Map(this.sections())
+  }
+
+  /**
+   * The sections of {@link toSections} one at a time, each made when the next is asked for, so a writer that
+   * writes each before asking for the next never holds them all. With `consume` the index lets go of each piece
+   * once its section is made, and is empty after (the index worker saves it so, its memory shrinking as the file
+   * grows instead of holding the whole index and its copy). Columns are views of the index's own arrays, not
+   * copies: take each before the index changes.
+   */
+  *sections(consume = false): Generator<[name: string, value: Section]> {
+    if (!consume) this.fillTextLeft()
+    // per part type first: a text index left for later (finish) is filled here, saved and let go before the next
+    for (const [type, ti] of this.types) {
+      if (this.textLater) this.fillText(type)
+      const json = JSON.stringify(ti.ms)
+      if (consume) ti.ms = new MiniSearch(MS_OPTIONS)
+      yield [`${type}.ms`, json]
+      yield [`${type}.list`, Int32Array.from(ti.list)]
+      yield [`${type}.state`, Int32Array.of(ti.sorted ? 1 : 0, ti.live)]
+      yield [`${type}.df`, Int32Array.from([...ti.df].flat())]
+      const common = [...ti.common]
+      if (consume) { ti.list = []; ti.df = new Map(); ti.common = new Map() }
+      yield [`${type}.commonWords`, Int32Array.from(common.map(([w]) => w))]
+      yield [`${type}.commonCounts`, Int32Array.from(common.map(([, slots]) => slots.length))]
+      let size = 0
+      for (const [, slots] of common) size += slots.length
+      const commonSlots = new Int32Array(size)
+      for (let i = 0, at = 0; i < common.length; i++) { commonSlots.set(common[i]![1], at); at += common[i]![1].length }
+      common.length = 0
+      yield [`${type}.commonSlots`, commonSlots]
+    }
+    this.textLater = false
     const n = this.slots
-    const out: Sections = new Map<string, Section>([
-      ['partId', this.partId.slice(0, n)], ['sku', this.skuOf], ['type', this.typeOf.slice(0, n)],
-      ['axle', this.axleOf.slice(0, n)], ['status', this.statusOf.slice(0, n)], ['attrs', this.attrsOf.slice(0, n)],
-      ['dims2', this.dims2Of.slice(0, n)], ['fitKey', this.fitKeyOf], ['vocab', this.vocabList],
-      ...DIMS.map((d): [string, Section] => [`dim.${d}`, this.dimsOf[d].slice(0, n)]),
-    ])
+    // the word ids per part (they read the status column)
     const counts = new Int32Array(n)
     let total = 0
     for (let i = 0; i < n; i++) { const t = this.wordsOf(i); counts[i] = t ? t.length : -1; total += t ? t.length : 0 }
+    yield ['termCounts', counts]
     const terms = new Int32Array(total)
     for (let i = 0, at = 0; i < n; i++) { const t = this.wordsOf(i); if (t) { terms.set(t, at); at += t.length } }
-    out.set('termCounts', counts).set('terms', terms)
-    const ids = this.ids.image()
-    out.set('id.bytes', ids.bytes).set('id.starts', ids.starts).set('id.slots', ids.slots).set('id.kinds', ids.kinds)
-    const notes = [...this.oldNotes]
-    out.set('notes.keys', notes.map(([k]) => k)).set('notes.old', notes.map(([, v]) => v.oldSku)).set('notes.text', notes.map(([, v]) => v.note))
-    for (const [type, ti] of this.types) {
-      const common = [...ti.common]
-      out.set(`${type}.ms`, JSON.stringify(ti.ms)).set(`${type}.list`, Int32Array.from(ti.list))
-        .set(`${type}.state`, Int32Array.of(ti.sorted ? 1 : 0, ti.live))
-        .set(`${type}.df`, Int32Array.from([...ti.df].flat()))
-        .set(`${type}.commonWords`, Int32Array.from(common.map(([w]) => w)))
-        .set(`${type}.commonCounts`, Int32Array.from(common.map(([, slots]) => slots.length)))
-        .set(`${type}.commonSlots`, Int32Array.from(common.flatMap(([, slots]) => Array.from(slots))))
+    if (consume) { this.termBuf = new Int32Array(0); this.termAt = new Int32Array(1); this.flat = 0; this.termsOf = [] }
+    yield ['terms', terms]
+    yield ['partId', this.partId.subarray(0, n)]
+    yield ['sku', this.skuOf]
+    if (consume) this.skuOf = []
+    yield ['type', this.typeOf.subarray(0, n)]
+    yield ['axle', this.axleOf.subarray(0, n)]
+    yield ['status', this.statusOf.subarray(0, n)]
+    yield ['attrs', this.attrsOf.subarray(0, n)]
+    yield ['dims2', this.dims2Of.subarray(0, n)]
+    yield ['fitKey', this.fitKeyOf]
+    if (consume) { this.fitKeyOf = []; this.fitKeys = new Map() }
+    yield ['vocab', this.vocabList]
+    if (consume) { this.vocabList = []; this.vocab = new Map() }
+    for (const d of DIMS) yield [`dim.${d}`, this.dimsOf[d].subarray(0, n)]
+    if (consume) {
+      const empty = new PartSearchIndex()
+      this.slots = 0
+      this.slotOf = empty.slotOf
+      this.partId = empty.partId; this.typeOf = empty.typeOf; this.axleOf = empty.axleOf; this.statusOf = empty.statusOf
+      this.attrsOf = empty.attrsOf; this.dimsOf = empty.dimsOf; this.dims2Of = empty.dims2Of; this.rankOf = empty.rankOf
     }
-    return out
+    const ids = this.ids.image()
+    if (consume) this.ids = new IdentifierTable()
+    yield ['id.bytes', ids.bytes]
+    yield ['id.starts', ids.starts]
+    yield ['id.slots', ids.slots]
+    yield ['id.kinds', ids.kinds]
+    const notes = [...this.oldNotes]
+    if (consume) this.oldNotes = new Map()
+    yield ['notes.keys', notes.map(([k]) => k)]
+    yield ['notes.old', notes.map(([, v]) => v.oldSku)]
+    yield ['notes.text', notes.map(([, v]) => v.note)]
   }
 
   /**
@@ -231,14 +282,14 @@ export class PartSearchIndex {
     ix.rankOf = new Int32Array(ix.dims2Of.length)
     for (const d of DIMS) ix.dimsOf[d] = await get<Float64Array>(`dim.${d}`)
     // fitting keys repeat across parts: one string each
-    const keys = new Map<string, string>()
-    ix.fitKeyOf = (await get<string[]>('fitKey')).map((k) => { const s = keys.get(k); if (s !== undefined) return s; keys.set(k, k); return k })
+    ix.fitKeyOf = (await get<string[]>('fitKey')).map((k) => ix.fitKeyString(k))
     await pause()
     ix.vocabList = await get<string[]>('vocab')
     ix.vocab = new Map(ix.vocabList.map((w, i) => [w, i]))
     const counts = await get<Int32Array>('termCounts'), terms = await get<Int32Array>('terms')
     ix.termBuf = terms
     ix.termAt = new Int32Array(counts.length + 1)
+    ix.flat = counts.length
     for (let i = 0; i < counts.length; i++) ix.termAt[i + 1] = ix.termAt[i]! + Math.max(0, counts[i]!)
     await pause()
     for (let slot = 0; slot < ix.slots; slot++) if (ix.statusOf[slot] !== 2) ix.slotOf.set(ix.partId[slot]!, slot)
@@ -280,8 +331,8 @@ export class PartSearchIndex {
   /** The word ids of a slot's description and product line (null once removed). */
   private wordsOf(slot: number): Int32Array | null {
     if (this.statusOf[slot] === 2) return null
-    const loaded = this.termAt.length - 1
-    return slot < loaded ? this.termBuf.subarray(this.termAt[slot]!, this.termAt[slot + 1]!) : this.termsOf[slot - loaded]!
+    const flat = this.flat
+    return slot < flat ? this.termBuf.subarray(this.termAt[slot]!, this.termAt[slot + 1]!) : this.termsOf[slot - flat]!
   }
 
   private wordId(term: string): number {
@@ -306,8 +357,25 @@ export class PartSearchIndex {
     this.statusOf = gi(this.statusOf, new Uint8Array(next))
   }
 
-  /** Fills columns for a new slot; returns the slot and its words. */
-  private place(input: IndexInput): { slot: number; words: number[] } {
+  /** The one string kept for this fitting key. */
+  private fitKeyString(key: string): string {
+    const s = this.fitKeys.get(key)
+    if (s !== undefined) return s
+    this.fitKeys.set(key, key)
+    return key
+  }
+
+  /** Appends a slot's words to the one buffer (bulk adds while every slot so far is in it). */
+  private putFlat(words: number[]): void {
+    const end = this.termAt[this.flat]!
+    if (this.termAt.length < this.flat + 2) { const b = new Int32Array(Math.ceil(this.termAt.length * 1.5) + 1024); b.set(this.termAt); this.termAt = b }
+    if (this.termBuf.length < end + words.length) { const b = new Int32Array(Math.ceil(this.termBuf.length * 1.5) + words.length + 4096); b.set(this.termBuf.subarray(0, end)); this.termBuf = b }
+    this.termBuf.set(words, end)
+    this.termAt[++this.flat] = end + words.length
+  }
+
+  /** Fills columns for a new slot; returns the slot and its words. `bulk`: words into the one buffer when it can. */
+  private place(input: IndexInput, bulk = false): { slot: number; words: number[] } {
     const slot = this.slots++
     this.grow(slot + 1)
     const type = input.type
@@ -327,8 +395,9 @@ export class PartSearchIndex {
       }
     }
     const words = [...new Set(indexTerms(`${input.description} ${input.productLine}`))].map((w) => this.wordId(w))
-    this.termsOf.push(Int32Array.from(words))
-    this.fitKeyOf.push(this.fittingRules ? fittingKey(type, input.specs, this.fittingRules[type]) : '')
+    if (bulk && slot === this.flat && !this.termsOf.length) this.putFlat(words)
+    else this.termsOf.push(Int32Array.from(words))
+    this.fitKeyOf.push(this.fittingRules ? this.fitKeyString(fittingKey(type, input.specs, this.fittingRules[type])) : '')
     this.slotOf.set(input.id, slot)
     const ti = this.types.get(type)!
     ti.list.push(slot)
@@ -362,29 +431,52 @@ export class PartSearchIndex {
   addBatch(inputs: Iterable<IndexInput>): void {
     for (const input of inputs) {
       if (this.slotOf.has(input.id)) continue
-      const { slot } = this.place(input)
+      const { slot } = this.place(input, true)
       this.ids.stage(this.identifierEntries(input, slot))
     }
   }
 
-  /** Bulk load, step 2: decides which words are common per type, fills the text indexes and sorts the identifiers. */
-  finish(): void {
+  /**
+   * Bulk load, step 2: decides which words are common per type, fills the text indexes and sorts the identifiers.
+   * With `textLater` the text indexes are filled when first needed instead: a save with `consume`
+   * ({@link sections}) fills, writes and drops them one part type at a time, so they never all sit in memory at
+   * once (at a million parts, ~250 MB for all of them); a search or change fills them all first.
+   */
+  finish(textLater = false): void {
     for (const ti of this.types.values()) for (const [w, n] of ti.df) if (n > COMMON_DF && !ti.common.has(w)) ti.common.set(w, [])
-    const docs = new Map<PartType, { id: number; text: string }[]>()
     for (let slot = 0; slot < this.slots; slot++) {
       const terms = this.wordsOf(slot)
       if (!terms) continue
-      const type = PART_TYPES[this.typeOf[slot]!]!
-      const ti = this.types.get(type)!
+      const ti = this.types.get(PART_TYPES[this.typeOf[slot]!]!)!
       for (const w of terms) postTo(ti.common, w, slot)
-      if (ti.ms.has(slot)) continue
-      let arr = docs.get(type)
-      if (!arr) docs.set(type, (arr = []))
-      arr.push({ id: slot, text: this.msText(type, terms) })
     }
-    for (const [type, arr] of docs) this.types.get(type)!.ms.addAll(arr)
+    this.textLater = true
+    if (!textLater) this.fillTextLeft()
     this.ids.commit()
     for (const t of this.types.keys()) this.listOf(t)
+  }
+
+  /** whether text indexes are left to fill ({@link finish}) */
+  private textLater = false
+
+  /** Fills a part type's text index with its parts not yet in it (one type's documents at a time: all at once cost ~60 MB more at a million parts). */
+  private fillText(type: PartType): void {
+    const ti = this.types.get(type)!
+    const code = TYPE_CODE.get(type)!
+    const docs: { id: number; text: string }[] = []
+    for (let slot = 0; slot < this.slots; slot++) {
+      if (this.typeOf[slot] !== code) continue
+      const terms = this.wordsOf(slot)
+      if (terms && !ti.ms.has(slot)) docs.push({ id: slot, text: this.msText(type, terms) })
+    }
+    if (docs.length) ti.ms.addAll(docs)
+  }
+
+  /** Fills every text index left for later. */
+  private fillTextLeft(): void {
+    if (!this.textLater) return
+    for (const type of this.types.keys()) this.fillText(type)
+    this.textLater = false
   }
 
   /** Adds many parts at once. */
@@ -407,6 +499,7 @@ export class PartSearchIndex {
    * pass over the identifiers and each type's list, not one per part.
    */
   apply(inputs: IndexInput[], removed: number[]): void {
+    this.fillTextLeft()
     const gone = new Set<number>()
     const touched = new Set<PartType>()
     for (const partId of [...removed, ...inputs.map((i) => i.id)]) {
@@ -422,7 +515,7 @@ export class PartSearchIndex {
         else ti.df.set(w, n)
       }
       this.statusOf[slot] = 2
-      if (slot >= this.termAt.length - 1) this.termsOf[slot - (this.termAt.length - 1)] = null
+      if (slot >= this.flat) this.termsOf[slot - this.flat] = null
       this.slotOf.delete(partId)
       gone.add(slot)
       touched.add(type)
@@ -485,6 +578,7 @@ export class PartSearchIndex {
 
   /** Runs a plan with the route's filters; hits in rank order. */
   search(plan: SearchPlan, filters: SearchFilters = {}): { hits: Hit[]; types: PartType[] } {
+    this.fillTextLeft()
     let types = new Set<PartType>(PART_TYPES)
     const keep = (ts: readonly PartType[]) => { types = new Set([...types].filter((t) => ts.includes(t))) }
     if (plan.types) keep(plan.types)
@@ -525,7 +619,7 @@ export class PartSearchIndex {
     const words = plan.terms.filter((t) => t.kind === 'word').map((t) => ({ t, ids: this.resolveWord(t) }))
     // per query word, a flag per word id (the vocabulary is small: a few hundred to a few thousand words)
     const wordMasks = words.map((w) => { const m = new Uint8Array(this.vocabList.length); for (const id of w.ids) m[id] = 1; return m })
-    const termsOf = this.termsOf, termBuf = this.termBuf, termAt = this.termAt, loaded = termAt.length - 1
+    const termsOf = this.termsOf, termBuf = this.termBuf, termAt = this.termAt, loaded = this.flat
     const hasWords = (slot: number, mode: 'AND' | 'OR') => {
       if (!wordMasks.length) return true
       if (statusOf[slot] === 2) return false

@@ -1,11 +1,12 @@
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs'
+import { mkdtempSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs'
 import os from 'node:os'
 import { join } from 'node:path'
 import { afterAll, describe, expect, it } from 'vitest'
 import { FITTING_RULES } from '#shared/utils/catalogue/fitting-rules'
+import { IdentifierTable, type IdEntry } from '../../../server/services/catalogue/identifier-table'
 import { planQuery } from '../../../server/services/catalogue/search-plan'
 import { PartSearchIndex, type IndexInput } from '../../../server/services/catalogue/search-index'
-import { decodeImage, encodeImage, writeImageFile } from '../../../server/services/catalogue/index-image'
+import { decodeImage, encodeImage, openImageFile, writeImageFile, type Section } from '../../../server/services/catalogue/index-image'
 
 // A small mixed catalogue with words common enough (on more than 300 parts of a type) to be kept as posting lists
 // rather than in the text index, OE numbers, superseded SKUs, discontinued parts and caliper piston pairs.
@@ -85,11 +86,87 @@ describe('the saved part search index', () => {
       ['a', Int32Array.of(-1, 2, 2147483647)], ['b', Uint8Array.of(0, 255, 7)], ['c', Float64Array.of(Number.NaN, 22.225, -0)],
       ['d', ['syd0001994', '', 'é']], ['e', '{"x":1}'], ['f', []],
     ])
-    writeImageFile(path, encodeImage({ v: 1 }, sections))
+    writeImageFile(path, { v: 1 }, sections)
     const back = decodeImage<{ v: number }>(readFileSync(path))!
     expect(back.meta).toEqual({ v: 1 })
     expect(back.sections.names().map((n) => [n, back.sections.get(n)])).toEqual([...sections])
+    expect(Buffer.concat(encodeImage({ v: 1 }, sections))).toEqual(readFileSync(path)) // the same bytes in memory
     expect(decodeImage(Buffer.from('not an index file at all'))).toBeNull()
+  })
+
+  it('writes each section before the next is made, and an index saved while it lets go of its pieces loads alike', async () => {
+    const path = join(dir, 'streamed.bin')
+    const tmp = `${path}.${process.pid}.tmp`
+    const seen: number[] = []
+    function* made(): Generator<[string, Section]> {
+      for (let i = 0; i < 4; i++) {
+        seen.push(i ? statSync(tmp).size : -1) // the file as the next section is asked for
+        yield [`s${i}`, new Int32Array(1000).fill(i)]
+      }
+    }
+    writeImageFile(path, {}, made())
+    // lead 24 bytes, then 4000 bytes a section: each on disk before the next is made
+    expect(seen).toEqual([-1, 24 + 4000, 24 + 8000, 24 + 12000])
+    expect(decodeImage(readFileSync(path))!.sections.get('s3')).toEqual(new Int32Array(1000).fill(3))
+
+    const built = new PartSearchIndex(FITTING_RULES), consumed = new PartSearchIndex(FITTING_RULES), later = new PartSearchIndex(FITTING_RULES)
+    built.addAll(PARTS)
+    // the worker's way: text indexes left for the save to fill one part type at a time, each piece let go once written
+    consumed.addBatch(PARTS.slice(0, 1000))
+    consumed.addBatch(PARTS.slice(1000))
+    consumed.finish(true)
+    const whole = join(dir, 'whole.bin'), piecewise = join(dir, 'piecewise.bin')
+    writeImageFile(whole, {}, built.sections())
+    writeImageFile(piecewise, {}, consumed.sections(true))
+    expect(readFileSync(piecewise)).toEqual(readFileSync(whole))
+    expect(consumed.size).toBe(0) // nothing of it left
+    const back = await PartSearchIndex.fromSections(decodeImage(readFileSync(piecewise))!.sections, FITTING_RULES)
+    expect(answers(back)).toEqual(answers(built))
+    // text indexes left for later are filled before a search or a change needs them
+    later.addBatch(PARTS)
+    later.finish(true)
+    expect(answers(later)).toEqual(answers(built))
+  })
+
+  it('refuses a file of the earlier layout (header first, format 1) instead of misreading it', async () => {
+    // format 1 by hand: "BLSI", 1, the header's length (uint32 little-endian), the header, sections from the next
+    // multiple of 8 with offsets counted from there
+    const data = Buffer.from(Int32Array.of(7, 8, 9).buffer)
+    const header = Buffer.from(JSON.stringify({ format: 1, meta: { revision: 3 }, sections: [{ name: 'a', kind: 'i32', offset: 0, bytes: 12, count: 3 }] }))
+    const lead = Buffer.alloc(12)
+    lead.write('BLSI', 0, 'latin1')
+    lead.writeUInt32LE(1, 4)
+    lead.writeUInt32LE(header.length, 8)
+    const old = Buffer.concat([lead, header, Buffer.alloc((8 - ((12 + header.length) % 8)) % 8), data])
+    const path = join(dir, 'format-1.bin')
+    writeFileSync(path, old)
+    expect(decodeImage(old)).toBeNull()
+    expect(await openImageFile(path)).toBeNull()
+  })
+})
+
+describe('the identifiers staged in bulk', () => {
+  it('sort as JavaScript sorts the keys (then kind, then slot), in one commit or added to a table already there', () => {
+    const entries: IdEntry[] = []
+    for (let i = 0; i < 3000; i++) {
+      const r = (i * 7919) % 2003
+      entries.push([`syp${String(r).padStart(7, '0')}`, i, 0], [String(r).padStart(7, '0'), i, 3], [`vlt${r % 97}${r}c`, i, 2])
+    }
+    entries.push(['syp0000001', 5, 1], ['syp', 9, 0], ['sy', 9, 0]) // a repeated key of another kind; keys that prefix others
+    // the reference: Array.prototype.sort on the plain strings
+    const want = [...entries].sort((a, b) => (a[0] < b[0] ? -1 : a[0] > b[0] ? 1 : a[2] - b[2] || a[1] - b[1]))
+    const read = (t: IdentifierTable) => Array.from({ length: t.size }, (_, e): IdEntry => [t.key(e), t.slot(e), t.kind(e)])
+    const once = new IdentifierTable()
+    for (let i = 0; i < entries.length; i += 7) once.stage(entries.slice(i, i + 7))
+    once.commit()
+    expect(read(once)).toEqual(want)
+    const twice = new IdentifierTable()
+    twice.stage(entries.slice(0, 4000))
+    twice.commit()
+    twice.stage(entries.slice(4000))
+    twice.commit()
+    expect(read(twice)).toEqual(want)
+    expect(once.exact('syp0000001').map((e) => [once.slot(e), once.kind(e)])).toEqual(want.filter((e) => e[0] === 'syp0000001').map((e) => [e[1], e[2]]))
   })
 })
 
@@ -120,5 +197,21 @@ describe('the saved index file beside the database', () => {
     const saved = (await readSavedIndex())!
     expect(saved.meta).toMatchObject({ revision: 42, parts: 300, maxPartId: 300, fingerprint: indexFingerprint() })
     expect(answers(saved.index)).toEqual(answers(built))
+
+    // a file of the earlier layout where this one is kept: not used (the loader builds the index instead), and
+    // the next save replaces it
+    const path = savedIndexPath()!
+    const header = Buffer.from(JSON.stringify({ format: 1, meta: saved.meta, sections: [] }))
+    const lead = Buffer.alloc(12)
+    lead.write('BLSI', 0, 'latin1')
+    lead.writeUInt32LE(1, 4)
+    lead.writeUInt32LE(header.length, 8)
+    writeFileSync(path, Buffer.concat([lead, header]))
+    expect(await readSavedIndex()).toBeNull()
+    saveIndex(built, 43, path, true)
+    expect(built.size).toBe(0) // let go of as it was written
+    const again = (await readSavedIndex())!
+    expect(again.meta).toMatchObject({ revision: 43, parts: 300, maxPartId: 300 })
+    expect(answers(again.index)).toEqual(answers(saved.index))
   })
 })
