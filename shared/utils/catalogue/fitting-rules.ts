@@ -28,8 +28,15 @@ export const FITTING_RULES: Record<PartType, FittingRule[]> = {
   fluid: [{ key: 'grade' }],
 }
 
-/** True when `b` fits where `a` fits by the rules above. */
+/**
+ * True when `b` fits where `a` fits by the rules above. A match needs at least one measured figure of the type (a
+ * rule with a tolerance; for a type without one, any rule's figure) recorded on both parts: two parts with nothing
+ * recorded (new parts a price file brought, before their specifications are entered) are not alternatives.
+ */
 export function sameFitting(type: PartType, a: Record<string, unknown>, b: Record<string, unknown>): boolean {
+  const measured = FITTING_RULES[type].filter((r) => r.tolerance !== undefined)
+  const deciding = measured.length ? measured : FITTING_RULES[type]
+  if (!deciding.some((r) => !absent(a[r.key]) && !absent(b[r.key]))) return false
   for (const rule of FITTING_RULES[type]) {
     const x = a[rule.key], y = b[rule.key]
     if (absent(x) && absent(y)) continue

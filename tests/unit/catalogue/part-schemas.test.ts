@@ -79,6 +79,15 @@ describe('compatible alternatives', () => {
     expect(sameFitting('caliper', caliper, { ...caliper, pistonDiametersMm: [54] })).toBe(false)
     expect(sameFitting('caliper', caliper, { ...caliper, condition: 'remanufactured', coreDepositApplies: true })).toBe(true)
   })
+
+  it('never offers a part with no fitting figure recorded as an alternative', () => {
+    // a 300 mm front disc and a 264 mm rear disc, both brought by a price file with no specifications yet
+    expect(sameFitting('disc', {}, {})).toBe(false)
+    expect(sameFitting('disc', { axle: 'front' }, { axle: 'front' })).toBe(false) // an axle is not a size
+    expect(sameFitting('disc', disc, {})).toBe(false)
+    expect(sameFitting('fluid', { grade: 'DOT 4' }, { grade: 'DOT 4' })).toBe(true) // fluid is matched by grade alone
+    expect(sameFitting('fluid', {}, {})).toBe(false)
+  })
 })
 
 describe('query schemas', () => {
