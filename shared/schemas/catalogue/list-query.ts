@@ -16,13 +16,16 @@ export type DimensionRange = { min?: number; max?: number }
 /** Exact `<dim>Mm` filters match within this (the catalogue states 22.22 for a 7/8 in bore of 22.225 mm). */
 export const EXACT_DIMENSION_TOLERANCE_MM = 0.01
 
+/** How each filter is named in its messages, as the search form labels it (never the parameter's name). */
+const cap = (d: string) => `${d[0]!.toUpperCase()}${d.slice(1)}`
+const FILTER_WORDS = { Mm: (d: string) => `${cap(d)} (mm)`, Min: (d: string) => `${cap(d)} from (mm)`, Max: (d: string) => `${cap(d)} to (mm)` }
 const dimensionFilters: Record<string, z.ZodType> = {}
 for (const d of DIMENSIONS) {
-  for (const suffix of ['Mm', 'Min', 'Max']) dimensionFilters[`${d}${suffix}`] = queryNumber(`${d}${suffix}`, 0, 2000)
+  for (const suffix of ['Mm', 'Min', 'Max'] as const) dimensionFilters[`${d}${suffix}`] = queryNumber(FILTER_WORDS[suffix](d), 0, 2000)
 }
 
 export const PartListQuerySchema = PageQuerySchema.extend({
-  q: queryText('q', 200),
+  q: queryText('Search', 200),
   type: optionalQuery(PartTypeSchema),
   axle: optionalQuery(AxleSchema),
   ...dimensionFilters,
@@ -30,7 +33,7 @@ export const PartListQuerySchema = PageQuerySchema.extend({
   const v = q as unknown as Record<string, number | undefined>
   for (const d of DIMENSIONS) {
     const lo = v[`${d}Min`], hi = v[`${d}Max`]
-    if (lo !== undefined && hi !== undefined && lo > hi) ctx.addIssue({ code: 'custom', path: [`${d}Max`], message: `${d}Max must not be less than ${d}Min` })
+    if (lo !== undefined && hi !== undefined && lo > hi) ctx.addIssue({ code: 'custom', path: [`${d}Max`], message: `${cap(d)} to must not be less than ${d} from` })
   }
 })
 

@@ -7,9 +7,9 @@ import { optionalQuery, queryInt, queryText } from './fields'
 import { SkuSchema } from './params'
 
 export const VehicleFacetsQuerySchema = z.object({
-  make: queryText('make', 60),
-  model: queryText('model', 80),
-  year: queryInt('year', 1950, 2100),
+  make: queryText('Make', 60),
+  model: queryText('Model', 80),
+  year: queryInt('Year', 1950, 2100),
 }).refine((q) => !q.model || q.make, { path: ['make'], error: 'choose a make before a model' })
   .refine((q) => !q.year || q.model, { path: ['model'], error: 'choose a model before a year' })
 export type VehicleFacetsQuery = z.infer<typeof VehicleFacetsQuerySchema>

@@ -100,6 +100,14 @@ describe('query schemas', () => {
     expect(q.pageSize).toBe(20)
   })
 
+  it('explains a bad filter in the words of the search form, never the parameter\'s name', () => {
+    const messages = (raw: Record<string, unknown>) => { try { parsePartListQuery(raw); return [] } catch (e) { return (e as { issues: { message: string }[] }).issues.map((i) => i.message) } }
+    expect(messages({ diameterMin: 'abc' })).toEqual(['Diameter from (mm) must be a number'])
+    expect(messages({ boreMm: '-1' })).toEqual(['Bore (mm) must be at least 0'])
+    expect(messages({ diameterMin: '300', diameterMax: '280' })).toEqual(['Diameter to must not be less than diameter from'])
+    expect(messages({ q: 'x'.repeat(201) })).toEqual(['Search is at most 200 characters'])
+  })
+
   it('names the malformed field', () => {
     const issues = (raw: Record<string, unknown>) => { try { parsePartListQuery(raw); return [] } catch (e) { return (e as { issues: { path: PropertyKey[] }[] }).issues.map((i) => i.path.join('.')) } }
     expect(issues({ diameterMin: 'abc' })).toEqual(['diameterMin'])
