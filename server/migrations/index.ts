@@ -26,6 +26,7 @@ import * as m0020 from './0020-steering-side'
 import * as m0021 from './0021-dashboard-figures'
 import * as m0023 from './0023-part-search-changes'
 import * as m0024 from './0024-trade-day-figures'
+import * as m0025 from './0025-parts-without-type-index'
 
 export interface Migration { name: string; up: (qi: QueryInterface) => Promise<void>; down: (qi: QueryInterface) => Promise<void> }
 
@@ -53,4 +54,5 @@ export const migrations: Migration[] = [
   { name: '0021-dashboard-figures', ...m0021 },
   { name: '0023-part-search-changes', ...m0023 },
   { name: '0024-trade-day-figures', ...m0024 },
+  { name: '0025-parts-without-type-index', ...m0025 },
 ]

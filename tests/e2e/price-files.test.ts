@@ -9,6 +9,7 @@ import ExcelJS from 'exceljs'
 import { parse as parseCsvSync } from 'csv-parse/sync'
 import { all as mathAll, create } from 'mathjs'
 import { existsSync, readdirSync } from 'node:fs'
+import sqlite3 from 'sqlite3'
 import { join, resolve } from 'node:path'
 import type { PageInfo } from '#shared/types/page'
 import type { PriceChangeRow, PriceFileDetail, PriceVersionSummary } from '#shared/types/price-files'
@@ -373,6 +374,10 @@ describe('the preview matches the file', () => {
     expect(refused[0].reason).toMatch(/appears more than once.*rows 2, 35/)
     expect(refused[1].reason).toMatch(/needs a part type and a description/)
     expect((await changes(counter, d.id, 'missing', '&pageSize=1')).meta.total).toBe(activeCount - 30)
+    // a part the file leaves out is listed with its SKU and the prices in use, read here from the catalogue itself
+    const [left] = await demoParts(1, 30)
+    const leftRow = (await changes(counter, d.id, 'missing', `&q=${encodeURIComponent(left!.sku)}`)).data.find((r) => r.sku === left!.sku)
+    expect(leftRow && [leftRow.sku, leftRow.oldListMinor, leftRow.oldTradeMinor]).toEqual([left!.sku, left!.list, left!.trade])
     // refusals found while comparing carry the row's cells as the file wrote them (the reading thread keeps no cells:
     // those rows are read again), here with the price typed without its second decimal
     const refusedCsv = parseCsvSync((await counter.get(`/api/price-files/${d.id}/rejects.csv`)).text.replace(/^\ufeff/, ''), { columns: true }) as Record<string, string>[]
@@ -475,11 +480,11 @@ describe('apply and roll back', () => {
       const ngt = branches.find((b) => b.code === 'NGT')!
       const stock = await one<{ quantity: number }>('SELECT quantity FROM stock_levels WHERE part_id = ? AND branch_id = ?', [parts[7]!.id, ngt.id])
       expect(stock.quantity).toBe(57)
-      // missing parts were marked discontinued
+      // missing parts were marked discontinued (the check stores each one as its part id alone, findings.ts)
       const missing = await one<{ n: number }>(`SELECT COUNT(*) AS n FROM parts WHERE status = 'discontinued'
         AND id IN (${onPostgres()
-          ? `SELECT (j.value->>2)::bigint FROM price_file_findings f, json_array_elements(f.rows::json) j WHERE f.price_file_id = ? AND f.kind = 'missing'`
-          : `SELECT j.value->>2 FROM price_file_findings f, json_each(f.rows) j WHERE f.price_file_id = ? AND f.kind = 'missing'`})`, [d.id])
+          ? `SELECT (j.value#>>'{}')::bigint FROM price_file_findings f, json_array_elements(f.rows::json) j WHERE f.price_file_id = ? AND f.kind = 'missing'`
+          : `SELECT j.value FROM price_file_findings f, json_each(f.rows) j WHERE f.price_file_id = ? AND f.kind = 'missing'`})`, [d.id])
       expect(missing.n).toBe(d.counts.missing)
       const setByNow = new Map((await setBy()).map((r) => [r.part_id, r.price_version_id]))
       for (const p of parts) expect(setByNow.get(p.id)).toBe(now.id)
@@ -606,10 +611,38 @@ describe('apply and roll back', () => {
         for (const n of noted) expect(n.revision).toBeGreaterThanOrEqual(r0)
       }
       expect(await triggers()).toEqual(triggersBefore)
+      // SQLite: the apply's connection checks no foreign keys and proves its references itself (versions.ts): the
+      // database's own check over every table finds no row pointing nowhere
+      if (!onPostgres()) expect(await all('PRAGMA foreign_key_check')).toEqual([])
     } finally {
       expect((await rollback(counter, d.id)).status).toBe(200)
     }
     expect(await triggers()).toEqual(triggersBefore)
+  })
+
+  it('refuses an apply whose changed part is no longer in the catalogue, and changes nothing (SQLite: proved, not looked up row by row)', async () => {
+    if (onPostgres()) return // PostgreSQL checks each reference itself; parts are never deleted through the product
+    const start = await activeVersion()
+    const before = await pricesOf(start.id)
+    const [p] = await demoParts(1, 40)
+    const d = await uploadAndCheck(counter, csv([HEAD, [p!.sku, '', '', money(p!.list + 11), '', '', '']]), 'gone.csv')
+    expect(d.counts).toMatchObject({ changed: 1, rejected: 0 })
+    // the database changed by hand behind the product's back: the check's list of prices to write now names a part
+    // id that no part has (the highest id ever given is below it)
+    const writer = new sqlite3.Database(env().dbPath)
+    try {
+      await new Promise<void>((res, rej) => writer.run(
+        `UPDATE price_file_findings SET rows = json_replace(rows, '$[0][0]', 987654321) WHERE price_file_id = ? AND kind = 'prices'`,
+        [d.id], (err) => (err ? rej(err) : res())))
+    } finally {
+      await new Promise<void>((res) => writer.close(() => res()))
+    }
+    const r = await counter.post(`/api/price-files/${d.id}/apply`, {})
+    expect(r.status).toBe(409)
+    expect(r.body.message).toMatch(/A part this file changes is no longer in the catalogue/)
+    expect(await activeVersion()).toEqual(start)
+    expect(await pricesOf(start.id)).toEqual(before)
+    expect(await all(`SELECT part_id FROM part_prices WHERE part_id = 987654321`)).toEqual([])
   })
 
   it('gives each new part its own prices and counts, branch by branch, a repeated new SKU left out', async () => {

@@ -23,8 +23,11 @@ let builtInMs = 0
 
 let indexRevision: number | null = null
 
-/** More changed parts than this (or than 5 % of the catalogue) and the index is built again rather than patched. */
-const MAX_PATCH = 20_000
+/**
+ * More changed parts than this (or than 5 % of the catalogue) and the index is built again rather than patched. A
+ * price file's apply that makes more new parts than this notes only this many and one more (versions.ts).
+ */
+export const MAX_PATCH = 20_000
 
 /** Parts noted as changed at or after `revision` (see migration 0023), or null when too many to patch. */
 async function changedSince(revision: number, parts: number): Promise<number[] | null> {

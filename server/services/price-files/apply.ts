@@ -151,7 +151,7 @@ async function applyNow(req: ApplyRequest): Promise<ApplyOutcome> {
         changes: { priceFileId: priceFile.id, version: reserved.version, previousPriceVersionId: previous, missingParts: req.missingParts, ...countsFor(priceFile) },
       })
       return { status: 'applied' as const, priceFileId: priceFile.id, priceVersionId: reserved.id, version: reserved.version, effectiveAt: null }
-    })
+    }, { referencesProvedByCaller: true }) // buildVersion proves what it writes (versions.ts, proveReferences)
     // the stored file goes and the admins' summary is sent after the answer: neither can undo the apply
     afterApply(req.priceFileId).catch((e) => console.error('[boreline] after-apply work failed:', e))
     refreshSnapshot()

@@ -31,7 +31,7 @@ export interface ComparisonResult {
 
 export class Comparison {
   /** findings per kind, in file order; a repeated SKU's first row is moved to the refusals at the end */
-  private readonly found = { new: new ChunkedList<unknown[]>(), changed: new ChunkedList<unknown[]>(), unchanged: new ChunkedList<unknown[]>(), missing: new ChunkedList<unknown[]>() }
+  private readonly found = { new: new ChunkedList<unknown[]>(), changed: new ChunkedList<unknown[]>(), unchanged: new ChunkedList<unknown[]>(), missing: new ChunkedList<unknown>() }
   /** refusals as tuples: they are sorted by row at the end */
   private readonly rejected: PriceCheckFinding[] = []
   /** for the apply, beside `found.changed` (same indexes) */
@@ -181,9 +181,8 @@ export class Comparison {
     if (this.mentioned.length !== snap.size) this.mentioned = new Uint8Array(snap.size)
     for (let i = 0; i < snap.size; i++) {
       if (this.mentioned[i] || snap.discontinued(i)) continue
-      const p = snap.part(i)
-      this.found.missing.push(storedFinding('missing', [null, snap.sku(i), p.id, null, null, p.list, null, p.trade, null, p.core ?? 0, null, p.pack, null, null, 0, null, null, null, null]))
-      if ((i & 4095) === 0) await yieldToLoop()
+      this.found.missing.push(snap.id(i)) // its id alone: the rest is the catalogue's (see storedFinding)
+      if ((i & 16383) === 0) await yieldToLoop()
     }
     this.rejected.sort((a, b) => a[F.row]! - b[F.row]!)
   }

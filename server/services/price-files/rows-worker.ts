@@ -34,6 +34,6 @@ async function run(job: RowJob): Promise<void> {
 if (parentPort) {
   // On Linux a thread has its own nice value and setPriority(0, …) changes the calling thread only: the reading
   // yields the CPU to the server thread, so requests are answered first while a file is checked
-  try { setPriority(0, 10) } catch { /* not permitted here: run at the normal priority */ }
+  try { setPriority(0, 5) } catch { /* not permitted here: run at the normal priority */ }
   void run(workerData as RowJob)
 }

@@ -76,7 +76,7 @@ async function activateOne(priceFileId: number): Promise<boolean> {
       changes: { priceFileId: fresh.id, version: reserved.version, previousPriceVersionId: previous, scheduledFor: fresh.effectiveAt?.toISOString(), ...countsFor(fresh) },
     })
     return true
-  })
+  }, { referencesProvedByCaller: true }) // buildVersion proves what it writes (versions.ts, proveReferences)
 }
 
 let timer: ReturnType<typeof setTimeout> | undefined

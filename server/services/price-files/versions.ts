@@ -10,14 +10,15 @@
  * statements and what they would have written is written once (`withoutRowTriggers`, `BULK_TRIGGERS`).
  */
 import { QueryTypes, type Transaction } from 'sequelize'
-import { getDb } from '../../utils/db'
+import { foreignKeysChecked, getDb } from '../../utils/db'
 import { jsonArrayAgg, jsonArrayLengthAt, jsonAt, jsonAtKey, jsonElements, jsonElementsForReading, jsonEntries, jsonPart, jsonValue, lastChanges, typed, withoutRowTriggers } from '../../utils/sql'
 import { PriceVersion } from '../../models/catalogue'
 import type { PriceFile } from '../../models/price-files'
 import type { MissingAction } from '../../../shared/types/price-files'
 import { activePriceVersionId } from '../price-versions'
+import { MAX_PATCH } from '../catalogue/catalogue-index'
 import { conflict } from '../errors'
-import { F, NEW_SHORT, NEW_STOCK, col, deleteFindings, findingsOf, newCol } from './findings'
+import { F, NEW_SHORT, NEW_STOCK, deleteFindings, findingsOf, missingPartId, newCol } from './findings'
 
 /** SQLite text for a date in the form Sequelize writes (so models read raw-SQL rows back alike). */
 export function sqlDate(d: Date): string {
@@ -100,6 +101,7 @@ export async function buildVersion(t: Transaction, priceFile: PriceFile, reserve
     // PostgreSQL: looked for first (a statement that fails there ends the transaction); SQLite: the insert skips a
     // clash and the count tells (one pass over the findings fewer)
     if (!rowTriggersOff) await refuseClash()
+    if (!await foreignKeysChecked(t)) await proveReferences(t, u)
     if (places) {
       await q(`INSERT INTO parts (id, sku, type, product_line, description, specs, status, created_at, updated_at)
                SELECT f.id, ${nc('sku')}, ${nc('type')}, '', ${nc('description')}, '{}', 'active', ${at}, ${at} FROM ${places.findings} f
@@ -118,13 +120,16 @@ export async function buildVersion(t: Transaction, priceFile: PriceFile, reserve
       // the part noted at the revision as it stands when the search trigger runs (before that part's own bump when
       // it is the newer trigger, as the migrations made them; after it otherwise), and the revision one up per part.
       // One INSERT numbers its rows one after another, so the n-th new part is the first id + n.
+      // Only the first MAX_PATCH + 1 are noted when there are more: the index reads this log from a revision it saw
+      // committed, which is before this transaction (then MAX_PATCH + 1 parts changed since is already "build the
+      // index again", catalogue-index.ts) or after it (then none of these count), never one in between.
       const noted = revision + (newestFirst.indexOf('parts_search_insert') < newestFirst.indexOf('parts_rev_insert') ? 0 : 1)
       if (created > 0) {
         const first = await one('SELECT MIN(id) AS n FROM parts WHERE id > $1', [lastPart])
         if (first !== places.first || await one('SELECT MAX(id) AS n FROM parts', []) !== first + created - 1) throw new Error('the new parts\' ids are not consecutive')
         await q(`INSERT INTO part_search_changes (part_id, revision)
-                 SELECT id, id - $1 + $2 FROM parts WHERE id >= $1
-                 ON CONFLICT (part_id) DO UPDATE SET revision = excluded.revision`, [first, noted])
+                 SELECT id, id - $1 + $2 FROM parts WHERE id >= $1 AND id <= $3
+                 ON CONFLICT (part_id) DO UPDATE SET revision = excluded.revision`, [first, noted, first + MAX_PATCH])
       }
       await bump('catalogue', created)
       await record(t, u, 'created', `SELECT id FROM parts WHERE id > ${Number(lastPart)}`)
@@ -145,7 +150,7 @@ export async function buildVersion(t: Transaction, priceFile: PriceFile, reserve
     if (rowTriggersOff) await bump('prices', await lastChanges(t))
 
     if (opts.missingParts === 'discontinue') {
-      await record(t, u, 'discontinued', `SELECT p.id FROM ${findingsOf(['missing'])} f JOIN parts p ON p.id = ${col('partId')} WHERE p.status = 'active'`)
+      await record(t, u, 'discontinued', `SELECT p.id FROM ${findingsOf(['missing'])} f JOIN parts p ON p.id = ${missingPartId()} WHERE p.status = 'active'`)
       await q(`UPDATE parts SET status = 'discontinued', updated_at = $2 WHERE id IN (${recorded('discontinued')})`, [u, now])
     }
     // discontinued parts that the file prices again are back in use
@@ -185,6 +190,24 @@ export async function buildVersion(t: Transaction, priceFile: PriceFile, reserve
   await q(`UPDATE price_versions SET status = 'retired', updated_at = $1 WHERE status = 'active'`, [now])
   await q(`UPDATE price_versions SET status = 'active', activated_at = $2, updated_at = $2 WHERE id = $1`, [reserved.id, now])
   return previous
+}
+
+/**
+ * SQLite, on a connection that checks no foreign keys (the apply asks for one: `referencesProvedByCaller` in
+ * withWrite), every reference the apply writes is proved instead of looked up row by row:
+ * - a new part's prices and counts name the id just given to it (`newPlaces`: the ids are checked to be the
+ *   consecutive ones made, and as many as the file's new rows), or the part found by its SKU when the check is older;
+ * - a branch is one of the `branches` rows, joined or read in this transaction; the price version is the one
+ *   reserved for this file; the person is the one signed in (people and branches are never deleted);
+ * - the parts whose prices or counts move are the check's, looked up here in one pass (parts are never deleted
+ *   either, so this only guards against a database changed by hand).
+ */
+async function proveReferences(t: Transaction, priceFileId: number): Promise<void> {
+  const [gone] = await getDb().query<{ id: number }>(
+    `SELECT x.id FROM (SELECT ${jsonAt('f.v', 0, 'int')} AS id FROM ${findingsOf(['prices', 'stock'])} f) x LEFT JOIN parts p ON p.id = x.id WHERE p.id IS NULL LIMIT 1`,
+    { bind: [priceFileId], type: QueryTypes.SELECT, transaction: t },
+  )
+  if (gone) throw conflict('A part this file changes is no longer in the catalogue. Check the file again before applying it.')
 }
 
 /** Where the new findings' places begin and end, for SQL over price_file_findings `c` (one row per chunk). */

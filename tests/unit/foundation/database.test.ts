@@ -2,12 +2,12 @@ import { mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { QueryTypes } from 'sequelize'
+import { QueryTypes, type Transaction } from 'sequelize'
 
 const dir = mkdtempSync(join(tmpdir(), 'boreline-db-'))
 process.env.DATABASE_URL = `sqlite:${join(dir, 'unit.sqlite')}`
 
-const { getDb, closeDb, withWrite, storageFromUrl } = await import('../../../server/utils/db')
+const { getDb, closeDb, foreignKeysChecked, withWrite, storageFromUrl } = await import('../../../server/utils/db')
 const { migrateUp, appliedMigrationCount, pendingMigrationCount } = await import('../../../server/utils/migrate')
 const { migrations } = await import('../../../server/migrations/index')
 
@@ -34,6 +34,23 @@ describe('database layer', () => {
       const busy = await getDb().query<{ timeout: number }>('PRAGMA busy_timeout', { transaction: t, type: QueryTypes.SELECT })
       expect(busy[0]!.timeout).toBeGreaterThanOrEqual(1000)
     })
+  })
+
+  it('checks no foreign keys only in the one transaction that proves its own references, and nowhere after it', async () => {
+    const checked = (t?: Transaction) => getDb().query<{ foreign_keys: number }>('PRAGMA foreign_keys', { transaction: t, type: QueryTypes.SELECT }).then((r) => r[0]!.foreign_keys)
+    const parent = `SELECT 1 FROM price_versions WHERE id = 999999` // no such version: a price row naming it points nowhere
+    expect(await getDb().query(parent, { type: QueryTypes.SELECT })).toEqual([])
+    await withWrite(async (t) => {
+      expect(await checked(t)).toBe(0)
+      expect(await foreignKeysChecked(t)).toBe(false)
+    }, { referencesProvedByCaller: true })
+    // the next transactions, the statements outside one, and a write that breaks a reference are checked again
+    await withWrite(async (t) => { expect(await checked(t)).toBe(1); expect(await foreignKeysChecked(t)).toBe(true) })
+    expect(await checked()).toBe(1)
+    await getDb().query(`INSERT INTO parts (sku, type, description, created_at, updated_at) VALUES ('FK-UNIT-1', 'disc', 'Unit test disc', '2026-01-01', '2026-01-01')`)
+    await expect(withWrite((t) => getDb().query(
+      `INSERT INTO part_prices (part_id, list_price_minor, price_version_id) SELECT id, 100, 999999 FROM parts WHERE sku = 'FK-UNIT-1'`, { transaction: t },
+    ))).rejects.toThrow(/FOREIGN KEY/)
   })
 
   it('serialises concurrent write transactions: 50 parallel increments all land (no SQLITE_BUSY)', async () => {
