@@ -33,7 +33,10 @@ async function run(job: RowJob): Promise<void> {
 
 if (parentPort) {
   // On Linux a thread has its own nice value and setPriority(0, …) changes the calling thread only: the reading
-  // yields the CPU to the server thread, so requests are answered first while a file is checked
+  // yields the CPU to the server thread, so requests are answered first while a file is checked. Nice 5 (a third of
+  // the server thread's share where both want one core) rather than 10 (a tenth): at 10 the collector's and
+  // SQLite's threads starved it on two cores, and a 200,000-row check read its rows in 495-585 ms against 401-535 ms
+  // at 5, with health answers during the check no slower (p99 43-87 ms either way; bench/README.md)
   try { setPriority(0, 5) } catch { /* not permitted here: run at the normal priority */ }
   void run(workerData as RowJob)
 }
