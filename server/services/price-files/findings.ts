@@ -232,7 +232,12 @@ export async function readFindings(priceFileId: number, kind: ChangeKind, t?: Tr
     joinedInOrder('id', 'seq', 'price_file_findings WHERE price_file_id = $1 AND kind = $2', 'stamp'),
     { bind: [priceFileId, kind], type: QueryTypes.SELECT, transaction: t },
   )
-  const stamp = stampRow?.stamp ?? ''
+  let stamp = stampRow?.stamp ?? ''
+  if (kind === 'missing' && stamp) {
+    // missing parts stored by id show the catalogue's SKU and prices as they are now (fillMissing)
+    const [rev] = await getDb().query<{ c: number; p: number }>('SELECT catalogue AS c, prices AS p FROM catalogue_revisions WHERE id = 1', { type: QueryTypes.SELECT, transaction: t })
+    stamp += `@${rev?.c ?? 0}.${rev?.p ?? 0}`
+  }
   const key = `${priceFileId}:${kind}`
   const hit = cache.get(key)
   if (hit && hit.stamp === stamp) {
