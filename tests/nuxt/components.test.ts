@@ -3,6 +3,7 @@ import { mountSuspended } from '@nuxt/test-utils/runtime'
 import SafetyCaution from '~/components/ui/SafetyCaution.vue'
 import VerdictBadge from '~/components/inspections/VerdictBadge.vue'
 import ShareBar from '~/components/calculations/ShareBar.vue'
+import StockLevels from '~/components/catalogue/StockLevels.vue'
 
 describe('SafetyCaution', () => {
   it('always states that brakes are safety-critical and defers to the maker and qualified practice', async () => {
@@ -38,5 +39,14 @@ describe('ShareBar', () => {
   it('shows only the original when there is no replacement', async () => {
     const w = await mountSuspended(ShareBar, { props: { original: 70, replacement: null } })
     expect(w.findAll('[role="img"]')).toHaveLength(1)
+  })
+})
+
+describe('StockLevels', () => {
+  it('gives each branch\'s count its unit, "none" for an empty shelf, and the branch\'s name on hover', async () => {
+    const w = await mountSuspended(StockLevels, { props: { stock: [{ branchCode: 'NGT', quantity: 4, branchName: 'Northgate' }, { branchCode: 'RVS', quantity: 0 }] } })
+    const pills = w.findAll('span > span')
+    expect(pills.map((p) => p.text())).toEqual(['NGT 4 in stock', 'RVS none'])
+    expect(pills[0]!.attributes('title')).toBe('Northgate')
   })
 })
