@@ -253,6 +253,8 @@ let nextTransactionUnchecked = false
  * statements outside one is `default`) and runs BEGIN on it once this returns: the one opened while
  * `nextTransactionUnchecked` is set is the transaction's that asked, since every SQLite transaction opens under the
  * write lock (`withWrite`). The statement is queued after the driver's own set-up statements (serialised).
+ * Sequelize's `afterConnect` hook would be the place, but its SQLite connection manager never runs it (it opens
+ * connections in its own `getConnection`, not through the pool that runs the hooks), hence the wrapper.
  */
 function openTransactionsAsAsked(db: Sequelize): void {
   type Options = { uuid?: string } | undefined

@@ -4,6 +4,7 @@ import SafetyCaution from '~/components/ui/SafetyCaution.vue'
 import VerdictBadge from '~/components/inspections/VerdictBadge.vue'
 import ShareBar from '~/components/calculations/ShareBar.vue'
 import StockLevels from '~/components/catalogue/StockLevels.vue'
+import PriceCountTiles from '~/components/price-files/PriceCountTiles.vue'
 
 describe('SafetyCaution', () => {
   it('always states that brakes are safety-critical and defers to the maker and qualified practice', async () => {
@@ -48,5 +49,13 @@ describe('StockLevels', () => {
     const pills = w.findAll('span > span')
     expect(pills.map((p) => p.text())).toEqual(['NGT 4 in stock', 'RVS none'])
     expect(pills[0]!.attributes('title')).toBe('Northgate')
+  })
+})
+
+describe('PriceCountTiles', () => {
+  it('names what each count counts: rows or parts', async () => {
+    const w = await mountSuspended(PriceCountTiles, { props: { counts: { rows: 4, new: 2, changed: 1, unchanged: 0, missing: 796, rejected: 1, large: 0 } } })
+    expect(w.findAll('dt').map((d) => d.text())).toEqual(['Rows read', 'Price changes', 'New parts', 'Parts unchanged', 'Parts not in this file', 'Refused rows'])
+    expect(w.get('[data-count="missing"]').text()).toBe('796')
   })
 })
