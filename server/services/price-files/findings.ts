@@ -53,11 +53,6 @@ export function storedFinding(kind: string, f: PriceCheckFinding): unknown[] {
     while (short.length > 5 && short[short.length - 1] === null) short.pop()
     return short
   }
-  if (kind === 'missing') {
-    const short = [null, f[F.sku], f[F.partId], f[F.oldList], f[F.oldTrade], f[F.oldCore], f[F.oldPack]]
-    while (short.length > 3 && short[short.length - 1] === null) short.pop()
-    return short
-  }
   if (kind === 'unchanged') {
     const short = [f[F.row], f[F.sku], f[F.partId], f[F.newList], f[F.newTrade], f[F.newCore], f[F.oldPack], f[F.newPack], f[F.stock], f[F.reason]]
     while (short.length && short[short.length - 1] === null) short.pop()
