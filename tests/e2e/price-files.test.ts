@@ -630,6 +630,8 @@ describe('apply and roll back', () => {
     // the database changed by hand behind the product's back: the check's list of prices to write now names a part
     // id that no part has (the highest id ever given is below it)
     const writer = new sqlite3.Database(env().dbPath)
+    // the server may be writing (a session's last-seen time, a scheduled job): wait for its lock as the server does
+    writer.configure('busyTimeout', 10_000)
     try {
       await new Promise<void>((res, rej) => writer.run(
         `UPDATE price_file_findings SET rows = json_replace(rows, '$[0][0]', 987654321) WHERE price_file_id = ? AND kind = 'prices'`,

@@ -1,10 +1,12 @@
 import { describe, expect, it } from 'vitest'
-import { mountSuspended } from '@nuxt/test-utils/runtime'
+import { flushPromises } from '@vue/test-utils'
+import { mountSuspended, registerEndpoint } from '@nuxt/test-utils/runtime'
 import SafetyCaution from '~/components/ui/SafetyCaution.vue'
 import VerdictBadge from '~/components/inspections/VerdictBadge.vue'
 import ShareBar from '~/components/calculations/ShareBar.vue'
 import StockLevels from '~/components/catalogue/StockLevels.vue'
 import PriceCountTiles from '~/components/price-files/PriceCountTiles.vue'
+import PriceChangesTable from '~/components/price-files/PriceChangesTable.vue'
 
 describe('SafetyCaution', () => {
   it('always states that brakes are safety-critical and defers to the maker and qualified practice', async () => {
@@ -57,5 +59,25 @@ describe('PriceCountTiles', () => {
     const w = await mountSuspended(PriceCountTiles, { props: { counts: { rows: 4, new: 2, changed: 1, unchanged: 0, missing: 796, rejected: 1, large: 0 } } })
     expect(w.findAll('dt').map((d) => d.text())).toEqual(['Rows read', 'Price changes', 'New parts', 'Parts unchanged', 'Parts not in this file', 'Refused rows'])
     expect(w.get('[data-count="missing"]').text()).toBe('796')
+  })
+})
+
+describe('PriceChangesTable', () => {
+  it('gives the pack its unit and each branch\'s stock its words, and labels every cell for the phone layout', async () => {
+    const row = {
+      id: 1, kind: 'changed', rowNumber: 7, sku: 'KF-7', description: 'Front pad set', partType: 'pad_set',
+      oldListMinor: 4_000, newListMinor: 4_400, oldTradeMinor: 2_000, newTradeMinor: 2_000, oldCoreMinor: null, newCoreMinor: null,
+      oldPack: 1, newPack: 4, changePct: 10, large: false, stock: { NGT: 4, RVS: 0 }, columns: null, reason: null,
+    }
+    registerEndpoint('/api/price-files/901/changes', () => ({ data: [row], meta: { page: 1, pageSize: 25, total: 1, pages: 1 } }))
+    const w = await mountSuspended(PriceChangesTable, { props: { priceFileId: 901, kind: 'changed' } })
+    await flushPromises()
+    const cells = w.findAll('tbody td')
+    const cell = (label: string) => cells.find((c) => c.attributes('data-label') === label)!.text()
+    expect(cell('Pack')).toBe('1 piece → 4 pieces')
+    expect(w.findAll('td[data-label="Stock"] span > span').map((p) => p.text())).toEqual(['NGT 4 in stock', 'RVS none'])
+    // every cell names its column, so the phone's one-card-per-row layout can say what each figure is
+    expect(cells.every((c) => c.attributes('data-label'))).toBe(true)
+    expect(w.get('table').classes()).toContain('row-cards')
   })
 })
