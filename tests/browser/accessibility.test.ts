@@ -67,7 +67,8 @@ describe('accessibility of the main pages (axe-core)', () => {
     const page = await context.newPage()
     await visit(page, '/catalogue')
     for (const step of ['Make', 'Model', 'Year', 'Engine / variant']) {
-      const choice = page.locator('fieldset', { has: page.locator('legend', { hasText: step }) }).getByRole('button').first()
+      // the group whose own legend names the step (the page as a whole sits in a fieldset too, see app.vue)
+      const choice = page.locator('fieldset', { has: page.locator(':scope > legend', { hasText: step }) }).getByRole('button').first()
       await choice.waitFor()
       await choice.focus()
       await page.keyboard.press('Enter')

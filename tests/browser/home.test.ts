@@ -43,4 +43,26 @@ describe('home page in Chromium', () => {
     expect(await page.evaluate(() => document.activeElement?.textContent?.trim())).toBe('Skip to content')
     await context.close()
   })
+
+  it('keeps fields and buttons closed until the page is hydrated, so nothing typed early is lost or sent by the browser itself', async () => {
+    const { context } = await newContext(browser)
+    // the app's scripts are held back, as on a slow phone: the server's HTML is on screen, Vue has not taken it over
+    let release!: () => void
+    const held = new Promise<void>((r) => { release = r })
+    await context.route('**/_nuxt/**/*.js', async (route) => { await held; await route.continue() })
+    const page = await context.newPage()
+    await page.goto('/sign-in', { waitUntil: 'commit' }) // module scripts hold DOMContentLoaded back
+    const email = page.getByLabel('E-mail')
+    await email.waitFor()
+    expect(await email.isEditable()).toBe(false)
+    expect(await page.getByRole('button', { name: 'Sign in' }).isEnabled()).toBe(false)
+    release()
+    // once hydrated (Playwright waits for the field to be editable), what is typed is what is sent
+    await email.fill('nobody-here@boreline.test')
+    await page.getByLabel('Password').fill('not-the-password')
+    await page.getByRole('button', { name: 'Sign in' }).click()
+    await page.getByText(/not right|do not match|wrong/i).first().waitFor()
+    expect(new URL(page.url()).search).toBe('')
+    await context.close()
+  })
 })

@@ -7,6 +7,7 @@ import ShareBar from '~/components/calculations/ShareBar.vue'
 import StockLevels from '~/components/catalogue/StockLevels.vue'
 import PriceCountTiles from '~/components/price-files/PriceCountTiles.vue'
 import PriceChangesTable from '~/components/price-files/PriceChangesTable.vue'
+import GarageFigures from '~/components/dashboard/GarageFigures.vue'
 
 describe('SafetyCaution', () => {
   it('always states that brakes are safety-critical and defers to the maker and qualified practice', async () => {
@@ -79,5 +80,26 @@ describe('PriceChangesTable', () => {
     // every cell names its column, so the phone's one-card-per-row layout can say what each figure is
     expect(cells.every((c) => c.attributes('data-label'))).toBe(true)
     expect(w.get('table').classes()).toContain('row-cards')
+  })
+})
+
+describe('GarageFigures', () => {
+  it('counts in the singular when there is one, and says "no invoices" in words, not in the figure\'s digits', async () => {
+    const d = {
+      range: { from: '2026-11-06', to: '2026-12-05', days: 30, timeZone: 'Europe/London' }, currency: 'GBP',
+      quotes: { sent: 1, approved: 1, rateBp: 10_000 },
+      lines: { required: { decided: 2, approved: 1, rateBp: 5_000 }, advised: { decided: 1, approved: 0, rateBp: 0 } },
+      declinedAdvised: [{ key: 'disc', label: 'Discs', count: 1 }],
+      jobs: { invoices: 0, grossMinor: 0, averageMinor: null }, spendByMonth: [], reminders: { sent: 1, quotesApproved: 0, workMinor: 0 },
+    }
+    const w = await mountSuspended(GarageFigures, { props: { d } })
+    const note = (id: string) => w.get(`[data-testid="${id}"]`).element.nextElementSibling!.textContent
+    expect(note('dash-quotes')).toBe('1 of 1 quote sent (wholly or partly)')
+    expect(note('dash-required')).toBe('1 of 2 lines owners decided')
+    expect(note('dash-advised')).toBe('0 of 1 line owners decided')
+    expect(note('dash-job')).toBe('0 invoices to owners, £0.00 with VAT')
+    expect(w.get('[data-testid="dash-job"]').classes()).not.toContain('mono')
+    expect(w.get('[data-testid="dash-declined"] tbody').text()).toBe('Discs1 line')
+    expect(w.get('[data-testid="dash-reminders"]').text()).toContain('1 e-mail')
   })
 })
