@@ -74,7 +74,8 @@ export async function shot(page: Page, name: string): Promise<void> {
 export async function hydrated(page: Page): Promise<void> {
   await page.waitForFunction(() => {
     const el = document.querySelector('#__nuxt') as (Element & { __vue_app__?: { $nuxt?: { isHydrating?: boolean } } }) | null
-    return !!el?.__vue_app__ && el.__vue_app__.$nuxt?.isHydrating === false
+    // and app.vue has opened its fields (they are closed until hydration; an error page has no such frame)
+    return !!el?.__vue_app__ && el.__vue_app__.$nuxt?.isHydrating === false && !document.querySelector('[data-app-frame][disabled]')
   }, undefined, { timeout: 30_000 })
 }
 
