@@ -13,8 +13,9 @@ export function useFormFeedback() {
   const fields = ref<Record<string, string>>({})
   const problem = ref('')
   const busy = ref(false)
-  /** false until the page is hydrated: disable submit buttons with it, so an early click or Enter cannot
-   *  fall back to a native GET submit that would put the fields (passwords) in the URL */
+  /** false until the page is hydrated. app.vue now closes every field and button until then (its disabled
+   *  fieldset), which covers what this guarded first: an early click or Enter falling back to a native GET submit
+   *  with the fields (passwords) in the URL. Submit buttons still use it; it can go as they are next touched. */
   const ready = ref(false)
   onMounted(() => { ready.value = true })
   if (import.meta.client) {

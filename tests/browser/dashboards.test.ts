@@ -37,6 +37,14 @@ describe('the distributor dashboard', () => {
     await page.getByLabel('Last day').fill('2031-03-01')
     await page.getByRole('button', { name: 'Show' }).click()
     await expect.poll(() => page.getByText('The last day comes before the first.').count()).toBe(1)
+    // the same range in a link typed by hand (a full load): the message beside "Last day", the days as typed, no
+    // page-wide error naming the field by its parameter
+    await open(page, '/dashboard?from=2031-03-05&to=2031-03-01')
+    const last = page.getByLabel('Last day')
+    await expect.poll(() => last.getAttribute('aria-invalid')).toBe('true')
+    expect(await page.locator(`#${await last.getAttribute('aria-describedby')}`).textContent()).toBe('The last day comes before the first.')
+    expect([await page.getByLabel('First day').inputValue(), await last.inputValue()]).toEqual(['2031-03-05', '2031-03-01'])
+    expect(await page.getByRole('alert').count()).toBe(0)
     await page.setViewportSize({ width: 390, height: 844 })
     await open(page, '/dashboard')
     await expect.poll(() => page.getByTestId('dash-sales').count()).toBe(1)
